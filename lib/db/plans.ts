@@ -1,0 +1,49 @@
+import type { Db } from "./client";
+import { z } from "zod";
+
+export const PLAN_KINDS = ["warmup", "hold", "thaw", "size"] as const;
+
+/** A saved plan keeps a full copy of its inputs, so editing or deleting a template never changes it. */
+export const planSchema = z.object({
+  kind: z.enum(PLAN_KINDS, { error: "Plan kind: warmup, hold, thaw or size" }),
+  name: z.string().trim().min(1, { error: "Name: enter a name" }).max(200),
+  input: z.unknown(),
+  result: z.unknown(),
+});
+export type PlanInput = z.input<typeof planSchema>;
+
+export interface StoredPlan {
+  id: number;
+  kind: string;
+  name: string;
+  input: unknown;
+  result: unknown;
+  createdAt: Date;
+}
+
+export async function savePlan(db: Db, plan: PlanInput): Promise<number> {
+  const p = planSchema.parse(plan);
+  const row = await db.plan.create({
+    data: { kind: p.kind, name: p.name, input: JSON.stringify(p.input ?? null), result: JSON.stringify(p.result ?? null) },
+  });
+  return row.id;
+}
+
+function toPlan(r: { id: number; kind: string; name: string; input: string; result: string; createdAt: Date }): StoredPlan {
+  return { id: r.id, kind: r.kind, name: r.name, input: JSON.parse(r.input), result: JSON.parse(r.result), createdAt: r.createdAt };
+}
+
+export async function listPlans(db: Db): Promise<StoredPlan[]> {
+  return (await db.plan.findMany({ orderBy: { createdAt: "desc" } })).map(toPlan);
+}
+
+export async function getPlan(db: Db, id: number): Promise<StoredPlan | null> {
+  if (!Number.isInteger(id) || id <= 0) return null;
+  const r = await db.plan.findUnique({ where: { id } });
+  return r ? toPlan(r) : null;
+}
+
+export async function deletePlan(db: Db, id: number): Promise<boolean> {
+  const r = await db.plan.deleteMany({ where: { id } });
+  return r.count === 1;
+}

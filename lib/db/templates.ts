@@ -1,0 +1,265 @@
+/**
+ * Queries for the template library. Every function takes the Prisma client, validates
+ * with the one zod schema of its kind, and maps between the flat SQLite row (SI units,
+ * JSON text for layers and segments) and the schema's shape.
+ */
+import type { Db } from "./client";
+import {
+  type FieldErrors,
+  fieldErrorsOf,
+} from "../schemas/errors";
+import {
+  type TemplateKind,
+  type TemplateOutput,
+  templateSchemas,
+  layerSchema,
+  segmentSchema,
+  TEMPLATE_LABELS,
+} from "../schemas/templates";
+import { z } from "zod";
+
+export interface Stored<K extends TemplateKind> {
+  id: number;
+  version: number;
+  updatedAt: Date;
+  data: TemplateOutput[K];
+}
+
+export type SaveResult =
+  | { ok: true; id: number; version: number }
+  | { ok: false; reason: "invalid"; fieldErrors: FieldErrors }
+  | { ok: false; reason: "conflict"; message: string; currentVersion: number | null }
+  | { ok: false; reason: "not_found"; message: string };
+
+type Row = Record<string, unknown> & { id: number; version: number; updatedAt: Date };
+
+const parseJson = <T>(text: unknown, schema: z.ZodType<T>): T => schema.parse(JSON.parse(String(text)));
+
+/** Row → schema shape. */
+function fromRow<K extends TemplateKind>(kind: K, row: Row): TemplateOutput[K] {
+  const { id: _id, version: _v, createdAt: _c, updatedAt: _u, ...rest } = row;
+  switch (kind) {
+    case "products": {
+      const {
+        waterFraction,
+        proteinFraction,
+        fatFraction,
+        carbohydrateFraction,
+        fibreFraction,
+        ashFraction,
+        ...p
+      } = rest as Record<string, unknown>;
+      return {
+        ...p,
+        composition: {
+          water: waterFraction,
+          protein: proteinFraction,
+          fat: fatFraction,
+          carbohydrate: carbohydrateFraction,
+          fibre: fibreFraction,
+          ash: ashFraction,
+        },
+      } as unknown as TemplateOutput[K];
+    }
+    case "shippers":
+      return {
+        ...rest,
+        wallLayers: parseJson(rest.wallLayers, z.array(layerSchema)),
+        lidLayers: rest.lidLayers === null ? null : parseJson(rest.lidLayers, z.array(layerSchema)),
+      } as unknown as TemplateOutput[K];
+    case "routes":
+      return { ...rest, segments: parseJson(rest.segments, z.array(segmentSchema)) } as unknown as TemplateOutput[K];
+    case "rulesets":
+      return { ...rest, isDefault: Boolean(rest.isDefault) } as unknown as TemplateOutput[K];
+    default:
+      return rest as unknown as TemplateOutput[K];
+  }
+}
+
+/** Schema shape → row columns. */
+function toRow(kind: TemplateKind, data: TemplateOutput[TemplateKind]): Record<string, unknown> {
+  switch (kind) {
+    case "products": {
+      const { composition, ...p } = data as TemplateOutput["products"];
+      return {
+        ...p,
+        waterFraction: composition.water,
+        proteinFraction: composition.protein,
+        fatFraction: composition.fat,
+        carbohydrateFraction: composition.carbohydrate,
+        fibreFraction: composition.fibre,
+        ashFraction: composition.ash,
+      };
+    }
+    case "shippers": {
+      const s = data as TemplateOutput["shippers"];
+      return { ...s, wallLayers: JSON.stringify(s.wallLayers), lidLayers: s.lidLayers ? JSON.stringify(s.lidLayers) : null };
+    }
+    case "routes": {
+      const r = data as TemplateOutput["routes"];
+      return { ...r, segments: JSON.stringify(r.segments) };
+    }
+    default:
+      return { ...data };
+  }
+}
+
+// Prisma delegates are typed per model; the generic repository reaches them by name.
+type Delegate = {
+  findMany(args?: unknown): Promise<Row[]>;
+  findUnique(args: unknown): Promise<Row | null>;
+  findFirst(args: unknown): Promise<Row | null>;
+  create(args: unknown): Promise<Row>;
+  updateMany(args: unknown): Promise<{ count: number }>;
+  update(args: unknown): Promise<Row>;
+  delete(args: unknown): Promise<Row>;
+  deleteMany(args?: unknown): Promise<{ count: number }>;
+  count(args?: unknown): Promise<number>;
+};
+type TxLike = Pick<Db, "material" | "product" | "shipper" | "coolantPack" | "route" | "ruleSet">;
+
+const MODEL: Record<TemplateKind, keyof TxLike> = {
+  materials: "material",
+  products: "product",
+  shippers: "shipper",
+  packs: "coolantPack",
+  routes: "route",
+  rulesets: "ruleSet",
+};
+
+export function delegateFor(db: TxLike, kind: TemplateKind): Delegate {
+  return db[MODEL[kind]] as unknown as Delegate;
+}
+
+export async function listTemplates<K extends TemplateKind>(db: Db, kind: K): Promise<Stored<K>[]> {
+  const rows = await delegateFor(db, kind).findMany({ orderBy: { name: "asc" } });
+  return rows.map((r) => ({ id: r.id, version: r.version, updatedAt: r.updatedAt, data: fromRow(kind, r) }));
+}
+
+export async function getTemplate<K extends TemplateKind>(db: Db, kind: K, id: number): Promise<Stored<K> | null> {
+  if (!Number.isInteger(id) || id <= 0) return null;
+  const r = await delegateFor(db, kind).findUnique({ where: { id } });
+  return r ? { id: r.id, version: r.version, updatedAt: r.updatedAt, data: fromRow(kind, r) } : null;
+}
+
+export async function getTemplateByName<K extends TemplateKind>(db: Db, kind: K, name: string): Promise<Stored<K> | null> {
+  const r = await delegateFor(db, kind).findUnique({ where: { name } });
+  return r ? { id: r.id, version: r.version, updatedAt: r.updatedAt, data: fromRow(kind, r) } : null;
+}
+
+/** Checks references a template makes to other templates (a box's layer materials). */
+async function referenceErrors(db: TxLike, kind: TemplateKind, data: TemplateOutput[TemplateKind]): Promise<FieldErrors> {
+  const errors: FieldErrors = {};
+  if (kind !== "shippers") return errors;
+  const s = data as TemplateOutput["shippers"];
+  const names = new Set(
+    (await delegateFor(db, "materials").findMany({ select: { name: true } })).map((m) => String(m.name)),
+  );
+  s.wallLayers.forEach((l, i) => {
+    if (!names.has(l.material)) errors[`wallLayers.${i}.material`] = [`No material named "${l.material}" in the library`];
+  });
+  (s.lidLayers ?? []).forEach((l, i) => {
+    if (!names.has(l.material)) errors[`lidLayers.${i}.material`] = [`No material named "${l.material}" in the library`];
+  });
+  if (!names.has(s.finishMaterial)) errors["finishMaterial"] = [`No material named "${s.finishMaterial}" in the library`];
+  return errors;
+}
+
+async function nameTaken(db: TxLike, kind: TemplateKind, name: string, exceptId: number | null): Promise<boolean> {
+  const r = await delegateFor(db, kind).findUnique({ where: { name } });
+  return !!r && r.id !== exceptId;
+}
+
+/** Validates and saves. `id === null` creates; otherwise updates only if `expectedVersion` still matches. */
+export async function saveTemplate(
+  db: Db,
+  kind: TemplateKind,
+  id: number | null,
+  expectedVersion: number | null,
+  input: unknown,
+): Promise<SaveResult> {
+  const parsed = templateSchemas[kind].safeParse(input);
+  if (!parsed.success) return { ok: false, reason: "invalid", fieldErrors: fieldErrorsOf(parsed.error) };
+  const data = parsed.data as TemplateOutput[TemplateKind];
+  const refErrors = await referenceErrors(db, kind, data);
+  if (Object.keys(refErrors).length) return { ok: false, reason: "invalid", fieldErrors: refErrors };
+  if (await nameTaken(db, kind, (data as { name: string }).name, id)) {
+    return {
+      ok: false,
+      reason: "invalid",
+      fieldErrors: { name: [`Another ${TEMPLATE_LABELS[kind].one} is already called "${(data as { name: string }).name}"`] },
+    };
+  }
+  const d = delegateFor(db, kind);
+  return db.$transaction(async (tx) => {
+    const t = delegateFor(tx as unknown as TxLike, kind);
+    if (kind === "rulesets" && (data as TemplateOutput["rulesets"]).isDefault) {
+      await t.updateMany({ where: { isDefault: true, ...(id ? { NOT: { id } } : {}) }, data: { isDefault: false } });
+    }
+    if (id === null) {
+      const row = await t.create({ data: toRow(kind, data) });
+      return { ok: true as const, id: row.id, version: row.version };
+    }
+    const current = await t.findUnique({ where: { id } });
+    if (!current) return { ok: false as const, reason: "not_found" as const, message: `This ${TEMPLATE_LABELS[kind].one} no longer exists; it may have been deleted.` };
+    if (expectedVersion === null || current.version !== expectedVersion) {
+      return {
+        ok: false as const,
+        reason: "conflict" as const,
+        message: `This ${TEMPLATE_LABELS[kind].one} was changed since you opened it (by another person or tab). Your edits are still in the form; nothing was saved.`,
+        currentVersion: current.version,
+      };
+    }
+    const res = await t.updateMany({ where: { id, version: expectedVersion }, data: { ...toRow(kind, data), version: { increment: 1 } } });
+    if (res.count !== 1) {
+      return { ok: false as const, reason: "conflict" as const, message: `This ${TEMPLATE_LABELS[kind].one} was changed since you opened it.`, currentVersion: null };
+    }
+    void d;
+    return { ok: true as const, id, version: expectedVersion + 1 };
+  });
+}
+
+/** Deletes a template. Saved plans hold their own snapshot, so they are not touched. */
+export async function deleteTemplate(db: Db, kind: TemplateKind, id: number): Promise<{ ok: true } | { ok: false; message: string }> {
+  const d = delegateFor(db, kind);
+  const row = await d.findUnique({ where: { id } });
+  if (!row) return { ok: false, message: `No ${TEMPLATE_LABELS[kind].one} with id ${id}` };
+  if (kind === "materials") {
+    const users = (await listTemplates(db, "shippers")).filter(
+      (s) =>
+        s.data.finishMaterial === row.name ||
+        s.data.wallLayers.some((l) => l.material === row.name) ||
+        (s.data.lidLayers ?? []).some((l) => l.material === row.name),
+    );
+    if (users.length) {
+      return { ok: false, message: `"${String(row.name)}" is used by ${users.map((u) => `"${u.data.name}"`).join(", ")}; change those boxes first` };
+    }
+  }
+  await d.delete({ where: { id } });
+  return { ok: true };
+}
+
+/** Copies a template under a free name ("X (copy)", "X (copy 2)", …). */
+export async function duplicateTemplate(db: Db, kind: TemplateKind, id: number): Promise<SaveResult> {
+  const src = await getTemplate(db, kind, id);
+  if (!src) return { ok: false, reason: "not_found", message: `No ${TEMPLATE_LABELS[kind].one} with id ${id}` };
+  const base = `${(src.data as { name: string }).name} (copy`;
+  let name = `${base})`;
+  for (let n = 2; await nameTaken(db, kind, name, null); n++) name = `${base} ${n})`;
+  const data = { ...src.data, name } as Record<string, unknown>;
+  if (kind === "rulesets") data.isDefault = false;
+  return saveTemplate(db, kind, null, null, data);
+}
+
+export async function countTemplates(db: Db): Promise<number> {
+  let n = 0;
+  for (const k of Object.keys(MODEL) as TemplateKind[]) n += await delegateFor(db, k).count();
+  return n;
+}
+
+export async function defaultRuleSet(db: Db): Promise<Stored<"rulesets"> | null> {
+  const r = (await delegateFor(db, "rulesets").findFirst({ where: { isDefault: true } })) ?? (await delegateFor(db, "rulesets").findFirst({ orderBy: { id: "asc" } }));
+  return r ? { id: r.id, version: r.version, updatedAt: r.updatedAt, data: fromRow("rulesets", r) } : null;
+}
+
+export { fromRow as _fromRowForTests, toRow as _toRowForTests };

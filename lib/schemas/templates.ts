@@ -1,0 +1,279 @@
+/**
+ * Input schemas for every template kind. These zod schemas are the single source of
+ * truth: the forms (zodResolver), the server actions and API route handlers
+ * (safeParse → field errors), the CLI import and the JSON Schema (`holdline schema`)
+ * all use them. Every number is SI with its unit in the field name.
+ */
+import { z } from "zod";
+
+/** Absolute zero, 0 K = −273.15 °C (BIPM, The International System of Units, 9th ed., 2019). */
+export const ABSOLUTE_ZERO_C = -273.15;
+
+const num = (what: string) => z.number({ error: `${what}: enter a number` });
+const positive = (what: string) => num(what).positive({ error: `${what} must be greater than zero` });
+const nonNegative = (what: string) => num(what).nonnegative({ error: `${what} cannot be negative` });
+const temperature = (what: string) =>
+  num(what)
+    .min(ABSOLUTE_ZERO_C, { error: `${what} cannot be below absolute zero (−273.15 °C)` })
+    .max(1000, { error: `${what} above 1000 °C is not a food temperature` });
+const fraction = (what: string) =>
+  num(what).min(0, { error: `${what} cannot be negative` }).max(1, { error: `${what} cannot exceed 1` });
+const name = z
+  .string({ error: "Name: enter a name" })
+  .trim()
+  .min(1, { error: "Name: enter a name" })
+  .max(120, { error: "Name: at most 120 characters" });
+const notes = z.string().max(4000, { error: "Notes: at most 4000 characters" }).default("");
+const optionalPositive = (what: string) => positive(what).nullable().default(null);
+
+// ---------------------------------------------------------------- materials
+export const MATERIAL_CATEGORIES = ["insulation", "packaging", "tray", "finish"] as const;
+
+export const materialSchema = z.object({
+  name,
+  category: z.enum(MATERIAL_CATEGORIES, { error: "Category: choose insulation, packaging, tray or finish" }),
+  conductivity_W_mK: positive("Conductivity"),
+  conductivitySource: z.string().trim().min(1, { error: "Give the published source of the conductivity" }),
+  density_kg_m3: positive("Density"),
+  densitySource: z.string().trim().min(1, { error: "Give the published source of the density" }),
+  specificHeat_J_kgK: positive("Specific heat"),
+  specificHeatSource: z.string().trim().min(1, { error: "Give the published source of the specific heat" }),
+  emissivity: fraction("Emissivity"),
+  emissivitySource: z.string().trim().min(1, { error: "Give the published source of the emissivity" }),
+  solarAbsorptivity: fraction("Solar absorptivity"),
+  solarAbsorptivitySource: z.string().trim().min(1, { error: "Give the published source of the solar absorptivity" }),
+  notes,
+});
+export type MaterialInput = z.input<typeof materialSchema>;
+export type Material = z.output<typeof materialSchema>;
+
+// ---------------------------------------------------------------- products
+export const PRODUCT_SHAPES = ["slab", "cylinder", "sphere", "block"] as const;
+export type ProductShape = (typeof PRODUCT_SHAPES)[number];
+
+/** What each dimension means for each shape (dimA_m, dimB_m, dimC_m). */
+export const SHAPE_DIMENSIONS: Record<ProductShape, string[]> = {
+  slab: ["Thickness", "Width", "Length"],
+  cylinder: ["Diameter", "Length"],
+  sphere: ["Diameter"],
+  block: ["Height", "Width", "Length"],
+};
+
+/** Allowed gap between the sum of the mass fractions and 1. */
+export const COMPOSITION_TOLERANCE = 0.01;
+
+export const compositionSchema = z
+  .object({
+    water: fraction("Water"),
+    protein: fraction("Protein"),
+    fat: fraction("Fat"),
+    carbohydrate: fraction("Carbohydrate"),
+    fibre: fraction("Fibre"),
+    ash: fraction("Ash"),
+  })
+  .superRefine((c, ctx) => {
+    const sum = c.water + c.protein + c.fat + c.carbohydrate + c.fibre + c.ash;
+    if (Number.isFinite(sum) && Math.abs(sum - 1) > COMPOSITION_TOLERANCE) {
+      ctx.addIssue({
+        code: "custom",
+        message: `Mass fractions add up to ${sum.toFixed(3)}; they must add up to 1 (±${COMPOSITION_TOLERANCE})`,
+        path: [],
+      });
+    }
+  });
+export type Composition = z.output<typeof compositionSchema>;
+
+export const productSchema = z
+  .object({
+    name,
+    category: z.string().trim().min(1, { error: "Category: enter a category" }).max(80),
+    shape: z.enum(PRODUCT_SHAPES, { error: "Shape: choose slab, cylinder, sphere or block" }),
+    dimA_m: positive("First dimension"),
+    dimB_m: positive("Second dimension").nullable().default(null),
+    dimC_m: positive("Third dimension").nullable().default(null),
+    mass_kg: positive("Mass"),
+    composition: compositionSchema,
+    compositionSource: z.string().max(400).default(""),
+    initialFreezing_C: temperature("Initial freezing point")
+      .max(0, { error: "Initial freezing point of a water-based food is at or below 0 °C" })
+      .nullable()
+      .default(null),
+    density_kg_m3: optionalPositive("Density"),
+    cpUnfrozen_J_kgK: optionalPositive("Specific heat above freezing"),
+    cpFrozen_J_kgK: optionalPositive("Specific heat below freezing"),
+    kUnfrozen_W_mK: optionalPositive("Conductivity above freezing"),
+    kFrozen_W_mK: optionalPositive("Conductivity below freezing"),
+    latentHeat_J_kg: nonNegative("Latent heat").nullable().default(null),
+    freezeSensitive: z.boolean().default(false),
+    notes,
+  })
+  .superRefine((p, ctx) => {
+    const need = SHAPE_DIMENSIONS[p.shape]?.length ?? 1;
+    if (need >= 2 && (p.dimB_m === null || p.dimB_m === undefined)) {
+      ctx.addIssue({ code: "custom", path: ["dimB_m"], message: `${SHAPE_DIMENSIONS[p.shape][1]}: required for a ${p.shape}` });
+    }
+    if (need >= 3 && (p.dimC_m === null || p.dimC_m === undefined)) {
+      ctx.addIssue({ code: "custom", path: ["dimC_m"], message: `${SHAPE_DIMENSIONS[p.shape][2]}: required for a ${p.shape}` });
+    }
+  });
+export type ProductInput = z.input<typeof productSchema>;
+export type Product = z.output<typeof productSchema>;
+
+// ---------------------------------------------------------------- shippers
+export const layerSchema = z.object({
+  material: z.string().trim().min(1, { error: "Layer: choose a material" }),
+  thickness_m: positive("Thickness").max(0.5, { error: "Thickness above 500 mm is not a box wall" }),
+});
+export type Layer = z.output<typeof layerSchema>;
+
+export const shipperSchema = z.object({
+  name,
+  innerLength_m: positive("Inner length"),
+  innerWidth_m: positive("Inner width"),
+  innerHeight_m: positive("Inner height"),
+  wallLayers: z.array(layerSchema).min(1, { error: "Add at least one wall layer" }).max(8, { error: "At most 8 layers" }),
+  lidLayers: z.array(layerSchema).min(1, { error: "A separate lid needs at least one layer" }).max(8).nullable().default(null),
+  finishMaterial: z.string().trim().min(1, { error: "Outer finish: choose a surface" }),
+  emptyMass_kg: nonNegative("Empty mass"),
+  cost: nonNegative("Cost"),
+  notes,
+});
+export type ShipperInput = z.input<typeof shipperSchema>;
+export type Shipper = z.output<typeof shipperSchema>;
+
+// ---------------------------------------------------------------- coolant packs
+export const PACK_KINDS = ["water_ice", "gel", "pcm", "dry_ice"] as const;
+export type PackKind = (typeof PACK_KINDS)[number];
+export const PACK_KIND_LABELS: Record<PackKind, string> = {
+  water_ice: "Water ice",
+  gel: "Gel pack",
+  pcm: "Eutectic / phase-change pack",
+  dry_ice: "Dry ice (solid CO₂)",
+};
+
+export const packSchema = z.object({
+  name,
+  kind: z.enum(PACK_KINDS, { error: "Kind: choose water ice, gel, phase-change or dry ice" }),
+  mass_kg: positive("Mass"),
+  length_m: positive("Length"),
+  width_m: positive("Width"),
+  thickness_m: positive("Thickness"),
+  phaseChange_C: temperature("Melt or sublimation temperature"),
+  latentHeat_J_kg: positive("Latent heat"),
+  cpSolid_J_kgK: positive("Specific heat (frozen)"),
+  cpLiquid_J_kgK: positive("Specific heat (melted)"),
+  conditioning_C: temperature("Conditioning temperature"),
+  notes,
+});
+export type PackInput = z.input<typeof packSchema>;
+export type Pack = z.output<typeof packSchema>;
+
+// ---------------------------------------------------------------- routes
+export const segmentSchema = z.object({
+  label: z.string().trim().max(80).default(""),
+  duration_s: positive("Duration").max(30 * 86400, { error: "Duration: at most 30 days per segment" }),
+  airTemp_C: temperature("Air temperature").max(80, { error: "Air temperature above 80 °C is outside what a route can be" }),
+  airSpeed_m_s: nonNegative("Air speed").max(60, { error: "Air speed above 60 m/s is not a route" }),
+  sun_W_m2: nonNegative("Sun").max(1400, { error: "Sun above 1400 W/m² exceeds the solar constant" }),
+  lidOpenings: z
+    .number({ error: "Lid openings: enter a whole number" })
+    .int({ error: "Lid openings: enter a whole number" })
+    .nonnegative({ error: "Lid openings cannot be negative" })
+    .max(1000)
+    .default(0),
+  lidOpenDuration_s: nonNegative("Lid-open time").default(0),
+});
+export type Segment = z.output<typeof segmentSchema>;
+
+export const routeSchema = z.object({
+  name,
+  segments: z.array(segmentSchema).min(1, { error: "A route needs at least one segment" }).max(100),
+  notes,
+});
+export type RouteInput = z.input<typeof routeSchema>;
+export type Route = z.output<typeof routeSchema>;
+
+// ---------------------------------------------------------------- rule sets
+const optionalDuration = (what: string) => positive(what).nullable().default(null);
+
+export const ruleSetSchema = z
+  .object({
+    name,
+    jurisdiction: z.string().trim().min(1, { error: "Jurisdiction: enter a label" }).max(120),
+    chilledMax_C: temperature("Chilled upper limit").max(20, { error: "Chilled upper limit above 20 °C is not a chill limit" }),
+    frozenMax_C: temperature("Frozen upper limit").max(0, { error: "Frozen upper limit must be at or below 0 °C" }),
+    hotHoldMin_C: temperature("Hot-holding lower limit").min(40, { error: "Hot-holding lower limit below 40 °C is not hot holding" }),
+    thawWaterMax_C: temperature("Maximum thawing-water temperature").nullable().default(null),
+    outsideControlMax_s: optionalDuration("Time outside temperature control"),
+    chillExcursionMax_s: optionalDuration("Chill tolerance period"),
+    hotExcursionMax_s: optionalDuration("Hot tolerance period"),
+    thawSurfaceAboveMax_s: optionalDuration("Thawing: time above the chill limit"),
+    source: z.string().trim().min(1, { error: "Source: say where these limits come from" }).max(2000),
+    reminder: z.string().trim().min(1, { error: "Reminder: keep a note to confirm with the local regulator" }).max(2000),
+    isDefault: z.boolean().default(false),
+  })
+  .superRefine((r, ctx) => {
+    if (r.frozenMax_C >= r.chilledMax_C) {
+      ctx.addIssue({ code: "custom", path: ["frozenMax_C"], message: "Frozen upper limit must be below the chilled upper limit" });
+    }
+  });
+export type RuleSetInput = z.input<typeof ruleSetSchema>;
+export type RuleSet = z.output<typeof ruleSetSchema>;
+
+// ---------------------------------------------------------------- settings
+export const settingsSchema = z.object({
+  temperatureUnit: z.enum(["C", "F"], { error: "Temperature unit: °C or °F" }),
+  massUnit: z.enum(["kg", "lb"], { error: "Mass unit: kg or lb" }),
+  lengthUnit: z.enum(["mm", "in"], { error: "Length unit: mm or in" }),
+});
+export type Settings = z.output<typeof settingsSchema>;
+
+// ---------------------------------------------------------------- registry
+export const TEMPLATE_KINDS = ["materials", "products", "shippers", "packs", "routes", "rulesets"] as const;
+export type TemplateKind = (typeof TEMPLATE_KINDS)[number];
+
+export const templateSchemas = {
+  materials: materialSchema,
+  products: productSchema,
+  shippers: shipperSchema,
+  packs: packSchema,
+  routes: routeSchema,
+  rulesets: ruleSetSchema,
+} as const;
+
+export type TemplateOutput = {
+  materials: Material;
+  products: Product;
+  shippers: Shipper;
+  packs: Pack;
+  routes: Route;
+  rulesets: RuleSet;
+};
+
+export const TEMPLATE_LABELS: Record<TemplateKind, { one: string; many: string }> = {
+  materials: { one: "material", many: "Materials" },
+  products: { one: "product", many: "Products" },
+  shippers: { one: "box", many: "Boxes" },
+  packs: { one: "coolant pack", many: "Coolant packs" },
+  routes: { one: "route", many: "Routes" },
+  rulesets: { one: "rule set", many: "Rule sets" },
+};
+
+export function isTemplateKind(x: string): x is TemplateKind {
+  return (TEMPLATE_KINDS as readonly string[]).includes(x);
+}
+
+// ---------------------------------------------------------------- library file
+/** The file written by `holdline export` and read by `holdline import`. */
+export const libraryFileSchema = z.object({
+  format: z.literal("holdline-library", { error: 'format must be "holdline-library"' }),
+  formatVersion: z.literal(1, { error: "formatVersion must be 1" }),
+  settings: settingsSchema.optional(),
+  materials: z.array(materialSchema).default([]),
+  products: z.array(productSchema).default([]),
+  shippers: z.array(shipperSchema).default([]),
+  packs: z.array(packSchema).default([]),
+  routes: z.array(routeSchema).default([]),
+  rulesets: z.array(ruleSetSchema).default([]),
+});
+export type LibraryFile = z.output<typeof libraryFileSchema>;
