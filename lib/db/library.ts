@@ -39,7 +39,7 @@ export async function importLibrary(db: Db, file: unknown): Promise<ImportResult
     entries.forEach((e, i) => {
       const r = templateSchemas[kind].safeParse(e);
       const label = `${kind}[${i}]${e && typeof e === "object" && "name" in e ? ` ("${String((e as { name: unknown }).name)}")` : ""}`;
-      if (!r.success) errors.push(...describeIssues(r.error, `${label}.`));
+      if (!r.success) errors.push(...describeIssues(r.error, label));
       else parsed[kind]!.push(r.data);
     });
     const names = entries.map((e) => (e && typeof e === "object" ? (e as { name?: unknown }).name : undefined));

@@ -15,9 +15,8 @@ export function fieldErrorsOf(error: z.ZodError): FieldErrors {
 /** One line per problem, for the CLI: "products[2].composition: …". */
 export function describeIssues(error: z.ZodError, prefix = ""): string[] {
   return error.issues.map((i) => {
-    const path = i.path
-      .map((p, n) => (typeof p === "number" ? `[${p}]` : n === 0 && !prefix ? String(p) : `.${String(p)}`))
-      .join("");
-    return `${prefix}${path || "(whole entry)"}: ${i.message}`;
+    const path = i.path.map((p, n) => (typeof p === "number" ? `[${p}]` : n === 0 ? String(p) : `.${String(p)}`)).join("");
+    const where = prefix ? (path ? `${prefix}.${path}` : prefix) : path || "(whole file)";
+    return `${where}: ${i.message}`;
   });
 }
