@@ -24,6 +24,7 @@ export type Quantity =
   | "length" // [m]
   | "duration" // [s], shown in h
   | "shortDuration" // [s], shown in min
+  | "seconds" // [s], shown in s
   | "speed" // [m/s]
   | "irradiance" // [W/m²]
   | "conductivity" // [W/(m·K)]
@@ -49,6 +50,8 @@ export function unitLabel(q: Quantity, p: UnitPrefs): string {
       return "h";
     case "shortDuration":
       return "min";
+    case "seconds":
+      return "s";
     case "speed":
       return "m/s";
     case "irradiance":

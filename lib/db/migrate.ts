@@ -27,11 +27,11 @@ const JOURNAL_DDL = `CREATE TABLE IF NOT EXISTS "_prisma_migrations" (
 )`;
 
 export function defaultMigrationsDir(cwd = process.cwd()): string {
-  return path.resolve(cwd, "prisma", "migrations");
+  return path.resolve(/*turbopackIgnore: true*/ cwd, "prisma", "migrations");
 }
 
 export function migrateDatabase(dbPath: string, migrationsDir = defaultMigrationsDir()): MigrationResult {
-  mkdirSync(path.dirname(dbPath), { recursive: true });
+  mkdirSync(/*turbopackIgnore: true*/ path.dirname(dbPath), { recursive: true });
   const db = new Database(dbPath);
   try {
     db.pragma("journal_mode = WAL");
@@ -44,15 +44,15 @@ export function migrateDatabase(dbPath: string, migrationsDir = defaultMigration
           .all() as { migration_name: string; checksum: string }[]
       ).map((r) => [r.migration_name, r.checksum]),
     );
-    const names = existsSync(migrationsDir)
-      ? readdirSync(migrationsDir, { withFileTypes: true })
-          .filter((d) => d.isDirectory() && existsSync(path.join(migrationsDir, d.name, "migration.sql")))
+    const names = existsSync(/*turbopackIgnore: true*/ migrationsDir)
+      ? readdirSync(/*turbopackIgnore: true*/ migrationsDir, { withFileTypes: true })
+          .filter((d) => d.isDirectory() && existsSync(/*turbopackIgnore: true*/ path.join(migrationsDir, d.name, "migration.sql")))
           .map((d) => d.name)
           .sort()
       : [];
     const result: MigrationResult = { applied: [], alreadyApplied: [] };
     for (const name of names) {
-      const sql = readFileSync(path.join(migrationsDir, name, "migration.sql"), "utf8");
+      const sql = readFileSync(/*turbopackIgnore: true*/ path.join(migrationsDir, name, "migration.sql"), "utf8");
       const checksum = createHash("sha256").update(sql).digest("hex");
       const prior = done.get(name);
       if (prior !== undefined) {

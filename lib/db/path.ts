@@ -7,8 +7,8 @@ import path from "node:path";
  */
 export function resolveDatabasePath(env: NodeJS.ProcessEnv = process.env, cwd: string = process.cwd()): string {
   const raw = env.DATABASE_URL?.trim();
-  if (!raw) return path.resolve(cwd, "data", "holdline.db");
+  if (!raw) return path.resolve(/*turbopackIgnore: true*/ cwd, "data", "holdline.db");
   const withoutScheme = raw.startsWith("file:") ? raw.slice("file:".length) : raw;
   const withoutQuery = withoutScheme.split("?")[0];
-  return path.isAbsolute(withoutQuery) ? withoutQuery : path.resolve(cwd, withoutQuery);
+  return path.isAbsolute(withoutQuery) ? withoutQuery : path.resolve(/*turbopackIgnore: true*/ cwd, withoutQuery);
 }

@@ -88,9 +88,10 @@ export const productSchema = z
     name,
     category: z.string().trim().min(1, { error: "Category: enter a category" }).max(80),
     shape: z.enum(PRODUCT_SHAPES, { error: "Shape: choose slab, cylinder, sphere or block" }),
-    dimA_m: positive("First dimension"),
-    dimB_m: positive("Second dimension").nullable().default(null),
-    dimC_m: positive("Third dimension").nullable().default(null),
+    // What each dimension means depends on the shape (SHAPE_DIMENSIONS).
+    dimA_m: positive("This size"),
+    dimB_m: positive("This size").nullable().default(null),
+    dimC_m: positive("This size").nullable().default(null),
     mass_kg: positive("Mass"),
     composition: compositionSchema,
     compositionSource: z.string().max(400).default(""),
@@ -132,7 +133,11 @@ export const shipperSchema = z.object({
   innerWidth_m: positive("Inner width"),
   innerHeight_m: positive("Inner height"),
   wallLayers: z.array(layerSchema).min(1, { error: "Add at least one wall layer" }).max(8, { error: "At most 8 layers" }),
-  lidLayers: z.array(layerSchema).min(1, { error: "A separate lid needs at least one layer" }).max(8).nullable().default(null),
+  // An empty list means "built like the walls", stored as null.
+  lidLayers: z.preprocess(
+    (v) => (Array.isArray(v) && v.length === 0 ? null : v),
+    z.array(layerSchema).max(8, { error: "At most 8 layers" }).nullable().default(null),
+  ),
   finishMaterial: z.string().trim().min(1, { error: "Outer finish: choose a surface" }),
   emptyMass_kg: nonNegative("Empty mass"),
   cost: nonNegative("Cost"),

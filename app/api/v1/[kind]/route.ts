@@ -1,0 +1,25 @@
+import { NextResponse } from "next/server";
+import { getDb } from "@/app/_server/db";
+import { listTemplates, saveTemplate } from "@/lib/db/templates";
+import { isTemplateKind } from "@/lib/schemas/templates";
+import { notFound, readJson, unprocessable } from "../_lib";
+
+type Ctx = { params: Promise<{ kind: string }> };
+
+export async function GET(_req: Request, { params }: Ctx) {
+  const { kind } = await params;
+  if (!isTemplateKind(kind)) return notFound(`No template kind "${kind}"`);
+  const rows = await listTemplates(await getDb(), kind);
+  return NextResponse.json(rows.map((r) => ({ id: r.id, version: r.version, ...r.data })));
+}
+
+export async function POST(req: Request, { params }: Ctx) {
+  const { kind } = await params;
+  if (!isTemplateKind(kind)) return notFound(`No template kind "${kind}"`);
+  const body = await readJson(req);
+  if (!body.ok) return body.response;
+  const r = await saveTemplate(await getDb(), kind, null, null, body.body);
+  if (r.ok) return NextResponse.json({ id: r.id, version: r.version }, { status: 201 });
+  if (r.reason === "invalid") return unprocessable("Some fields are not valid", r.fieldErrors);
+  return unprocessable(r.message);
+}

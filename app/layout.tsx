@@ -1,0 +1,45 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import "./globals.css";
+import { UnitsProvider } from "./_components/units-context";
+import { currentUnits } from "./_server/units";
+
+export const metadata: Metadata = {
+  title: "Holdline",
+  description: "Hold times for chilled, frozen and hot food deliveries, thaw planning and pack-out sizing, from transient heat transfer.",
+};
+
+export const dynamic = "force-dynamic";
+
+export default async function RootLayout({ children }: { children: React.ReactNode }) {
+  const units = await currentUnits();
+  return (
+    <html lang="en">
+      <body>
+        <header className="site">
+          <Link href="/" className="brand">
+            Holdline
+          </Link>
+          <nav aria-label="Main">
+            <span className="nav-group">Library:</span>
+            <Link href="/library/products">Products</Link>
+            <Link href="/library/shippers">Boxes</Link>
+            <Link href="/library/packs">Coolant packs</Link>
+            <Link href="/library/routes">Routes</Link>
+            <Link href="/library/rulesets">Rule sets</Link>
+            <Link href="/library/materials">Materials</Link>
+            <span className="nav-sep" />
+            <Link href="/plans">Saved plans</Link>
+            <Link href="/settings">Units</Link>
+          </nav>
+          <span className="units-now" data-testid="units-now">
+            {units.temperatureUnit === "C" ? "°C" : "°F"} · {units.massUnit} · {units.lengthUnit}
+          </span>
+        </header>
+        <UnitsProvider prefs={units}>
+          <main>{children}</main>
+        </UnitsProvider>
+      </body>
+    </html>
+  );
+}

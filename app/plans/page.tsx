@@ -1,0 +1,37 @@
+import Link from "next/link";
+import { getDb } from "@/app/_server/db";
+import { listPlans } from "@/lib/db/plans";
+
+export default async function PlansPage() {
+  const plans = await listPlans(await getDb());
+  return (
+    <>
+      <h1>Saved plans</h1>
+      <p className="muted">A saved plan keeps a full copy of the templates it used, so later edits to the library never change it.</p>
+      {plans.length === 0 ? (
+        <p>No saved plans yet.</p>
+      ) : (
+        <table className="list">
+          <thead>
+            <tr>
+              <th>Name</th>
+              <th>Kind</th>
+              <th>Saved (UTC)</th>
+            </tr>
+          </thead>
+          <tbody>
+            {plans.map((p) => (
+              <tr key={p.id}>
+                <td>
+                  <Link href={`/plans/${p.id}`}>{p.name}</Link>
+                </td>
+                <td>{p.kind}</td>
+                <td>{p.createdAt.toISOString().slice(0, 16).replace("T", " ")}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      )}
+    </>
+  );
+}

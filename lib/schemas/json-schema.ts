@@ -1,0 +1,20 @@
+import { z } from "zod";
+import { libraryFileSchema, settingsSchema, templateSchemas } from "./templates";
+
+/** Inputs whose JSON Schema `holdline schema <name>` and /api/v1/schema/<name> print. */
+export const NAMED_SCHEMAS: Record<string, z.ZodType> = {
+  product: templateSchemas.products,
+  shipper: templateSchemas.shippers,
+  pack: templateSchemas.packs,
+  route: templateSchemas.routes,
+  ruleset: templateSchemas.rulesets,
+  material: templateSchemas.materials,
+  settings: settingsSchema,
+  library: libraryFileSchema,
+};
+
+export function jsonSchemaOf(name: string): object | null {
+  const s = NAMED_SCHEMAS[name];
+  if (!s) return null;
+  return z.toJSONSchema(s, { io: "input", unrepresentable: "any" });
+}
