@@ -9,5 +9,6 @@ export default defineConfig({
     pool: "forks",
     maxWorkers: 2,
     testTimeout: 30000,
+    reporters: ["default", "./test/summary-reporter.ts"],
   },
 });

@@ -7,7 +7,7 @@ import { templateSchemas, SHAPE_DIMENSIONS, TEMPLATE_LABELS, type TemplateKind, 
 import { TEMPLATE_FIELDS, SEGMENT_FIELDS, type FieldSpec } from "./template-fields";
 import { UnitInput } from "./UnitInput";
 import { saveTemplateAction } from "@/app/library/actions";
-import type { SaveResult } from "@/lib/db/templates";
+import type { SaveResult } from "@/lib/schemas/errors";
 
 type Values = Record<string, unknown>;
 type MaterialOption = { name: string; category: string };

@@ -4,10 +4,8 @@
  * JSON text for layers and segments) and the schema's shape.
  */
 import type { Db } from "./client";
-import {
-  type FieldErrors,
-  fieldErrorsOf,
-} from "../schemas/errors";
+import { type FieldErrors, type SaveResult, fieldErrorsOf } from "../schemas/errors";
+export type { SaveResult };
 import {
   type TemplateKind,
   type TemplateOutput,
@@ -24,12 +22,6 @@ export interface Stored<K extends TemplateKind> {
   updatedAt: Date;
   data: TemplateOutput[K];
 }
-
-export type SaveResult =
-  | { ok: true; id: number; version: number }
-  | { ok: false; reason: "invalid"; fieldErrors: FieldErrors }
-  | { ok: false; reason: "conflict"; message: string; currentVersion: number | null }
-  | { ok: false; reason: "not_found"; message: string };
 
 type Row = Record<string, unknown> & { id: number; version: number; updatedAt: Date };
 
@@ -190,7 +182,6 @@ export async function saveTemplate(
       fieldErrors: { name: [`Another ${TEMPLATE_LABELS[kind].one} is already called "${(data as { name: string }).name}"`] },
     };
   }
-  const d = delegateFor(db, kind);
   return db.$transaction(async (tx) => {
     const t = delegateFor(tx as unknown as TxLike, kind);
     if (kind === "rulesets" && (data as TemplateOutput["rulesets"]).isDefault) {
@@ -214,7 +205,6 @@ export async function saveTemplate(
     if (res.count !== 1) {
       return { ok: false as const, reason: "conflict" as const, message: `This ${TEMPLATE_LABELS[kind].one} was changed since you opened it.`, currentVersion: null };
     }
-    void d;
     return { ok: true as const, id, version: expectedVersion + 1 };
   });
 }

@@ -20,3 +20,10 @@ export function describeIssues(error: z.ZodError, prefix = ""): string[] {
     return `${where}: ${i.message}`;
   });
 }
+
+/** What saving a template answers: the forms, the API and the CLI all read this. */
+export type SaveResult =
+  | { ok: true; id: number; version: number }
+  | { ok: false; reason: "invalid"; fieldErrors: FieldErrors }
+  | { ok: false; reason: "conflict"; message: string; currentVersion: number | null }
+  | { ok: false; reason: "not_found"; message: string };

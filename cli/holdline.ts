@@ -1,0 +1,124 @@
+/**
+ * holdline: the command-line face of Holdline. Input is checked with the same zod
+ * schemas as the pages and the API. Output is JSON on stdout; messages go to stderr.
+ */
+import { parseArgs } from "node:util";
+import { readFileSync, writeFileSync } from "node:fs";
+import { resolveDatabasePath } from "../lib/db/path";
+import { prepareDatabase } from "../lib/db/prepare";
+import { createPrismaClient, type Db } from "../lib/db/client";
+import { exportLibrary, importLibrary } from "../lib/db/library";
+import { jsonSchemaOf, NAMED_SCHEMAS } from "../lib/schemas/json-schema";
+
+const HELP = `holdline — hold, thaw and pack-out planning from transient heat transfer
+
+Usage:
+  holdline export [--out FILE]        write every template (and the units setting) as JSON
+  holdline import FILE|-              add or update templates from such a file, all or nothing
+  holdline schema NAME                print the JSON Schema of an input
+                                      (${Object.keys(NAMED_SCHEMAS).join(", ")})
+  holdline --help                     this text
+
+Options:
+  --db PATH      SQLite file to use (default: DATABASE_URL, else data/holdline.db)
+  --no-seed      do not seed the demo scenario into a brand-new database
+
+Results are model estimates; check real temperatures with a calibrated probe
+thermometer or data logger, and follow your local food code and regulator.`;
+
+export interface CliIo {
+  out: (s: string) => void;
+  err: (s: string) => void;
+}
+const STDIO: CliIo = { out: (s) => void process.stdout.write(s), err: (s) => void process.stderr.write(s) };
+
+export async function main(argv: string[], io: CliIo = STDIO): Promise<number> {
+  let parsed;
+  try {
+    parsed = parseArgs({
+      args: argv,
+      allowPositionals: true,
+      options: {
+        help: { type: "boolean", short: "h" },
+        out: { type: "string", short: "o" },
+        db: { type: "string" },
+        "no-seed": { type: "boolean" },
+      },
+    });
+  } catch (e) {
+    io.err(`holdline: ${(e as Error).message}\n\n${HELP}\n`);
+    return 2;
+  }
+  const { values, positionals } = parsed;
+  const [command, ...rest] = positionals;
+  if (values.help || !command || command === "help") {
+    io.out(HELP + "\n");
+    return command || values.help ? 0 : 2;
+  }
+
+  if (command === "schema") {
+    const name = rest[0];
+    const schema = name ? jsonSchemaOf(name) : null;
+    if (!schema) {
+      io.err(`holdline schema: name one of ${Object.keys(NAMED_SCHEMAS).join(", ")}\n`);
+      return 2;
+    }
+    io.out(JSON.stringify(schema, null, 2) + "\n");
+    return 0;
+  }
+
+  const dbPath = values.db ? resolveDatabasePath({ ...process.env, DATABASE_URL: values.db }) : resolveDatabasePath();
+  const withDb = async <T>(fn: (db: Db) => Promise<T>): Promise<T> => {
+    await prepareDatabase(dbPath, { seed: !values["no-seed"], quiet: true });
+    const db = createPrismaClient(dbPath);
+    try {
+      return await fn(db);
+    } finally {
+      await db.$disconnect();
+    }
+  };
+
+  if (command === "export") {
+    const lib = await withDb(exportLibrary);
+    const text = JSON.stringify(lib, null, 2) + "\n";
+    if (values.out) writeFileSync(values.out, text);
+    else io.out(text);
+    return 0;
+  }
+
+  if (command === "import") {
+    const file = rest[0];
+    if (!file) {
+      io.err("holdline import: give a file name, or - for standard input\n");
+      return 2;
+    }
+    let data: unknown;
+    try {
+      data = JSON.parse(readFileSync(file === "-" ? 0 : file, "utf8"));
+    } catch (e) {
+      io.err(`holdline import: cannot read ${file} as JSON: ${(e as Error).message}\nNothing was changed.\n`);
+      return 1;
+    }
+    const r = await withDb((db) => importLibrary(db, data));
+    if (!r.ok) {
+      io.err(`holdline import: the file has ${r.errors.length} problem(s); nothing was changed.\n${r.errors.map((e) => "  " + e).join("\n")}\n`);
+      return 1;
+    }
+    io.err(`holdline import: ${r.created} added, ${r.updated} updated.\n`);
+    return 0;
+  }
+
+  io.err(`holdline: unknown command "${command}"\n\n${HELP}\n`);
+  return 2;
+}
+
+const isEntry = process.argv[1] && /holdline\.(ts|mjs)$/.test(process.argv[1]);
+if (isEntry) {
+  main(process.argv.slice(2)).then(
+    (code) => process.exit(code),
+    (e) => {
+      process.stderr.write(`holdline: ${(e as Error).stack ?? e}\n`);
+      process.exit(1);
+    },
+  );
+}
