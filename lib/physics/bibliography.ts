@@ -1,0 +1,228 @@
+/**
+ * The one bibliography. Every correlation and constant in lib/physics names a key here.
+ * "from memory" marks a detail (edition, equation or table number) recalled without the
+ * source at hand; see ../shared/reference/published-values.md for how sure we are.
+ */
+export interface Reference {
+  authors: string;
+  title: string;
+  year: number;
+  edition?: string;
+  where?: string; // equation, table or section
+  note?: string;
+}
+
+export const BIBLIOGRAPHY = {
+  incropera6: {
+    authors: "F. P. Incropera, D. P. DeWitt, T. L. Bergman, A. S. Lavine",
+    title: "Fundamentals of Heat and Mass Transfer",
+    year: 2007,
+    edition: "6th ed., Wiley",
+    note: "Equation and table numbers from memory",
+  },
+  incroperaLumped: {
+    authors: "Incropera et al.",
+    title: "Fundamentals of Heat and Mass Transfer",
+    year: 2007,
+    edition: "6th ed.",
+    where: "§5.1–5.2, Eqs. 5.6 and 5.10 (lumped capacitance, Bi = hLc/k < 0.1 with Lc = V/As)",
+    note: "from memory",
+  },
+  incroperaSeries: {
+    authors: "Incropera et al.",
+    title: "Fundamentals of Heat and Mass Transfer",
+    year: 2007,
+    edition: "6th ed.",
+    where: "§5.5–5.6, Eqs. 5.39–5.52, Table 5.1 (exact series and one-term approximation; one-term error < 2 % for Fo > 0.2)",
+    note: "numbering from memory",
+  },
+  incroperaProduct: {
+    authors: "Incropera et al.",
+    title: "Fundamentals of Heat and Mass Transfer",
+    year: 2007,
+    edition: "6th ed.",
+    where: "§5.8 (multidimensional effects: product solutions)",
+    note: "from memory",
+  },
+  incroperaFreeConv: {
+    authors: "Incropera et al.",
+    title: "Fundamentals of Heat and Mass Transfer",
+    year: 2007,
+    edition: "6th ed.",
+    where: "§9.6 Eqs. 9.26–9.35 (vertical plate, horizontal plates with L = A/P, horizontal cylinder, sphere)",
+    note: "numbering from memory",
+  },
+  incroperaForced: {
+    authors: "Incropera et al.",
+    title: "Fundamentals of Heat and Mass Transfer",
+    year: 2007,
+    edition: "6th ed.",
+    where: "§7.2–7.4, Eqs. 7.30, 7.38, 7.41 (flat plate laminar, turbulent, mixed with Re_x,c = 5×10⁵); Eq. 7.54 Churchill–Bernstein cylinder; Eq. 7.56 Whitaker sphere",
+    note: "numbering from memory",
+  },
+  incroperaMixed: {
+    authors: "Incropera et al.",
+    title: "Fundamentals of Heat and Mass Transfer",
+    year: 2007,
+    edition: "6th ed.",
+    where: "§9.9 Eq. 9.64: Nu^n = Nu_F^n ± Nu_N^n with n = 3 (after Churchill 1977)",
+    note: "from memory",
+  },
+  incroperaRadiation: {
+    authors: "Incropera et al.",
+    title: "Fundamentals of Heat and Mass Transfer",
+    year: 2007,
+    edition: "6th ed.",
+    where: "Eq. 1.9: h_r = εσ(Ts + Tsur)(Ts² + Tsur²)",
+    note: "from memory",
+  },
+  churchillChu1975: {
+    authors: "S. W. Churchill, H. H. S. Chu",
+    title: "Correlating equations for laminar and turbulent free convection from a vertical plate (and from a horizontal cylinder)",
+    year: 1975,
+    where: "Int. J. Heat Mass Transfer 18:1323–1329 and 1049–1053",
+  },
+  churchill1983: {
+    authors: "S. W. Churchill",
+    title: "Free convection around immersed bodies",
+    year: 1983,
+    where: "Heat Exchanger Design Handbook, §2.5.7 (sphere: Nu = 2 + 0.589 Ra^¼ / [1 + (0.469/Pr)^(9/16)]^(4/9), Ra ≤ 10¹¹, Pr ≥ 0.7)",
+    note: "from memory",
+  },
+  sutherland: {
+    authors: "F. M. White",
+    title: "Viscous Fluid Flow",
+    year: 2006,
+    edition: "3rd ed., McGraw-Hill",
+    where: "Table 1-2 and Eqs. 1-36, 1-41: Sutherland laws for air, μ0 = 1.716×10⁻⁵ Pa·s, S = 110.4 K; k0 = 0.0241 W/(m·K), S = 194 K; T0 = 273.15 K",
+    note: "from memory",
+  },
+  vogelWater: {
+    authors: "Vogel equation fit for liquid water viscosity",
+    title: "μ = A·10^(B/(T − C)), A = 2.414×10⁻⁵ Pa·s, B = 247.8 K, C = 140 K (0–100 °C)",
+    year: 1921,
+    note: "widely reprinted fit; constants from memory",
+  },
+  ramiresWater: {
+    authors: "M. L. V. Ramires, C. A. Nieto de Castro, Y. Nagasaka, A. Nagashima, M. J. Assael, W. A. Wakeham",
+    title: "Standard reference data for the thermal conductivity of water",
+    year: 1995,
+    where: "J. Phys. Chem. Ref. Data 24:1377: k = 0.6065(−1.48445 + 4.12292 T* − 1.63866 T*²), T* = T/298.15 K, 274–370 K",
+    note: "from memory",
+  },
+  kellWater: {
+    authors: "G. S. Kell",
+    title: "Density, thermal expansivity, and compressibility of liquid water from 0 °C to 150 °C",
+    year: 1975,
+    where: "J. Chem. Eng. Data 20:97–105, Eq. (density of air-free water at 1 atm)",
+    note: "coefficients from memory",
+  },
+  stefanBoltzmann: {
+    authors: "CODATA (E. Tiesinga et al.)",
+    title: "CODATA recommended values of the fundamental physical constants: 2018",
+    year: 2021,
+    where: "σ = 5.670374419×10⁻⁸ W/(m²·K⁴) (exact from SI defining constants)",
+  },
+  gravity: {
+    authors: "BIPM / CGPM",
+    title: "Standard acceleration of gravity, g_n = 9.80665 m/s² (3rd CGPM, 1901)",
+    year: 1901,
+  },
+  ashraeSolAir: {
+    authors: "ASHRAE",
+    title: "ASHRAE Handbook — Fundamentals, Nonresidential cooling and heating load calculations",
+    year: 2017,
+    where: "sol-air temperature t_e = t_o + αI_t/h_o − εΔR/h_o; ΔR ≈ 63 W/m² for horizontal surfaces facing the sky, 0 for vertical",
+    note: "chapter number from memory",
+  },
+  choiOkos1986: {
+    authors: "Y. Choi, M. R. Okos",
+    title: "Effects of temperature and composition on the thermal properties of foods",
+    year: 1986,
+    where: "in Food Engineering and Process Applications, Vol. 1 (Le Maguer & Jelen, eds.), Elsevier, pp. 93–101; tabulated in ASHRAE Refrigeration Handbook 2006, Ch. 9, Tables 1–2. Valid −40 to 150 °C",
+  },
+  ashraeFoodProps: {
+    authors: "ASHRAE",
+    title: "ASHRAE Handbook — Refrigeration, Thermal Properties of Foods",
+    year: 2006,
+    where: "Ch. 9: mixture rules (c = Σxᵢcᵢ, 1/ρ = Σxᵢ/ρᵢ), ice fraction x_ice = (x_wo − x_b)(1 − t_f/t) with bound water x_b = 0.4 x_p (Schwartzberg 1976), L = 333.6 kJ/kg × x_wo, Table 3 compositions",
+    note: "equation numbers from memory",
+  },
+  schwartzberg1976: {
+    authors: "H. G. Schwartzberg",
+    title: "Effective heat capacities for the freezing and thawing of food",
+    year: 1976,
+    where: "J. Food Sci. 41:152–156 (bound water ≈ 0.4 × protein mass fraction)",
+    note: "from memory",
+  },
+  pham1996Tf: {
+    authors: "Q. T. Pham",
+    title: "Prediction of calorimetric properties and freezing time of foods from composition data",
+    year: 1996,
+    where: "J. Food Eng. 30:95–107: meat initial freezing point θ_F = −4.66 x_o/x_w − 46.4 x_a/x_w",
+  },
+  maxwellEucken: {
+    authors: "A. Eucken (after J. C. Maxwell)",
+    title: "Allgemeine Gesetzmäßigkeiten für das Wärmeleitvermögen verschiedener Stoffarten und Aggregatzustände",
+    year: 1940,
+    where: "Forsch. Gebiete Ingenieurwes. 11:6–20; Maxwell–Eucken model as given in ASHRAE Refrigeration Handbook 2006, Ch. 9",
+    note: "from memory",
+  },
+  latentWater: {
+    authors: "ASHRAE",
+    title: "ASHRAE Handbook — Refrigeration, Thermal Properties of Foods: L0 = 333.6 kJ/kg (latent heat of fusion of water)",
+    year: 2006,
+  },
+  plank1913: {
+    authors: "R. Plank",
+    title: "Die Gefrierdauer von Eisblöcken",
+    year: 1913,
+    where: "Z. ges. Kälte-Ind. 20:109–114; shape factors P, R = 1/2, 1/8 (slab), 1/4, 1/16 (cylinder), 1/6, 1/24 (sphere) as given in ASHRAE Refrigeration Handbook, Cooling and Freezing Times of Foods",
+  },
+  pham1986: {
+    authors: "Q. T. Pham",
+    title: "Simplified equation for predicting the freezing time of foodstuffs",
+    year: 1986,
+    where: "J. Food Technol. 21:209–219: t = (R/(E h))(ΔH1/ΔT1 + ΔH2/ΔT2)(1 + Bi/2), T_fm = 1.8 + 0.263 T_c + 0.105 T_a",
+    note: "formula from memory; collapses to Plank when ΔH1 = 0",
+  },
+  ashraeEHTD: {
+    authors: "ASHRAE",
+    title: "ASHRAE Handbook — Refrigeration, Cooling and Freezing Times of Foods",
+    year: 2010,
+    where: "Ch. 20, Eq. 20: equivalent heat-transfer dimensionality at Bi → 0, E0 = 1 + 1/β1 + 1/β2",
+  },
+  goral2016: {
+    authors: "D. Góral, F. Kluza, W. E. L. Spiess, U. Kozłowicz",
+    title: "Review of thawing time prediction models depending on process conditions and product characteristics",
+    year: 2016,
+    where: "Food Technol. Biotechnol. 54(1):3–12",
+  },
+  carslawJaeger: {
+    authors: "H. S. Carslaw, J. C. Jaeger",
+    title: "Conduction of Heat in Solids",
+    year: 1959,
+    edition: "2nd ed., Oxford",
+    where: "§11.2 (Neumann's solution for melting and freezing of a semi-infinite region)",
+  },
+  patankar1980: {
+    authors: "S. V. Patankar",
+    title: "Numerical Heat Transfer and Fluid Flow",
+    year: 1980,
+    where: "Ch. 4 (implicit finite-volume conduction, harmonic-mean interface conductance, TDMA)",
+  },
+  voller1990: {
+    authors: "V. R. Voller",
+    title: "Fast implicit finite-difference method for the analysis of phase change problems",
+    year: 1990,
+    where: "Numer. Heat Transfer B 17:155–169 (enthalpy formulation solved implicitly)",
+    note: "from memory",
+  },
+} as const satisfies Record<string, Reference>;
+
+export type SourceKey = keyof typeof BIBLIOGRAPHY;
+
+export function cite(key: SourceKey): string {
+  const r: Reference = BIBLIOGRAPHY[key];
+  return [r.authors, `“${r.title}”`, r.edition, String(r.year), r.where].filter(Boolean).join(", ");
+}
