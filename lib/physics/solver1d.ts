@@ -1,0 +1,337 @@
+/**
+ * One-dimensional transient conduction with phase change: implicit (backward Euler)
+ * finite-volume scheme on an enthalpy formulation [patankar1980, voller1990].
+ *
+ * - Geometry: slab (half-thickness L, symmetric), infinite cylinder or sphere (radius R), vertex-centred
+ *   grid with half cells at the centre and at the surface, so both temperatures are node values.
+ * - Unknowns: node temperatures; the stored quantity is ρ·H(T) with the material's tabulated enthalpy,
+ *   so latent heat is released across the freezing range without tracking a front.
+ * - Each step solves the nonlinear balance by Newton iterations on a tridiagonal system, using the
+ *   chord slope of H between the old and the current temperature as heat capacity (robust across the
+ *   latent peak); interface conductance is the harmonic mean of the nodes' k(T).
+ * - Boundary: convection plus radiation to time-varying temperatures (radiation exact, σT⁴), a fixed
+ *   temperature, or a coupled lumped node (a tray) with its own capacity and its own exchange with air.
+ * - Energy bookkeeping: after convergence the change of stored enthalpy equals the boundary heat
+ *   integrated over the steps to round-off (internal fluxes cancel pairwise); `energyError_J` reports it.
+ *
+ * Quantities are per unit of surface "measure": per m² of face (slab), per m of length × 2π… — the solver
+ * works with r^m areas and the caller scales with `surfaceArea_m2` and `volume_m3` of the real item.
+ */
+import { SIGMA_W_M2K4 } from "./surfaces";
+import { KELVIN_OFFSET, PhysicsInputError, requirePositive, requireTemperature } from "./validation";
+import type { Shape1D } from "./conduction";
+
+export interface EnthalpyMaterial {
+  rho_kg_m3: number;
+  H_J_kg(T_C: number): number;
+  c_J_kgK(T_C: number): number;
+  k_W_mK(T_C: number): number;
+}
+
+export type Boundary =
+  | {
+      kind: "convective";
+      /** Convective coefficient, may depend on time and on the current surface temperature. */
+      h_W_m2K: (t_s: number, Ts_C: number) => number;
+      fluid_C: (t_s: number) => number;
+      /** Long-wave emissivity and radiant surroundings; omit for no radiation (e.g. in water). */
+      emissivity?: number;
+      radiant_C?: (t_s: number) => number;
+      /** Extra heat flux into the surface, W/m² (e.g. absorbed sun). */
+      extraFlux_W_m2?: (t_s: number) => number;
+    }
+  | { kind: "fixed"; T_C: (t_s: number) => number }
+  | {
+      kind: "node";
+      /** Contact conductance between the item's surface and the node, W/(m²·K) of item surface. */
+      contact_W_m2K: number;
+      /** Node heat capacity per m² of item surface, J/(m²·K). */
+      capacity_J_m2K: number;
+      /** Node's own exchange with a fluid, W/(m²·K) per m² of item surface, to this temperature. */
+      exchange_W_m2K: (t_s: number, Tnode_C: number) => number;
+      fluid_C: (t_s: number) => number;
+      node0_C: number;
+    };
+
+export interface Solver1DInput {
+  shape: Shape1D;
+  halfSize_m: number;
+  nodes: number;
+  material: EnthalpyMaterial;
+  initial_C: number | ((xStar: number) => number);
+  boundary: Boundary;
+  tEnd_s: number;
+  dt_s: number;
+  /** Stop early once this returns true (checked after every step). */
+  stopWhen?: (s: StepState) => boolean;
+  /** Keep every k-th step in the series (the last step is always kept). */
+  recordEvery?: number;
+}
+
+export interface StepState {
+  t_s: number;
+  center_C: number;
+  surface_C: number;
+  mean_C: number;
+  node_C: number | null;
+}
+
+export interface Solver1DResult {
+  t_s: number[];
+  center_C: number[];
+  surface_C: number[];
+  mean_C: number[];
+  node_C: number[] | null;
+  steps: number;
+  newtonIterations: number;
+  /** Stored enthalpy change of the item (and node), J per unit surface measure × area factor. */
+  storedChange_J: number;
+  /** Integrated heat in through the boundary, same basis. */
+  boundaryHeat_J: number;
+  energyError_J: number;
+  /** Final profile, centre to surface. */
+  profile_C: number[];
+  minT_C: number;
+  maxT_C: number;
+  stoppedEarly: boolean;
+}
+
+const M_OF: Record<Shape1D, number> = { slab: 0, cylinder: 1, sphere: 2 };
+
+/** ∫ r^m dr from a to b. */
+function shellVolume(m: number, a: number, b: number): number {
+  return (Math.pow(b, m + 1) - Math.pow(a, m + 1)) / (m + 1);
+}
+
+export function solve1D(inp: Solver1DInput): Solver1DResult {
+  const L = requirePositive("halfSize_m", inp.halfSize_m);
+  if (!Number.isInteger(inp.nodes) || inp.nodes < 3) throw new PhysicsInputError("nodes", "needs at least 3 nodes");
+  requirePositive("tEnd_s", inp.tEnd_s);
+  requirePositive("dt_s", inp.dt_s);
+  const n = inp.nodes;
+  const m = M_OF[inp.shape];
+  const dr = L / (n - 1);
+  const r = Float64Array.from({ length: n }, (_, i) => i * dr);
+  const vol = new Float64Array(n);
+  const area = new Float64Array(n); // area of face between i and i+1
+  for (let i = 0; i < n; i++) vol[i] = shellVolume(m, Math.max(0, r[i] - dr / 2), Math.min(L, r[i] + dr / 2));
+  for (let i = 0; i < n - 1; i++) area[i] = Math.pow(r[i] + dr / 2, m);
+  const Asurf = Math.pow(L, m);
+  const rho = requirePositive("density", inp.material.rho_kg_m3);
+  const { H_J_kg: H, c_J_kgK: cOf, k_W_mK: kOf } = inp.material;
+
+  const T = new Float64Array(n);
+  for (let i = 0; i < n; i++) T[i] = typeof inp.initial_C === "number" ? inp.initial_C : inp.initial_C(r[i] / L);
+  for (let i = 0; i < n; i++) requireTemperature("initial temperature", T[i]);
+  const Hold = new Float64Array(n);
+  const Told = new Float64Array(n);
+  const G = new Float64Array(n - 1);
+  const a = new Float64Array(n + 1);
+  const b = new Float64Array(n + 1);
+  const cc = new Float64Array(n + 1);
+  const d = new Float64Array(n + 1);
+  const Rr = new Float64Array(n + 1);
+  const bc = inp.boundary;
+  const hasNode = bc.kind === "node";
+  let Tn = hasNode ? bc.node0_C : 0;
+  let TnOld = Tn;
+  const Cnode = hasNode ? bc.capacity_J_m2K * Asurf : 0;
+
+  const volTotal = vol.reduce((s, v) => s + v, 0);
+  const meanT = () => {
+    let s = 0;
+    for (let i = 0; i < n; i++) s += vol[i] * T[i];
+    return s / volTotal;
+  };
+  const energy = () => {
+    let s = 0;
+    for (let i = 0; i < n; i++) s += rho * vol[i] * H(T[i]);
+    return s + (hasNode ? Cnode * Tn : 0);
+  };
+
+  const rec = Math.max(1, Math.floor(inp.recordEvery ?? 1));
+  const out: Solver1DResult = {
+    t_s: [0],
+    center_C: [T[0]],
+    surface_C: [T[n - 1]],
+    mean_C: [meanT()],
+    node_C: hasNode ? [Tn] : null,
+    steps: 0,
+    newtonIterations: 0,
+    storedChange_J: 0,
+    boundaryHeat_J: 0,
+    energyError_J: 0,
+    profile_C: [],
+    minT_C: Math.min(...T),
+    maxT_C: Math.max(...T),
+    stoppedEarly: false,
+  };
+  const E0 = energy();
+  let Qin = 0;
+  let t = 0;
+
+  // Boundary heat flow into the surface node (W per area-measure) and its derivative w.r.t. Ts.
+  const surfaceFlow = (tNew: number, Ts: number): [number, number] => {
+    if (bc.kind === "convective") {
+      const h = bc.h_W_m2K(tNew, Ts);
+      let q = h * (bc.fluid_C(tNew) - Ts);
+      let dq = -h;
+      if (bc.emissivity && bc.emissivity > 0) {
+        const Tr = (bc.radiant_C ? bc.radiant_C(tNew) : bc.fluid_C(tNew)) + KELVIN_OFFSET;
+        const Tk = Ts + KELVIN_OFFSET;
+        q += bc.emissivity * SIGMA_W_M2K4 * (Tr ** 4 - Tk ** 4);
+        dq -= 4 * bc.emissivity * SIGMA_W_M2K4 * Tk ** 3;
+      }
+      if (bc.extraFlux_W_m2) q += bc.extraFlux_W_m2(tNew);
+      return [q * Asurf, dq * Asurf];
+    }
+    return [0, 0];
+  };
+
+  let dt = inp.dt_s;
+  let step = 0;
+  while (t < inp.tEnd_s - 1e-9) {
+    const dtStep = Math.min(dt, inp.tEnd_s - t);
+    const tNew = t + dtStep;
+    Told.set(T);
+    TnOld = Tn;
+    for (let i = 0; i < n; i++) Hold[i] = H(T[i]);
+    let converged = false;
+    let iter = 0;
+    const fixedT = bc.kind === "fixed" ? bc.T_C(tNew) : 0;
+    for (; iter < 60; iter++) {
+      for (let i = 0; i < n - 1; i++) {
+        const k1 = kOf(T[i]);
+        const k2 = kOf(T[i + 1]);
+        G[i] = ((2 * k1 * k2) / (k1 + k2)) * (area[i] / dr);
+      }
+      // Residuals R (W) and Jacobian rows.
+      let maxRel = 0;
+      for (let i = 0; i < n; i++) {
+        const Hi = H(T[i]);
+        const dT = T[i] - Told[i];
+        const chord = Math.abs(dT) > 1e-6 ? (Hi - Hold[i]) / dT : cOf(T[i]);
+        const cap = (rho * vol[i] * Math.max(chord, 1)) / dtStep;
+        let R = (rho * vol[i] * (Hi - Hold[i])) / dtStep;
+        let diag = cap;
+        a[i] = 0;
+        cc[i] = 0;
+        if (i > 0) {
+          R -= G[i - 1] * (T[i - 1] - T[i]);
+          diag += G[i - 1];
+          a[i] = -G[i - 1];
+        }
+        if (i < n - 1) {
+          R -= G[i] * (T[i + 1] - T[i]);
+          diag += G[i];
+          cc[i] = -G[i];
+        }
+        b[i] = diag;
+        Rr[i] = R;
+        const scale = (rho * vol[i] * Math.max(Math.abs(Hi), 1e4)) / dtStep;
+        maxRel = Math.max(maxRel, Math.abs(R) / scale);
+      }
+      const s = n - 1;
+      if (bc.kind === "convective") {
+        const [q, dq] = surfaceFlow(tNew, T[s]);
+        Rr[s] -= q;
+        b[s] -= dq;
+      } else if (bc.kind === "fixed") {
+        // Surface node pinned: replace its equation by T_s = T_fixed.
+        Rr[s] = T[s] - fixedT;
+        a[s] = 0;
+        b[s] = 1;
+        cc[s] = 0;
+      } else {
+        const U = bc.contact_W_m2K * Asurf;
+        const Ue = bc.exchange_W_m2K(tNew, Tn) * Asurf;
+        Rr[s] -= U * (Tn - T[s]);
+        b[s] += U;
+        cc[s] = -U;
+        // node equation, index n
+        Rr[n] = (Cnode * (Tn - TnOld)) / dtStep - U * (T[s] - Tn) - Ue * (bc.fluid_C(tNew) - Tn);
+        a[n] = -U;
+        b[n] = Cnode / dtStep + U + Ue;
+        cc[n] = 0;
+        maxRel = Math.max(maxRel, Math.abs(Rr[n]) / Math.max((Cnode * 100) / dtStep, 1e-9));
+      }
+      const size = hasNode ? n + 1 : n;
+      let rmax = 0;
+      for (let i = 0; i < size; i++) rmax = Math.max(rmax, Math.abs(Rr[i]));
+      if (iter > 0 && (maxRel < 1e-12 || rmax < 1e-13)) {
+        converged = true;
+        break;
+      }
+      // Solve J δ = −R (Thomas algorithm).
+      for (let i = 0; i < size; i++) d[i] = -Rr[i];
+      for (let i = 1; i < size; i++) {
+        const w = a[i] / b[i - 1];
+        b[i] -= w * cc[i - 1];
+        d[i] -= w * d[i - 1];
+      }
+      d[size - 1] /= b[size - 1];
+      for (let i = size - 2; i >= 0; i--) d[i] = (d[i] - cc[i] * d[i + 1]) / b[i];
+      let maxStep = 0;
+      for (let i = 0; i < n; i++) {
+        T[i] += d[i];
+        maxStep = Math.max(maxStep, Math.abs(d[i]));
+      }
+      if (hasNode) Tn += d[n];
+      if (maxStep < 1e-11 && iter > 0) {
+        converged = true;
+        iter++;
+        break;
+      }
+    }
+    if (!converged) {
+      // Retry this step with half the time step.
+      T.set(Told);
+      Tn = TnOld;
+      if (dt < inp.dt_s * 1e-4) throw new PhysicsInputError("dt_s", "the solver could not converge even with a much smaller time step");
+      dt = dt / 2;
+      continue;
+    }
+    out.newtonIterations += iter;
+    // Boundary heat actually transferred this step (converged temperatures).
+    if (bc.kind === "convective") Qin += surfaceFlow(tNew, T[n - 1])[0] * dtStep;
+    else if (bc.kind === "fixed") {
+      // Heat into the body = stored change (the pinned node takes whatever flows); computed from the balance.
+      let stored = 0;
+      for (let i = 0; i < n; i++) stored += rho * vol[i] * (H(T[i]) - Hold[i]);
+      Qin += stored;
+    } else Qin += bc.exchange_W_m2K(tNew, Tn) * Asurf * (bc.fluid_C(tNew) - Tn) * dtStep;
+    t = tNew;
+    step++;
+    if (dt < inp.dt_s) dt = Math.min(inp.dt_s, dt * 2);
+    for (let i = 0; i < n; i++) {
+      if (T[i] < out.minT_C) out.minT_C = T[i];
+      if (T[i] > out.maxT_C) out.maxT_C = T[i];
+    }
+    const state: StepState = { t_s: t, center_C: T[0], surface_C: T[n - 1], mean_C: meanT(), node_C: hasNode ? Tn : null };
+    const stop = inp.stopWhen ? inp.stopWhen(state) : false;
+    const last = stop || t >= inp.tEnd_s - 1e-9;
+    if (step % rec === 0 || last) {
+      out.t_s.push(t);
+      out.center_C.push(state.center_C);
+      out.surface_C.push(state.surface_C);
+      out.mean_C.push(state.mean_C);
+      if (out.node_C) out.node_C.push(Tn);
+    }
+    if (stop) {
+      out.stoppedEarly = true;
+      break;
+    }
+  }
+  out.steps = step;
+  out.storedChange_J = energy() - E0;
+  out.boundaryHeat_J = Qin;
+  out.energyError_J = out.storedChange_J - Qin;
+  out.profile_C = Array.from(T);
+  return out;
+}
+
+/** Area measure of the unit used by the solver: slab per m² face, cylinder per radian per m, sphere per steradian. */
+export function solverScale(shape: Shape1D, surfaceArea_m2: number, halfSize_m: number): number {
+  // The solver's surface has measure L^m; scaling by A_real / L^m converts to the real item.
+  return surfaceArea_m2 / Math.pow(halfSize_m, M_OF[shape]);
+}
