@@ -264,11 +264,8 @@ export function foodThermal(input: FoodInput): FoodThermal {
   const Href = H[iRef];
   for (let i = 0; i < N; i++) H[i] -= Href;
 
-  const locate = (T: number): [number, number] => {
-    const u = (T - T_MIN) / DT;
-    const i = Math.min(N - 2, Math.max(0, Math.floor(u)));
-    return [i, u - i];
-  };
+  // Table lookups without allocation: the solver calls these millions of times.
+  const last = N - 2;
   return {
     Tf_C: Tf,
     rho_kg_m3: rho,
@@ -276,17 +273,24 @@ export function foodThermal(input: FoodInput): FoodThermal {
     porosity,
     warnings,
     H_J_kg(T) {
-      const [i, f] = locate(T);
-      return H[i] + f * (H[i + 1] - H[i]);
+      const u = (T - T_MIN) / DT;
+      let i = Math.floor(u);
+      if (i < 0) i = 0;
+      else if (i > last) i = last;
+      return H[i] + (u - i) * (H[i + 1] - H[i]);
     },
     c_J_kgK(T) {
-      const [i] = locate(T);
+      let i = Math.floor((T - T_MIN) / DT);
+      if (i < 0) i = 0;
+      else if (i > last) i = last;
       return (H[i + 1] - H[i]) / DT;
     },
     k_W_mK(T) {
-      const [i, f] = locate(T);
-      const fc = Math.min(1, Math.max(0, f));
-      return K[i] + fc * (K[i + 1] - K[i]);
+      const u = (T - T_MIN) / DT;
+      let i = Math.floor(u);
+      if (i < 0) return K[0];
+      if (i > last) return K[N - 1];
+      return K[i] + (u - i) * (K[i + 1] - K[i]);
     },
     ice: (T) => iceFraction(c, Tf!, T) * (freezable > 0 ? 1 : 0),
     cAnalytic_J_kgK: cAnalytic,

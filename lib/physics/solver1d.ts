@@ -6,9 +6,9 @@
  *   grid with half cells at the centre and at the surface, so both temperatures are node values.
  * - Unknowns: node temperatures; the stored quantity is ρ·H(T) with the material's tabulated enthalpy,
  *   so latent heat is released across the freezing range without tracking a front.
- * - Each step solves the nonlinear balance by Newton iterations on a tridiagonal system, using the
- *   chord slope of H between the old and the current temperature as heat capacity (robust across the
- *   latent peak); interface conductance is the harmonic mean of the nodes' k(T).
+ * - Each step solves the nonlinear balance by Newton iterations on a tridiagonal system, with the
+ *   tangent slope of the tabulated H as heat capacity; a step that does not converge is retried with
+ *   half the time step. Interface conductance is the harmonic mean of the nodes' k(T).
  * - Boundary: convection plus radiation to time-varying temperatures (radiation exact, σT⁴), a fixed
  *   temperature, or a coupled lumped node (a tray) with its own capacity and its own exchange with air.
  * - Energy bookkeeping: after convergence the change of stored enthalpy equals the boundary heat
@@ -66,6 +66,12 @@ export interface Solver1DInput {
   stopWhen?: (s: StepState) => boolean;
   /** Keep every k-th step in the series (the last step is always kept). */
   recordEvery?: number;
+  /**
+   * Adaptive steps: after each step the next one is scaled so that the largest change of a node's
+   * enthalpy, expressed in kelvin of a 3 kJ/(kg·K) material, is about `target_K`, between dt_s/…
+   * and `dtMax_s`. Off when omitted (fixed dt_s).
+   */
+  adaptive?: { target_K: number; dtMax_s: number };
 }
 
 export interface StepState {
@@ -126,6 +132,10 @@ export function solve1D(inp: Solver1DInput): Solver1DResult {
   const Hold = new Float64Array(n);
   const Told = new Float64Array(n);
   const G = new Float64Array(n - 1);
+  const kNode = new Float64Array(n);
+  const Hnow = new Float64Array(n);
+  const Tprev = new Float64Array(n);
+  let dtPrev = 0;
   const a = new Float64Array(n + 1);
   const b = new Float64Array(n + 1);
   const cc = new Float64Array(n + 1);
@@ -196,22 +206,30 @@ export function solve1D(inp: Solver1DInput): Solver1DResult {
     Told.set(T);
     TnOld = Tn;
     for (let i = 0; i < n; i++) Hold[i] = H(T[i]);
+    // Predictor: extrapolate the last step's change (one fewer Newton iteration, usually).
+    if (dtPrev > 0) {
+      const f = Math.min(dtStep / dtPrev, 2);
+      for (let i = 0; i < n; i++) T[i] = Told[i] + f * (Told[i] - Tprev[i]);
+    }
     let converged = false;
     let iter = 0;
     const fixedT = bc.kind === "fixed" ? bc.T_C(tNew) : 0;
     for (; iter < 60; iter++) {
+      for (let i = 0; i < n; i++) {
+        kNode[i] = kOf(T[i]);
+        Hnow[i] = H(T[i]);
+      }
       for (let i = 0; i < n - 1; i++) {
-        const k1 = kOf(T[i]);
-        const k2 = kOf(T[i + 1]);
+        const k1 = kNode[i];
+        const k2 = kNode[i + 1];
         G[i] = ((2 * k1 * k2) / (k1 + k2)) * (area[i] / dr);
       }
       // Residuals R (W) and Jacobian rows.
       let maxRel = 0;
       for (let i = 0; i < n; i++) {
-        const Hi = H(T[i]);
-        const dT = T[i] - Told[i];
-        const chord = Math.abs(dT) > 1e-6 ? (Hi - Hold[i]) / dT : cOf(T[i]);
-        const cap = (rho * vol[i] * Math.max(chord, 1)) / dtStep;
+        const Hi = Hnow[i];
+        // Tangent slope of the tabulated H (piecewise linear) as heat capacity: full Newton.
+        const cap = (rho * vol[i] * Math.max(cOf(T[i]), 1)) / dtStep;
         let R = (rho * vol[i] * (Hi - Hold[i])) / dtStep;
         let diag = cap;
         a[i] = 0;
@@ -258,7 +276,7 @@ export function solve1D(inp: Solver1DInput): Solver1DResult {
       const size = hasNode ? n + 1 : n;
       let rmax = 0;
       for (let i = 0; i < size; i++) rmax = Math.max(rmax, Math.abs(Rr[i]));
-      if (iter > 0 && (maxRel < 1e-12 || rmax < 1e-13)) {
+      if (iter > 0 && (maxRel < 1e-11 || rmax < 1e-13)) {
         converged = true;
         break;
       }
@@ -277,7 +295,7 @@ export function solve1D(inp: Solver1DInput): Solver1DResult {
         maxStep = Math.max(maxStep, Math.abs(d[i]));
       }
       if (hasNode) Tn += d[n];
-      if (maxStep < 1e-11 && iter > 0) {
+      if (maxStep < 1e-9 && iter > 0) {
         converged = true;
         iter++;
         break;
@@ -287,11 +305,16 @@ export function solve1D(inp: Solver1DInput): Solver1DResult {
       // Retry this step with half the time step.
       T.set(Told);
       Tn = TnOld;
+      dtPrev = 0;
       if (dt < inp.dt_s * 1e-4) throw new PhysicsInputError("dt_s", "the solver could not converge even with a much smaller time step");
       dt = dt / 2;
       continue;
     }
     out.newtonIterations += iter;
+    let maxChange = 0;
+    for (let i = 0; i < n; i++) maxChange = Math.max(maxChange, Math.abs(H(T[i]) - Hold[i]) / 3000);
+    Tprev.set(Told);
+    dtPrev = dtStep;
     // Boundary heat actually transferred this step (converged temperatures).
     if (bc.kind === "convective") Qin += surfaceFlow(tNew, T[n - 1])[0] * dtStep;
     else if (bc.kind === "fixed") {
@@ -302,7 +325,10 @@ export function solve1D(inp: Solver1DInput): Solver1DResult {
     } else Qin += bc.exchange_W_m2K(tNew, Tn) * Asurf * (bc.fluid_C(tNew) - Tn) * dtStep;
     t = tNew;
     step++;
-    if (dt < inp.dt_s) dt = Math.min(inp.dt_s, dt * 2);
+    if (inp.adaptive) {
+      const scale = maxChange > 0 ? inp.adaptive.target_K / maxChange : 2;
+      dt = Math.min(inp.adaptive.dtMax_s, Math.max(inp.dt_s * 1e-3, dtStep * Math.min(2, Math.max(0.5, scale))));
+    } else if (dt < inp.dt_s) dt = Math.min(inp.dt_s, dt * 2);
     for (let i = 0; i < n; i++) {
       if (T[i] < out.minT_C) out.minT_C = T[i];
       if (T[i] > out.maxT_C) out.maxT_C = T[i];

@@ -1,0 +1,294 @@
+/**
+ * The warm-up / cool-down check: how long until a product's centre, surface and mean cross a
+ * rule-set limit in given surroundings. Chooses the simplest method that is valid:
+ *  lumped capacitance (Bi < 0.1 on V/A) → exact series product solution (no phase change) →
+ *  the numerical enthalpy solver (phase change or strongly varying properties).
+ */
+import { warmupInputSchema, type WarmupInput, type LimitKind } from "../schemas/warmup";
+import { foodThermal, warnPropertyRange } from "./properties";
+import { itemShape } from "./geometry";
+import { itemSurfaceCoefficient, type Surroundings } from "./surfaces";
+import { lumpedTheta, seriesMeanTheta, seriesTheta } from "./conduction";
+import { solve1D } from "./solver1d";
+import { plankTime, phamTime, type EstimateShape } from "./phase-change";
+import { PhysicsInputError } from "./validation";
+
+export interface WarmupPoint {
+  t_s: number;
+  center_C: number;
+  surface_C: number;
+  mean_C: number;
+}
+
+export interface WarmupResult {
+  method: "lumped" | "series" | "numerical";
+  methodReason: string;
+  limit_C: number;
+  limitKind: LimitKind;
+  direction: "warming" | "cooling";
+  timeToLimit_s: { center: number | null; surface: number | null; mean: number | null };
+  biot: number;
+  biotLength_m: number;
+  biotLumped: number;
+  fourierAtHorizon: number;
+  h_W_m2K: number;
+  hConvective_W_m2K: number;
+  hRadiative_W_m2K: number;
+  properties: { rho_kg_m3: number; k_W_mK: number; c_J_kgK: number; alpha_m2_s: number; Tf_C: number; latent_J_kg: number };
+  estimates: { plank_s: number | null; pham_s: number | null } | null;
+  energyBalanceError: number | null;
+  series: WarmupPoint[];
+  assumptions: string[];
+  warnings: string[];
+}
+
+const MAX_POINTS = 240;
+const NODES = 81;
+
+export function limitFor(kind: LimitKind, r: { chilledMax_C: number; hotHoldMin_C: number; frozenMax_C: number }): number {
+  return kind === "chilledMax" ? r.chilledMax_C : kind === "hotHoldMin" ? r.hotHoldMin_C : r.frozenMax_C;
+}
+
+/** First time f(t) crosses the limit, by bisection on a monotone function; null if not within [0, tMax]. */
+function crossingTime(f: (t: number) => number, crossed: (T: number) => boolean, tMax: number): number | null {
+  if (crossed(f(0))) return 0;
+  if (!crossed(f(tMax))) return null;
+  let a = 0;
+  let b = tMax;
+  for (let i = 0; i < 80 && b - a > 1e-3; i++) {
+    const m = (a + b) / 2;
+    if (crossed(f(m))) b = m;
+    else a = m;
+  }
+  return (a + b) / 2;
+}
+
+function crossingInSeries(t: number[], y: number[], crossed: (T: number) => boolean, limit: number): number | null {
+  if (crossed(y[0])) return 0;
+  for (let i = 1; i < y.length; i++) {
+    if (crossed(y[i])) {
+      const f = (limit - y[i - 1]) / (y[i] - y[i - 1]);
+      return t[i - 1] + Math.min(1, Math.max(0, f)) * (t[i] - t[i - 1]);
+    }
+  }
+  return null;
+}
+
+export function runWarmup(raw: WarmupInput): WarmupResult {
+  const parsed = warmupInputSchema.safeParse(raw);
+  if (!parsed.success) throw new PhysicsInputError(parsed.error.issues[0].path.join("."), parsed.error.issues[0].message);
+  const inp = parsed.data;
+  const p = inp.product;
+  const warnings: string[] = [];
+  const assumptions: string[] = [];
+  const shape = itemShape(p);
+  const props = foodThermal({
+    composition: p.composition,
+    initialFreezing_C: p.initialFreezing_C,
+    overrides: {
+      density_kg_m3: p.density_kg_m3,
+      cpUnfrozen_J_kgK: p.cpUnfrozen_J_kgK,
+      cpFrozen_J_kgK: p.cpFrozen_J_kgK,
+      kUnfrozen_W_mK: p.kUnfrozen_W_mK,
+      kFrozen_W_mK: p.kFrozen_W_mK,
+      latentHeat_J_kg: p.latentHeat_J_kg,
+    },
+    mass_kg: p.mass_kg,
+    volume_m3: shape.volume_m3,
+    isMeatLike: /meat|poultry|fish|beef|pork|lamb|chicken|turkey/i.test(p.category + " " + p.name),
+  });
+  warnings.push(...props.warnings);
+  const limit_C = limitFor(inp.limit, inp.ruleSet);
+  const Ti = inp.start_C;
+  const Tinf = inp.surroundings.T_C;
+  const direction: "warming" | "cooling" = inp.limit === "hotHoldMin" ? "cooling" : "warming";
+  const crossed = direction === "warming" ? (T: number) => T > limit_C : (T: number) => T < limit_C;
+  if (crossed(Ti)) warnings.push(`The starting temperature is already beyond the limit (${limit_C} °C)`);
+  if (direction === "warming" && Tinf <= limit_C) warnings.push("The surroundings are not warmer than the limit, so the food never crosses it in this model");
+  if (direction === "cooling" && Tinf >= limit_C) warnings.push("The surroundings are not colder than the limit, so the food never falls below it in this model");
+  if (direction === "cooling" && Ti < Tinf) warnings.push("The food starts colder than its surroundings: it warms, it does not cool");
+
+  // Surface coefficient: correlations at a representative surface temperature, or the given value.
+  const s: Surroundings = { fluid: inp.surroundings.medium, T_C: Tinf, speed_m_s: inp.surroundings.speed_m_s };
+  const eps = inp.surroundings.medium === "air" ? inp.surroundings.emissivity : 0;
+  const Tref = (Ti + Tinf) / 2;
+  const hOverride = inp.surroundings.h_W_m2K;
+  const hc = hOverride ? null : itemSurfaceCoefficient(shape.convection, Tref, s, eps, warnings);
+  const h = hOverride ?? hc!.h_W_m2K;
+  if (hOverride) assumptions.push(`Surface coefficient given: ${hOverride} W/(m²·K), used for every face and for the whole time`);
+  else {
+    assumptions.push(
+      `Surface coefficient ${h.toFixed(1)} W/(m²·K) (convection ${hc!.hConvective_W_m2K.toFixed(1)} by ${hc!.correlations.join(", ")}; radiation ${hc!.hRadiative_W_m2K.toFixed(1)} with ε = ${eps}), area-weighted over the faces`,
+    );
+  }
+  assumptions.push(`Uniform starting temperature ${Ti} °C; surroundings steady at ${Tinf} °C`);
+  assumptions.push("Nothing touches the item but the surrounding " + inp.surroundings.medium + "; packaging, containers and contact surfaces are not modelled here");
+
+  // Representative constant properties for the analytic methods.
+  const Tm = Math.min(Math.max(Tref, Math.min(Ti, Tinf)), Math.max(Ti, Tinf));
+  const k = props.k_W_mK(Tm);
+  const c = props.c_J_kgK(Tm);
+  const rho = props.rho_kg_m3;
+  const alpha = k / (rho * c);
+  const biotLumped = (h * shape.lumpedLength_m) / k;
+  const Lmin = Math.min(...shape.factors.map((f) => f.halfSize_m));
+  const biot = (h * Lmin) / k;
+  const phaseChange = Math.min(Ti, Tinf) < props.Tf_C + 1;
+
+  let method: WarmupResult["method"];
+  let reason: string;
+  if (inp.method !== "auto") {
+    method = inp.method;
+    reason = `Chosen by the user`;
+    if (method !== "numerical" && phaseChange) warnings.push("Freezing or thawing is involved but the chosen method ignores latent heat; use the numerical method");
+    if (method === "lumped" && biotLumped >= 0.1) warnings.push(`Lumped capacitance needs Bi < 0.1; here Bi = ${biotLumped.toFixed(2)}`);
+  } else if (phaseChange) {
+    method = "numerical";
+    reason = `Temperatures reach the freezing range (initial freezing point ${props.Tf_C.toFixed(1)} °C), so latent heat and changing properties matter: numerical enthalpy solver`;
+  } else if (biotLumped < 0.1) {
+    method = "lumped";
+    reason = `Bi = ${biotLumped.toFixed(3)} < 0.1 on V/A: the inside stays nearly uniform, lumped capacitance is valid`;
+  } else {
+    method = "series";
+    reason = `Bi = ${biotLumped.toFixed(2)} ≥ 0.1 on V/A and no phase change: exact series solution (product of one-dimensional solutions)`;
+  }
+
+  const horizon = inp.horizon_s;
+  const fourierAtHorizon = (alpha * horizon) / (Lmin * Lmin);
+  const dTi = Ti - Tinf;
+  let series: WarmupPoint[] = [];
+  let tc: number | null, ts: number | null, tm: number | null;
+  let energyBalanceError: number | null = null;
+
+  if (method === "lumped") {
+    const f = (t: number) => Tinf + dTi * lumpedTheta(h, shape.area_m2, rho, shape.volume_m3, c, t);
+    tc = ts = tm = crossingTime(f, crossed, horizon);
+    for (let i = 0; i <= MAX_POINTS; i++) {
+      const t = (horizon * i) / MAX_POINTS;
+      const T = f(t);
+      series.push({ t_s: t, center_C: T, surface_C: T, mean_C: T });
+    }
+    assumptions.push(`Constant properties at ${Tm.toFixed(1)} °C: k = ${k.toFixed(3)} W/(m·K), c = ${(c / 1000).toFixed(2)} kJ/(kg·K), ρ = ${rho.toFixed(0)} kg/m³`);
+  } else if (method === "series") {
+    const thetaAt = (t: number, where: "center" | "surface" | "mean") => {
+      let th = 1;
+      let surfaceDone = false;
+      for (const fct of shape.factors) {
+        const Bi = (h * fct.halfSize_m) / k;
+        const Fo = (alpha * t) / (fct.halfSize_m * fct.halfSize_m);
+        if (where === "mean") th *= seriesMeanTheta(fct.shape, Bi, Fo);
+        else if (where === "surface" && !surfaceDone && fct.halfSize_m === Lmin) {
+          th *= seriesTheta(fct.shape, Bi, Fo, 1);
+          surfaceDone = true;
+        } else th *= seriesTheta(fct.shape, Bi, Fo, 0);
+      }
+      return Tinf + dTi * th;
+    };
+    tc = crossingTime((t) => thetaAt(t, "center"), crossed, horizon);
+    ts = crossingTime((t) => thetaAt(t, "surface"), crossed, horizon);
+    tm = crossingTime((t) => thetaAt(t, "mean"), crossed, horizon);
+    for (let i = 0; i <= MAX_POINTS; i++) {
+      const t = (horizon * i) / MAX_POINTS;
+      series.push({ t_s: t, center_C: thetaAt(t, "center"), surface_C: thetaAt(t, "surface"), mean_C: thetaAt(t, "mean") });
+    }
+    assumptions.push(`Constant properties at ${Tm.toFixed(1)} °C: k = ${k.toFixed(3)} W/(m·K), c = ${(c / 1000).toFixed(2)} kJ/(kg·K), ρ = ${rho.toFixed(0)} kg/m³`);
+    assumptions.push(`"Surface" is the middle of the largest face; corners and edges change sooner`);
+    const oneTermFrom = (0.2 * Lmin * Lmin) / alpha;
+    assumptions.push(`The one-term approximation would be within 2 % after ${(oneTermFrom / 60).toFixed(0)} min (Fo > 0.2); the full series is used throughout`);
+  } else {
+    const oneD = shape.oneD;
+    if (oneD.note && !(p.shape === "sphere")) assumptions.push(oneD.note);
+    const hFn = hOverride
+      ? () => hOverride
+      : (() => {
+          let lastTs = NaN;
+          let lastH = hc!.hConvective_W_m2K;
+          return (_t: number, Ts: number) => {
+            if (Math.abs(Ts - lastTs) > 0.25) {
+              lastTs = Ts;
+              lastH = itemSurfaceCoefficient(shape.convection, Ts, s, 0, []).hConvective_W_m2K;
+            }
+            return lastH;
+          };
+        })();
+    const alphaMax = Math.max(props.k_W_mK(Math.min(Ti, Tinf)) / (rho * props.c_J_kgK(Math.min(Ti, Tinf) - 5)), alpha, 1e-8);
+    const tau = (oneD.halfSize_m * oneD.halfSize_m) / alphaMax;
+    const dt = Math.min(Math.max(tau / 300, 1), horizon / 1000);
+    const dtMax = Math.min(900, horizon / 100);
+    const r = solve1D({
+      shape: oneD.shape,
+      halfSize_m: oneD.halfSize_m,
+      nodes: NODES,
+      material: props,
+      initial_C: Ti,
+      boundary: { kind: "convective", h_W_m2K: hFn, fluid_C: () => Tinf, emissivity: hOverride ? 0 : eps, radiant_C: () => Tinf },
+      tEnd_s: horizon,
+      dt_s: dt,
+      adaptive: { target_K: 1, dtMax_s: dtMax },
+    });
+    warnPropertyRange(warnings, r.minT_C, r.maxT_C);
+    tc = crossingInSeries(r.t_s, r.center_C, crossed, limit_C);
+    ts = crossingInSeries(r.t_s, r.surface_C, crossed, limit_C);
+    tm = crossingInSeries(r.t_s, r.mean_C, crossed, limit_C);
+    const every = Math.max(1, Math.ceil(r.t_s.length / MAX_POINTS));
+    for (let i = 0; i < r.t_s.length; i += every) series.push({ t_s: r.t_s[i], center_C: r.center_C[i], surface_C: r.surface_C[i], mean_C: r.mean_C[i] });
+    const last = r.t_s.length - 1;
+    if (series[series.length - 1].t_s !== r.t_s[last]) series.push({ t_s: r.t_s[last], center_C: r.center_C[last], surface_C: r.surface_C[last], mean_C: r.mean_C[last] });
+    energyBalanceError = Math.abs(r.energyError_J) / Math.max(Math.abs(r.storedChange_J), 1e-30);
+    assumptions.push(`Numerical: ${NODES} nodes, ${r.steps} implicit steps (adaptive, at most ${dtMax.toFixed(0)} s); properties follow temperature (Choi–Okos, ice fraction); energy balance closes to ${energyBalanceError.toExponential(1)} of the heat stored`);
+    assumptions.push("Mean temperature is the volume average of the node temperatures");
+  }
+
+  let estimates: WarmupResult["estimates"] = null;
+  if (phaseChange && Ti < props.Tf_C && Tinf > props.Tf_C) {
+    const oneD = shape.oneD;
+    const eShape: EstimateShape = p.shape === "sphere" ? "sphere" : "slab";
+    const E = p.shape === "sphere" ? 1 : oneD.E;
+    const kU = props.k_W_mK(props.Tf_C + 1);
+    const kF = props.k_W_mK(Math.min(Ti, props.Tf_C - 5));
+    const pl = plankTime({ shape: eShape, a_m: 2 * oneD.halfSize_m, rho_kg_m3: rho, latent_J_kg: props.latent_J_kg, h_W_m2K: h, k_W_mK: kU, Tf_C: props.Tf_C, medium_C: Tinf, E });
+    const ph = phamTime({
+      E: p.shape === "sphere" ? 3 : oneD.E,
+      halfSize_m: oneD.halfSize_m,
+      h_W_m2K: h,
+      rhoUnfrozen_kg_m3: rho,
+      rhoFrozen_kg_m3: rho,
+      cUnfrozen_J_kgK: props.c_J_kgK(props.Tf_C + 2),
+      cFrozen_J_kgK: props.c_J_kgK(Math.min(Ti, props.Tf_C - 10)),
+      kUnfrozen_W_mK: kU,
+      kFrozen_W_mK: kF,
+      latent_J_kg: props.latent_J_kg,
+      Tf_C: props.Tf_C,
+      initial_C: Ti,
+      finalCenter_C: Math.max(props.Tf_C + 0.5, 0),
+      medium_C: Tinf,
+    });
+    estimates = { plank_s: pl.value < 1e300 ? pl.value : null, pham_s: ph.value < 1e300 ? ph.value : null };
+    warnings.push(...pl.warnings.filter((w) => !warnings.includes(w)), ...ph.warnings.filter((w) => !warnings.includes(w)));
+  }
+
+  series = series.map((pt) => ({ t_s: pt.t_s, center_C: round(pt.center_C), surface_C: round(pt.surface_C), mean_C: round(pt.mean_C) }));
+  return {
+    method,
+    methodReason: reason,
+    limit_C,
+    limitKind: inp.limit,
+    direction,
+    timeToLimit_s: { center: tc, surface: ts, mean: tm },
+    biot,
+    biotLength_m: Lmin,
+    biotLumped,
+    fourierAtHorizon,
+    h_W_m2K: h,
+    hConvective_W_m2K: hc ? hc.hConvective_W_m2K : h,
+    hRadiative_W_m2K: hc ? hc.hRadiative_W_m2K : 0,
+    properties: { rho_kg_m3: rho, k_W_mK: k, c_J_kgK: c, alpha_m2_s: alpha, Tf_C: props.Tf_C, latent_J_kg: props.latent_J_kg },
+    estimates,
+    energyBalanceError,
+    series,
+    assumptions,
+    warnings,
+  };
+}
+
+const round = (x: number) => Math.round(x * 1000) / 1000;
