@@ -318,10 +318,12 @@ export function solve1D(inp: Solver1DInput): Solver1DResult {
     // Boundary heat actually transferred this step (converged temperatures).
     if (bc.kind === "convective") Qin += surfaceFlow(tNew, T[n - 1])[0] * dtStep;
     else if (bc.kind === "fixed") {
-      // Heat into the body = stored change (the pinned node takes whatever flows); computed from the balance.
-      let stored = 0;
-      for (let i = 0; i < n; i++) stored += rho * vol[i] * (H(T[i]) - Hold[i]);
-      Qin += stored;
+      // Heat entering through the pinned surface: what its half cell stored plus what it passed inward.
+      const s = n - 1;
+      const k1 = kOf(T[s - 1]);
+      const k2 = kOf(T[s]);
+      const Gs = ((2 * k1 * k2) / (k1 + k2)) * (area[s - 1] / dr);
+      Qin += rho * vol[s] * (H(T[s]) - Hold[s]) - Gs * (T[s - 1] - T[s]) * dtStep;
     } else Qin += bc.exchange_W_m2K(tNew, Tn) * Asurf * (bc.fluid_C(tNew) - Tn) * dtStep;
     t = tNew;
     step++;
