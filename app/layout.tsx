@@ -21,6 +21,8 @@ export default async function RootLayout({ children }: { children: React.ReactNo
             Holdline
           </Link>
           <nav aria-label="Main">
+            <Link href="/warmup">Warm-up check</Link>
+            <span className="nav-sep" />
             <span className="nav-group">Library:</span>
             <Link href="/library/products">Products</Link>
             <Link href="/library/shippers">Boxes</Link>

@@ -13,6 +13,15 @@ export default async function Home() {
         Plan chilled, frozen and hot deliveries and defrosts from the heat transfer of your own boxes, packs and food. Start by keeping your
         products, boxes, coolant packs, routes and food-code limits in the library; every plan is built from them.
       </p>
+      <h2>Plan</h2>
+      <ul className="tiles">
+        <li>
+          <Link href="/warmup">
+            <strong>Warm-up and cool-down check</strong>
+            <span>Time until a product crosses its limit on the pass, in the van or on the buffet</span>
+          </Link>
+        </li>
+      </ul>
       <h2>Your library</h2>
       <ul className="tiles">
         {counts

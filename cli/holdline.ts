@@ -9,12 +9,19 @@ import { prepareDatabase } from "../lib/db/prepare";
 import { createPrismaClient, type Db } from "../lib/db/client";
 import { exportLibrary, importLibrary } from "../lib/db/library";
 import { jsonSchemaOf, NAMED_SCHEMAS } from "../lib/schemas/json-schema";
+import { resolveTemplateRefs } from "../lib/db/resolve";
+import { warmupInputSchema } from "../lib/schemas/warmup";
+import { runValidated } from "../lib/schemas/run";
+import { runWarmup } from "../lib/physics/warmup";
 
 const HELP = `holdline — hold, thaw and pack-out planning from transient heat transfer
 
 Usage:
   holdline export [--out FILE]        write every template (and the units setting) as JSON
   holdline import FILE|-              add or update templates from such a file, all or nothing
+  holdline warmup FILE|-              warm-up / cool-down check: time until centre, surface
+                                      and mean cross the rule-set limit (JSON in, JSON out;
+                                      "product" and "ruleSet" may be template names)
   holdline schema NAME                print the JSON Schema of an input
                                       (${Object.keys(NAMED_SCHEMAS).join(", ")})
   holdline --help                     this text
@@ -105,6 +112,29 @@ export async function main(argv: string[], io: CliIo = STDIO): Promise<number> {
       return 1;
     }
     io.err(`holdline import: ${r.created} added, ${r.updated} updated.\n`);
+    return 0;
+  }
+
+  if (command === "warmup") {
+    const file = rest[0];
+    if (!file) {
+      io.err("holdline warmup: give an input file, or - for standard input (see holdline schema warmup)\n");
+      return 2;
+    }
+    let data: unknown;
+    try {
+      data = JSON.parse(readFileSync(file === "-" ? 0 : file, "utf8"));
+    } catch (e) {
+      io.err(`holdline warmup: cannot read ${file} as JSON: ${(e as Error).message}\n`);
+      return 1;
+    }
+    const resolved = await withDb((db) => resolveTemplateRefs(db, data, { product: "products", ruleSet: "rulesets" }));
+    const r = resolved.ok ? runValidated(warmupInputSchema, resolved.value, (input) => runWarmup(input)) : resolved;
+    if (!r.ok) {
+      io.err(`holdline warmup: the input has problems:\n${Object.entries(r.fieldErrors).map(([k, v]) => `  ${k || "(input)"}: ${v.join("; ")}`).join("\n")}\n`);
+      return 1;
+    }
+    io.out(JSON.stringify(r.result, null, 2) + "\n");
     return 0;
   }
 

@@ -1,7 +1,11 @@
 declare module "bessel" {
-  /** Bessel function of the first kind, J_n(x). */
-  export function besselj(x: number, n: number): number;
-  export function bessely(x: number, n: number): number;
-  export function besseli(x: number, n: number): number;
-  export function besselk(x: number, n: number): number;
+  interface Bessel {
+    /** Bessel function of the first kind, J_n(x). */
+    besselj(x: number, n: number): number;
+    bessely(x: number, n: number): number;
+    besseli(x: number, n: number): number;
+    besselk(x: number, n: number): number;
+  }
+  const bessel: Bessel;
+  export default bessel;
 }

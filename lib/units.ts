@@ -31,7 +31,8 @@ export type Quantity =
   | "density" // [kg/m³]
   | "specificHeat" // [J/(kg·K)], shown in kJ/(kg·K)
   | "latentHeat" // [J/kg], shown in kJ/kg
-  | "fraction" // [-]
+  | "fraction" // [-], a mass fraction
+  | "ratio" // [-], e.g. emissivity
   | "count" // [-]
   | "money"; // [currency units]
 
@@ -66,6 +67,8 @@ export function unitLabel(q: Quantity, p: UnitPrefs): string {
       return "kJ/kg";
     case "fraction":
       return "mass fraction";
+    case "ratio":
+      return "";
     case "count":
       return "";
     case "money":

@@ -118,9 +118,9 @@ export const TEMPLATE_FIELDS: Record<TemplateKind, FieldSpec[]> = {
     { kind: "text", name: "densitySource", label: "Source of the density" },
     { kind: "number", name: "specificHeat_J_kgK", label: "Specific heat", quantity: "specificHeat" },
     { kind: "text", name: "specificHeatSource", label: "Source of the specific heat" },
-    { kind: "number", name: "emissivity", label: "Long-wave emissivity", quantity: "fraction" },
+    { kind: "number", name: "emissivity", label: "Long-wave emissivity", quantity: "ratio" },
     { kind: "text", name: "emissivitySource", label: "Source of the emissivity" },
-    { kind: "number", name: "solarAbsorptivity", label: "Solar absorptivity", quantity: "fraction" },
+    { kind: "number", name: "solarAbsorptivity", label: "Solar absorptivity", quantity: "ratio" },
     { kind: "text", name: "solarAbsorptivitySource", label: "Source of the solar absorptivity" },
     { kind: "text", name: "notes", label: "Notes", multiline: true },
   ],
@@ -156,8 +156,8 @@ export const LIST_COLUMNS: Record<TemplateKind, { label: string; path: string; q
   materials: [
     { label: "Category", path: "category" },
     { label: "Conductivity", path: "conductivity_W_mK", quantity: "conductivity" },
-    { label: "Emissivity", path: "emissivity", quantity: "fraction" },
-    { label: "Solar absorptivity", path: "solarAbsorptivity", quantity: "fraction" },
+    { label: "Emissivity", path: "emissivity", quantity: "ratio" },
+    { label: "Solar absorptivity", path: "solarAbsorptivity", quantity: "ratio" },
   ],
 };
 

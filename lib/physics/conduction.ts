@@ -12,11 +12,12 @@
  * - One-term approximation: the first term; error < 2 % for Fo > 0.2 [incroperaSeries].
  * - Rectangular block and finite cylinder: products of 1-D solutions [incroperaProduct].
  */
-import { besselj } from "bessel";
+import bessel from "bessel";
 import { requireNonNegative, requirePositive } from "./validation";
 
 export type Shape1D = "slab" | "cylinder" | "sphere";
 
+const { besselj } = bessel;
 const J0 = (x: number) => besselj(x, 0);
 const J1 = (x: number) => besselj(x, 1);
 

@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { libraryFileSchema, settingsSchema, templateSchemas } from "./templates";
+import { warmupInputSchema } from "./warmup";
 
 /** Inputs whose JSON Schema `holdline schema <name>` and /api/v1/schema/<name> print. */
 export const NAMED_SCHEMAS: Record<string, z.ZodType> = {
@@ -11,6 +12,7 @@ export const NAMED_SCHEMAS: Record<string, z.ZodType> = {
   material: templateSchemas.materials,
   settings: settingsSchema,
   library: libraryFileSchema,
+  warmup: warmupInputSchema,
 };
 
 export function jsonSchemaOf(name: string): object | null {

@@ -1,0 +1,32 @@
+"use client";
+import { CartesianGrid, Legend, Line, LineChart, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
+
+export interface ChartLine {
+  key: string;
+  label: string;
+  color: string;
+  dashed?: boolean;
+}
+
+/** Temperature against time (hours), with limit lines. Values arrive already in display units. */
+export function TemperatureChart(props: { data: Record<string, number>[]; lines: ChartLine[]; limits: { y: number; label: string }[]; unit: string; height?: number }) {
+  return (
+    <div className="chart" data-testid="temperature-chart" style={{ width: "100%", height: props.height ?? 340 }}>
+      <ResponsiveContainer>
+        <LineChart data={props.data} margin={{ top: 10, right: 24, bottom: 24, left: 8 }}>
+          <CartesianGrid stroke="#e3e6e8" />
+          <XAxis dataKey="t_h" type="number" domain={["dataMin", "dataMax"]} tickFormatter={(v: number) => `${Number(v.toFixed(1))}`} label={{ value: "time (h)", position: "insideBottom", offset: -12 }} />
+          <YAxis width={56} tickFormatter={(v: number) => `${Number(v.toFixed(1))}`} label={{ value: props.unit, angle: -90, position: "insideLeft" }} domain={["auto", "auto"]} />
+          <Tooltip formatter={(v) => `${Number(Number(v).toFixed(2))} ${props.unit}`} labelFormatter={(v) => `${Number(Number(v).toFixed(2))} h`} />
+          <Legend verticalAlign="top" height={28} />
+          {props.limits.map((l) => (
+            <ReferenceLine key={l.label} y={l.y} stroke="#a3231b" strokeDasharray="6 3" label={{ value: l.label, position: "insideTopRight", fill: "#a3231b", fontSize: 12 }} />
+          ))}
+          {props.lines.map((l) => (
+            <Line key={l.key} type="monotone" dataKey={l.key} name={l.label} stroke={l.color} strokeWidth={2} dot={false} isAnimationActive={false} strokeDasharray={l.dashed ? "4 3" : undefined} />
+          ))}
+        </LineChart>
+      </ResponsiveContainer>
+    </div>
+  );
+}
