@@ -33,6 +33,18 @@ Options:
 Results are model estimates; check real temperatures with a calibrated probe
 thermometer or data logger, and follow your local food code and regulator.`;
 
+const NOT_READ = Symbol("not read");
+
+/** Reads JSON from a file or standard input ("-"); reports and returns NOT_READ on failure. Changes nothing. */
+function readJsonInput(file: string, command: string, io: CliIo): unknown {
+  try {
+    return JSON.parse(readFileSync(file === "-" ? 0 : file, "utf8"));
+  } catch (e) {
+    io.err(`holdline ${command}: cannot read ${file} as JSON: ${(e as Error).message}\nNothing was changed.\n`);
+    return NOT_READ;
+  }
+}
+
 export interface CliIo {
   out: (s: string) => void;
   err: (s: string) => void;
@@ -99,13 +111,8 @@ export async function main(argv: string[], io: CliIo = STDIO): Promise<number> {
       io.err("holdline import: give a file name, or - for standard input\n");
       return 2;
     }
-    let data: unknown;
-    try {
-      data = JSON.parse(readFileSync(file === "-" ? 0 : file, "utf8"));
-    } catch (e) {
-      io.err(`holdline import: cannot read ${file} as JSON: ${(e as Error).message}\nNothing was changed.\n`);
-      return 1;
-    }
+    const data = readJsonInput(file, "import", io);
+    if (data === NOT_READ) return 1;
     const r = await withDb((db) => importLibrary(db, data));
     if (!r.ok) {
       io.err(`holdline import: the file has ${r.errors.length} problem(s); nothing was changed.\n${r.errors.map((e) => "  " + e).join("\n")}\n`);
@@ -121,13 +128,8 @@ export async function main(argv: string[], io: CliIo = STDIO): Promise<number> {
       io.err("holdline warmup: give an input file, or - for standard input (see holdline schema warmup)\n");
       return 2;
     }
-    let data: unknown;
-    try {
-      data = JSON.parse(readFileSync(file === "-" ? 0 : file, "utf8"));
-    } catch (e) {
-      io.err(`holdline warmup: cannot read ${file} as JSON: ${(e as Error).message}\n`);
-      return 1;
-    }
+    const data = readJsonInput(file, "warmup", io);
+    if (data === NOT_READ) return 1;
     const resolved = await withDb((db) => resolveTemplateRefs(db, data, { product: "products", ruleSet: "rulesets" }));
     const r = resolved.ok ? runValidated(warmupInputSchema, resolved.value, (input) => runWarmup(input)) : resolved;
     if (!r.ok) {

@@ -7,7 +7,8 @@ import { existsSync, mkdtempSync, rmSync } from "node:fs";
 import net from "node:net";
 import os from "node:os";
 import path from "node:path";
-import { chromium, type BrowserContext } from "playwright-core";
+import { after, before } from "node:test";
+import { chromium, type BrowserContext, type Page } from "playwright-core";
 
 export interface Harness {
   baseUrl: string;
@@ -87,4 +88,18 @@ export async function startHarness(): Promise<Harness> {
       rmSync(tmp, { recursive: true, force: true });
     },
   };
+}
+
+/** Registers before/after hooks that start the app and a browser page for one test file. */
+export function browserSuite(): { readonly h: Harness; readonly page: Page } {
+  const state = {} as { h: Harness; page: Page };
+  before(async () => {
+    state.h = await startHarness();
+    state.page = await state.h.context.newPage();
+    state.page.setDefaultTimeout(15000);
+  });
+  after(async () => {
+    await state.h?.stop();
+  });
+  return state;
 }

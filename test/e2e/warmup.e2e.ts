@@ -1,35 +1,24 @@
-import { after, before, describe, it } from "node:test";
+import { describe, it } from "node:test";
 import assert from "node:assert/strict";
-import type { Page } from "playwright-core";
-import { startHarness, type Harness } from "./harness";
+import { browserSuite } from "./harness";
 
-let h: Harness;
-let page: Page;
-
-before(async () => {
-  h = await startHarness();
-  page = await h.context.newPage();
-  page.setDefaultTimeout(15000);
-});
-after(async () => {
-  await h?.stop();
-});
+const suite = browserSuite();
 
 describe("warm-up / cool-down check in the browser", () => {
   it("shows the curve and the time to the limit, updates when a value changes, and saves a plan", async () => {
-    await page.goto(h.baseUrl + "/warmup");
-    await page.getByLabel("Product").selectOption("Steamed rice, full pan");
-    await page.getByLabel("Starting temperature").fill("3");
-    await page.getByLabel("Temperature", { exact: true }).fill("25");
-    await page.getByTestId("temperature-chart").locator("svg path.recharts-curve").first().waitFor();
-    const before = await page.getByTestId("ttl-center").innerText();
+    await suite.page.goto(suite.h.baseUrl + "/warmup");
+    await suite.page.getByLabel("Product").selectOption("Steamed rice, full pan");
+    await suite.page.getByLabel("Starting temperature").fill("3");
+    await suite.page.getByLabel("Temperature", { exact: true }).fill("25");
+    await suite.page.getByTestId("temperature-chart").locator("svg path.recharts-curve").first().waitFor();
+    const before = await suite.page.getByTestId("ttl-center").innerText();
     assert.match(before, /\d+ (h|min)/);
-    assert.match(await page.getByTestId("method").innerText(), /Method:/);
-    await page.getByTestId("caution-block").waitFor();
+    assert.match(await suite.page.getByTestId("method").innerText(), /Method:/);
+    await suite.page.getByTestId("caution-block").waitFor();
     // A warmer room: the centre reaches the limit sooner, and the page shows it without a button press.
-    await page.getByLabel("Temperature", { exact: true }).fill("35");
-    await page.waitForFunction((prev) => document.querySelector('[data-testid="ttl-center"]')?.textContent !== prev, before);
-    const after = await page.getByTestId("ttl-center").innerText();
+    await suite.page.getByLabel("Temperature", { exact: true }).fill("35");
+    await suite.page.waitForFunction((prev) => document.querySelector('[data-testid="ttl-center"]')?.textContent !== prev, before);
+    const after = await suite.page.getByTestId("ttl-center").innerText();
     const minutes = (s: string) => {
       const hm = /(\d+) h (\d+) min/.exec(s);
       if (hm) return Number(hm[1]) * 60 + Number(hm[2]);
@@ -38,26 +27,26 @@ describe("warm-up / cool-down check in the browser", () => {
     };
     assert.ok(minutes(after) < minutes(before), `${after} should be sooner than ${before}`);
     // A bad value gets a field message and no result.
-    await page.getByLabel("Starting temperature").fill("-500");
-    await page.getByText(/cannot be below absolute zero/).first().waitFor();
-    await page.getByLabel("Starting temperature").fill("3");
-    await page.getByTestId("ttl-center").waitFor();
-    await page.getByLabel("Save as a plan").fill("Rice on the buffet, hot day");
-    await page.getByRole("button", { name: "Save plan" }).click();
-    await page.getByRole("link", { name: "open the saved plan" }).click();
-    await page.getByRole("heading", { name: "Rice on the buffet, hot day" }).waitFor();
-    assert.match(await page.locator("pre.snapshot").first().innerText(), /Steamed rice, full pan/);
+    await suite.page.getByLabel("Starting temperature").fill("-500");
+    await suite.page.getByText(/cannot be below absolute zero/).first().waitFor();
+    await suite.page.getByLabel("Starting temperature").fill("3");
+    await suite.page.getByTestId("ttl-center").waitFor();
+    await suite.page.getByLabel("Save as a plan").fill("Rice on the buffet, hot day");
+    await suite.page.getByRole("button", { name: "Save plan" }).click();
+    await suite.page.getByRole("link", { name: "open the saved plan" }).click();
+    await suite.page.getByRole("heading", { name: "Rice on the buffet, hot day" }).waitFor();
+    assert.match(await suite.page.locator("pre.snapshot").first().innerText(), /Steamed rice, full pan/);
   });
 
   it("answers the API with the same schema: 200 with times, 422 with field errors", async () => {
-    const ok = await page.request.post(h.baseUrl + "/api/v1/warmup", {
+    const ok = await suite.page.request.post(suite.h.baseUrl + "/api/v1/warmup", {
       data: { product: "Roast chicken thighs, half tray", start_C: 3, surroundings: { medium: "air", T_C: 28, speed_m_s: 0 }, limit: "chilledMax" },
     });
     assert.equal(ok.status(), 200);
     const body = (await ok.json()) as { timeToLimit_s: { center: number }; method: string; series: unknown[] };
     assert.ok(body.timeToLimit_s.center > 0);
     assert.ok(body.series.length > 10);
-    const bad = await page.request.post(h.baseUrl + "/api/v1/warmup", { data: { product: "Roast chicken thighs, half tray", start_C: "warm" } });
+    const bad = await suite.page.request.post(suite.h.baseUrl + "/api/v1/warmup", { data: { product: "Roast chicken thighs, half tray", start_C: "warm" } });
     assert.equal(bad.status(), 422);
     const e = (await bad.json()) as { fieldErrors: Record<string, string[]> };
     assert.ok(e.fieldErrors.start_C);
