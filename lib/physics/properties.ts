@@ -176,11 +176,25 @@ export interface FoodThermal {
 
 const T_MIN = -100;
 const T_MAX = 200;
-const DT = 0.05;
+const DT = 0.1;
 const N = Math.round((T_MAX - T_MIN) / DT) + 1;
 export const H_REFERENCE_C = -40;
 
+const CACHE = new Map<string, FoodThermal>();
+const CACHE_SIZE = 64;
+
+/** Properties of a food, tabulated once per distinct input (the tables are reused across runs). */
 export function foodThermal(input: FoodInput): FoodThermal {
+  const key = JSON.stringify([input.composition, input.initialFreezing_C ?? null, input.overrides ?? {}, input.mass_kg ?? null, input.volume_m3 ?? null, input.isMeatLike ?? null]);
+  const hit = CACHE.get(key);
+  if (hit) return { ...hit, warnings: [...hit.warnings] };
+  const made = buildFoodThermal(input);
+  if (CACHE.size >= CACHE_SIZE) CACHE.delete(CACHE.keys().next().value as string);
+  CACHE.set(key, made);
+  return { ...made, warnings: [...made.warnings] };
+}
+
+function buildFoodThermal(input: FoodInput): FoodThermal {
   const c = input.composition;
   validateComposition(c);
   const o = input.overrides ?? {};
@@ -247,18 +261,23 @@ export function foodThermal(input: FoodInput): FoodThermal {
   const H = new Float64Array(N);
   const K = new Float64Array(N);
   for (let i = 0; i < N; i++) K[i] = kAt(T_MIN + i * DT);
-  const simpson = (a: number, b: number) => ((b - a) / 6) * (cAnalytic(a) + 4 * cAnalytic((a + b) / 2) + cAnalytic(b));
+  // Simpson on each cell, sharing end values; the cell holding Tf is split there, and the steep
+  // stretch just below Tf gets four sub-intervals.
+  const simpson = (a: number, b: number, ca: number, cb: number) => ((b - a) / 6) * (ca + 4 * cAnalytic((a + b) / 2) + cb);
+  let cPrev = cAnalytic(T_MIN);
   for (let i = 1; i < N; i++) {
     const a = T_MIN + (i - 1) * DT;
     const b = T_MIN + i * DT;
+    const cb = cAnalytic(b);
     let dH: number;
-    if (a < Tf && b > Tf) dH = simpson(a, Tf - 1e-9) + simpson(Tf, b);
-    else {
-      // Four sub-intervals for the steep part just below Tf.
-      const m = (a + b) / 2;
-      dH = a > Tf - 5 && a < Tf ? simpson(a, (a + m) / 2) + simpson((a + m) / 2, m) + simpson(m, (m + b) / 2) + simpson((m + b) / 2, b) : simpson(a, b);
-    }
+    if (a < Tf && b > Tf) dH = simpson(a, Tf - 1e-9, cPrev, cAnalytic(Tf - 1e-9)) + simpson(Tf, b, cAnalytic(Tf), cb);
+    else if (a > Tf - 5 && a < Tf) {
+      dH = 0;
+      const q = DT / 4;
+      for (let j = 0; j < 4; j++) dH += simpson(a + j * q, a + (j + 1) * q, cAnalytic(a + j * q), cAnalytic(a + (j + 1) * q));
+    } else dH = simpson(a, b, cPrev, cb);
     H[i] = H[i - 1] + dH;
+    cPrev = cb;
   }
   const iRef = Math.round((H_REFERENCE_C - T_MIN) / DT);
   const Href = H[iRef];

@@ -1,0 +1,496 @@
+/**
+ * The hold planner: will this pack-out keep this load inside its limits for this route?
+ * Builds the box network (shipper.ts) from templates, runs it over the route (and a little past its
+ * end, to measure the margin), finds the first moment any product's centre or surface leaves its
+ * band, and repeats the run over a small deterministic sample for an uncertainty band.
+ */
+import { holdInputSchema, type HoldInput, type HoldParsed } from "../schemas/hold";
+import type { Material, Pack, Product } from "../schemas/templates";
+import { foodThermal, simpleMaterial } from "./properties";
+import { itemShape } from "./geometry";
+import { solAirTemperature } from "./surfaces";
+import { boxOuterCoefficient, radiationAt, runNetwork, type BodySpec, type WallLayerSpec } from "./shipper";
+import { PhysicsInputError } from "./validation";
+import type { EnthalpyMaterial } from "./solver1d";
+
+/** CO₂ gas volume per kg of dry ice at 20 °C and 1 atm, ideal gas: 0.547 m³/kg (published-values.md §4.4, COMPUTED). */
+export const CO2_M3_PER_KG = 0.547;
+/** Inside convective coefficient of a closed cooler, 3 W/(m²·K): middle of the 2–5 range (published-values.md §6.1, from memory). */
+export const INNER_CONVECTIVE_W_M2K = 3;
+/** Contact conductance between a pack and a product resting on each other: 50 W/(m²·K) (common practice, packaging films and air gaps). */
+export const DEFAULT_CONTACT_W_M2K = 50;
+
+const PACK_K: Record<Pack["kind"], [number, number]> = {
+  // [solid, liquid] W/(m·K): ice 2.2 and water 0.57 (Choi & Okos 1986 at 0 °C); gels as water;
+  // eutectic/PCM packs about 1.0 / 0.5 (from memory, uncertain); dry ice is one node (k unused).
+  water_ice: [2.2, 0.57],
+  gel: [2.0, 0.55],
+  pcm: [1.0, 0.5],
+  dry_ice: [0.6, 0.6],
+};
+
+export interface ProductBand {
+  upper_C: number | null;
+  lower_C: number | null;
+  mode: "chilled" | "frozen" | "hot";
+  lowerReason: string | null;
+}
+
+export interface HoldSeriesPoint {
+  t_s: number;
+  air_C: number;
+  products: { center_C: number; surface_C: number }[];
+  packs: { T_C: number; latentLeft: number; massLeft_kg: number }[];
+}
+
+export interface HoldRun {
+  holdTime_s: number | null;
+  failsFirst: { product: string; line: number; point: "centre" | "surface"; limit: "upper" | "lower"; limit_C: number } | null;
+  endTime_s: number;
+  heatGain_J: { walls: number; lid: number; edgesAndCorners: number; sun: number; lidOpenings: number };
+  energyBalanceError: number;
+  steps: number;
+  newtonIterations: number;
+  series: HoldSeriesPoint[];
+  co2Released_m3: number;
+}
+
+export interface HoldResult extends HoldRun {
+  routeLength_s: number;
+  margin_s: number | null;
+  marginIsLowerBound: boolean;
+  band: { low: number | null; central: number | null; high: number | null };
+  bands: ProductBand[];
+  segments: { label: string; start_s: number; end_s: number }[];
+  openings_s: number[];
+  ua: { walls_W_K: number; lid_W_K: number; edges_W_K: number; total_W_K: number };
+  outerH_W_m2K: number[];
+  innerH_W_m2K: number;
+  hasDryIce: boolean;
+  assumptions: string[];
+  warnings: string[];
+}
+
+const MAX_POINTS = 300;
+
+export function productBand(p: Product, start_C: number, rules: HoldParsed["ruleSet"], Tf_C: number): ProductBand | string {
+  const lower = p.freezeSensitive ? Tf_C : null;
+  const lowerReason = p.freezeSensitive ? `must not freeze: initial freezing point ${Tf_C.toFixed(1)} °C` : null;
+  if (start_C >= rules.hotHoldMin_C) return { mode: "hot", upper_C: null, lower_C: rules.hotHoldMin_C, lowerReason: "hot-holding lower limit" };
+  if (start_C <= rules.frozenMax_C + 0.5) return { mode: "frozen", upper_C: rules.frozenMax_C, lower_C: null, lowerReason: null };
+  if (start_C <= rules.chilledMax_C) return { mode: "chilled", upper_C: rules.chilledMax_C, lower_C: lower, lowerReason };
+  return `packed at ${start_C} °C, which is above the chilled limit (${rules.chilledMax_C} °C) and below the hot-holding limit (${rules.hotHoldMin_C} °C) of "${rules.name}": no band of that rule set applies`;
+}
+
+interface Variant {
+  outerHScale: number;
+  insulationKScale: number;
+  conditioningShift_K: number;
+  keepSeries: boolean;
+}
+
+interface Prepared {
+  inp: HoldParsed;
+  warnings: string[];
+  assumptions: string[];
+  bands: ProductBand[];
+  productMats: { mat: EnthalpyMaterial & { Tf_C: number }; shapeM: 0 | 1 | 2; R: number; V: number; A: number }[];
+  routeLength_s: number;
+  segments: { label: string; start_s: number; end_s: number; seg: HoldParsed["route"]["segments"][number] }[];
+  openings: { start_s: number; end_s: number }[];
+  finish: Material;
+  wallLayers: WallLayerSpec[];
+  lidLayers: WallLayerSpec[];
+  inner: { L: number; W: number; H: number };
+  outer: { length_m: number; width_m: number; height_m: number };
+  edgeG: number;
+  innerH: number;
+  airVolume_m3: number;
+  kScaleForUA: number;
+  hasDryIce: boolean;
+}
+
+function prepare(inp: HoldParsed): Prepared {
+  const warnings: string[] = [];
+  const assumptions: string[] = [];
+  const mats = new Map(inp.materials.map((m) => [m.name, m]));
+  const mat = (name: string, field: string): Material => {
+    const m = mats.get(name);
+    if (!m) throw new PhysicsInputError(field, `the box names a material "${name}" that is not in the input`);
+    return m;
+  };
+  const s = inp.shipper;
+  const toLayers = (ls: { material: string; thickness_m: number }[], field: string): WallLayerSpec[] =>
+    ls.map((l, i) => {
+      const m = mat(l.material, `${field}.${i}.material`);
+      return { thickness_m: l.thickness_m, k_W_mK: m.conductivity_W_mK, rho_kg_m3: m.density_kg_m3, c_J_kgK: m.specificHeat_J_kgK, insulation: m.category === "insulation" };
+    });
+  const wallLayers = toLayers(s.wallLayers, "shipper.wallLayers");
+  const lidLayers = s.lidLayers ? toLayers(s.lidLayers, "shipper.lidLayers") : wallLayers;
+  const finish = mat(s.finishMaterial, "shipper.finishMaterial");
+  const tw = wallLayers.reduce((a, l) => a + l.thickness_m, 0);
+  const tl = lidLayers.reduce((a, l) => a + l.thickness_m, 0);
+  const inner = { L: s.innerLength_m, W: s.innerWidth_m, H: s.innerHeight_m };
+  const outer = { length_m: inner.L + 2 * tw, width_m: inner.W + 2 * tw, height_m: inner.H + tw + tl };
+  const innerVolume = inner.L * inner.W * inner.H;
+
+  // Products and packs: volumes, properties, bands.
+  const bands: ProductBand[] = [];
+  const productMats: Prepared["productMats"] = [];
+  let contentsVolume = 0;
+  inp.products.forEach((line, i) => {
+    const shape = itemShape(line.product);
+    const f = foodThermal({
+      composition: line.product.composition,
+      initialFreezing_C: line.product.initialFreezing_C,
+      overrides: {
+        density_kg_m3: line.product.density_kg_m3,
+        cpUnfrozen_J_kgK: line.product.cpUnfrozen_J_kgK,
+        cpFrozen_J_kgK: line.product.cpFrozen_J_kgK,
+        kUnfrozen_W_mK: line.product.kUnfrozen_W_mK,
+        kFrozen_W_mK: line.product.kFrozen_W_mK,
+        latentHeat_J_kg: line.product.latentHeat_J_kg,
+      },
+      mass_kg: line.product.mass_kg,
+      volume_m3: shape.volume_m3,
+    });
+    for (const w of f.warnings) warnings.push(`${line.product.name}: ${w}`);
+    const b = productBand(line.product, line.start_C, inp.ruleSet, f.Tf_C);
+    if (typeof b === "string") throw new PhysicsInputError(`products.${i}.start_C`, `${line.product.name} is ${b}`);
+    bands.push(b);
+    const m = shape.oneD.shape === "slab" ? 0 : shape.oneD.shape === "cylinder" ? 1 : 2;
+    productMats.push({ mat: f, shapeM: m, R: ((m + 1) * shape.volume_m3) / shape.area_m2, V: shape.volume_m3, A: shape.area_m2 });
+    contentsVolume += shape.volume_m3 * line.count;
+  });
+  let hasDryIce = false;
+  inp.packs.forEach((line, i) => {
+    const p = line.pack;
+    contentsVolume += p.length_m * p.width_m * p.thickness_m * line.count;
+    if (p.kind === "dry_ice") hasDryIce = true;
+    if (line.conditioning_C > p.phaseChange_C) warnings.push(`${p.name} is conditioned at ${line.conditioning_C} °C, above its ${p.kind === "dry_ice" ? "sublimation" : "melt"} point (${p.phaseChange_C} °C): it starts melted and gives sensible cooling only`);
+    void i;
+  });
+  if (contentsVolume > innerVolume) {
+    throw new PhysicsInputError("products", `the contents (${(contentsVolume * 1000).toFixed(1)} L) are larger than the box's inner volume (${(innerVolume * 1000).toFixed(1)} L)`);
+  }
+  if (contentsVolume > 0.9 * innerVolume) warnings.push(`The contents fill ${((contentsVolume / innerVolume) * 100).toFixed(0)} % of the box: packing that tight leaves little air to circulate`);
+
+  // Route: segments and lid openings.
+  const segments: Prepared["segments"] = [];
+  const openings: Prepared["openings"] = [];
+  let t0 = 0;
+  for (const seg of inp.route.segments) {
+    const start = t0;
+    const end = t0 + seg.duration_s;
+    segments.push({ label: seg.label, start_s: start, end_s: end, seg });
+    if (seg.lidOpenings > 0 && seg.lidOpenDuration_s > 0) {
+      const spacing = seg.duration_s / seg.lidOpenings;
+      const d = Math.min(seg.lidOpenDuration_s, spacing * 0.9);
+      if (d < seg.lidOpenDuration_s) warnings.push(`"${seg.label || "a segment"}": the openings do not fit its length; each is shortened to ${d.toFixed(0)} s`);
+      for (let k = 0; k < seg.lidOpenings; k++) {
+        const mid = start + (k + 0.5) * spacing;
+        openings.push({ start_s: mid - d / 2, end_s: mid + d / 2 });
+      }
+    }
+    t0 = end;
+  }
+  const routeLength_s = t0;
+
+  // Edges and corners: Incropera Table 4.1 shape factors with the wall's overall thickness and effective k.
+  const kEff = tw / wallLayers.reduce((a, l) => a + l.thickness_m / l.k_W_mK, 0);
+  const edgeLength = 4 * (inner.L + inner.W + inner.H);
+  const S = 0.54 * edgeLength + 8 * 0.15 * tw;
+  const edgeG = kEff * S;
+  if (Math.min(inner.L, inner.W, inner.H) < tw / 5) warnings.push("Some inner dimension is below a fifth of the wall thickness: the edge shape factor S = 0.54 D is outside its range");
+
+  // Inside coefficient: convection plus linearised radiation at a representative inside temperature.
+  const temps = [...inp.products.map((l) => l.start_C), ...inp.packs.map((l) => Math.max(l.conditioning_C, l.pack.phaseChange_C))];
+  const Tin = temps.length ? temps.reduce((a, b) => a + b, 0) / temps.length : 5;
+  const innerH = inp.overrides.innerH_W_m2K ?? INNER_CONVECTIVE_W_M2K + radiationAt(0.9, Math.max(-80, Math.min(90, Tin)));
+  const bodiesVolume = contentsVolume;
+  const airVolume_m3 = Math.max(innerVolume - bodiesVolume, 0.02 * innerVolume);
+
+  // Steady UA with the films of the first segment, and the scale of k that matches a UA override.
+  let kScaleForUA = 1;
+  if (inp.overrides.wallUA_W_K) {
+    const target = inp.overrides.wallUA_W_K;
+    const hOut0 = inp.overrides.outerH_W_m2K ?? 10;
+    const f = (k: number) => steadyUA(wallLayers, lidLayers, inner, hOut0, innerH, k, edgeG).total_W_K;
+    let lo = 1e-4;
+    let hi = 1e4;
+    for (let i = 0; i < 200; i++) {
+      const mid = Math.sqrt(lo * hi);
+      if (f(mid) < target) lo = mid;
+      else hi = mid;
+    }
+    kScaleForUA = Math.sqrt(lo * hi);
+    assumptions.push(`Wall UA given as ${target} W/K: every layer's conductivity scaled by ${kScaleForUA.toFixed(3)} to match it (with the films of a 10 W/(m²·K) outer coefficient unless given)`);
+  }
+
+  assumptions.push(
+    `Walls and base: ${s.wallLayers.map((l) => `${(l.thickness_m * 1000).toFixed(0)} mm ${l.material}`).join(" + ")}; lid: ${(s.lidLayers ?? s.wallLayers).map((l) => `${(l.thickness_m * 1000).toFixed(0)} mm ${l.material}`).join(" + ")}. Areas are the inner faces; the 12 edges and 8 corners add conduction shape factors S = 0.54·D and 0.15·L (Incropera & DeWitt Table 4.1)`,
+  );
+  assumptions.push(
+    `Inside, every surface exchanges with one well-mixed inside node at ${innerH.toFixed(1)} W/(m²·K) (natural convection ${inp.overrides.innerH_W_m2K ? "and radiation as given" : `${INNER_CONVECTIVE_W_M2K} + linearised radiation`}); stratification inside the box is not modelled`,
+  );
+  assumptions.push(`Sun: the lid takes all of it, the sides ${Math.round(inp.overrides.sunShareSides * 100)} %, the base none, through the sol-air temperature with the finish "${finish.name}" (α = ${finish.solarAbsorptivity}, ε = ${finish.emissivity})`);
+  assumptions.push(`Lid openings replace inside air at ${inp.overrides.lidOpenAirChangesPerMinute} air changes per minute while open; moisture and frost are ignored`);
+  assumptions.push("Products and packs are each modelled in one dimension with their real volume and surface; packs touch products only where a contact is set");
+  assumptions.push(`The box and inside air start at ${inp.boxStart_C ?? inp.route.segments[0].airTemp_C} °C`);
+  if (hasDryIce) assumptions.push("Dry ice stays at −78.5 °C while any is left; the CO₂ gas leaves the box. Temperatures next to dry ice can fall below −78.5 °C in real shippers (published measurements show −93 °C); not modelled");
+
+  return { inp, warnings, assumptions, bands, productMats, routeLength_s, segments, openings, finish, wallLayers, lidLayers, inner, outer, edgeG, innerH, airVolume_m3, kScaleForUA, hasDryIce };
+}
+
+export function steadyUA(
+  wallLayers: WallLayerSpec[],
+  lidLayers: WallLayerSpec[],
+  inner: { L: number; W: number; H: number },
+  hOut: number,
+  hIn: number,
+  kScale: number,
+  edgeG: number,
+): { walls_W_K: number; lid_W_K: number; edges_W_K: number; total_W_K: number } {
+  const Aw = 2 * (inner.L + inner.W) * inner.H + inner.L * inner.W;
+  const Al = inner.L * inner.W;
+  const r = (ls: WallLayerSpec[]) => 1 / hOut + ls.reduce((a, l) => a + l.thickness_m / (l.k_W_mK * kScale), 0) + 1 / hIn;
+  const walls = Aw / r(wallLayers);
+  const lid = Al / r(lidLayers);
+  const edges = edgeG * kScale;
+  return { walls_W_K: walls, lid_W_K: lid, edges_W_K: edges, total_W_K: walls + lid + edges };
+}
+
+function packMaterial(p: Pack, conditioning: number): EnthalpyMaterial & { Tf_C: number } {
+  const [ks, kl] = PACK_K[p.kind];
+  const rho = p.mass_kg / (p.length_m * p.width_m * p.thickness_m);
+  return simpleMaterial({
+    rho_kg_m3: rho,
+    cSolid_J_kgK: p.cpSolid_J_kgK,
+    // Sublimated CO₂ leaves the box: what is left of a dry-ice pack after it has gone has almost no capacity.
+    cLiquid_J_kgK: p.kind === "dry_ice" ? 1 : p.cpLiquid_J_kgK,
+    kSolid_W_mK: ks,
+    kLiquid_W_mK: kl,
+    melt_C: p.phaseChange_C,
+    latent_J_kg: p.latentHeat_J_kg,
+    mushy_K: p.kind === "dry_ice" ? 0.2 : 0.5,
+  }) as EnthalpyMaterial & { Tf_C: number };
+  void conditioning;
+}
+
+function runOnce(P: Prepared, v: Variant): HoldRun {
+  const inp = P.inp;
+  const o = inp.overrides;
+  const kScale = P.kScaleForUA;
+  const scaleLayers = (ls: WallLayerSpec[]) => ls.map((l) => ({ ...l, k_W_mK: l.k_W_mK * kScale * (l.insulation ? v.insulationKScale : 1) }));
+  const wallLayers = scaleLayers(P.wallLayers);
+  const lidLayers = scaleLayers(P.lidLayers);
+  const Aw = 2 * (P.inner.L + P.inner.W) * P.inner.H + P.inner.L * P.inner.W;
+  const Al = P.inner.L * P.inner.W;
+  const Aside = 2 * (P.inner.L + P.inner.W) * P.inner.H;
+  const hot = P.bands.some((b) => b.mode === "hot");
+  const extendTo = P.routeLength_s * (1 + inp.extendFraction);
+  const lastSeg = P.segments[P.segments.length - 1];
+
+  // Per-segment outer coefficients (correlations at a surface 3 K colder, or warmer for hot loads).
+  const hOuter = P.segments.map((s) =>
+    (o.outerH_W_m2K ?? boxOuterCoefficient(P.outer, s.seg.airTemp_C, s.seg.airSpeed_m_s, P.finish.emissivity, hot ? 3 : -3)) * v.outerHScale,
+  );
+  const openG = (P.airVolume_m3 * 1.2 * 1006 * o.lidOpenAirChangesPerMinute) / 60;
+  const segAt = (t: number) => {
+    for (let i = 0; i < P.segments.length; i++) if (t < P.segments[i].end_s) return i;
+    return P.segments.length - 1;
+  };
+  const ambient = (t: number) => {
+    const i = segAt(t);
+    const seg = P.segments[i].seg;
+    const h = hOuter[i];
+    const sun = t < P.routeLength_s ? seg.sun_W_m2 : lastSeg.seg.sun_W_m2;
+    const lidTe = solAirTemperature({ airTemp_C: seg.airTemp_C, solarAbsorptivity: P.finish.solarAbsorptivity, irradiance_W_m2: sun, hOuter_W_m2K: h, emissivity: P.finish.emissivity, facingSky: sun > 0 });
+    const wallTe = seg.airTemp_C + (P.finish.solarAbsorptivity * sun * o.sunShareSides * Aside) / (Aw * h);
+    let open = 0;
+    if (t < P.routeLength_s) for (const op of P.openings) if (t >= op.start_s && t < op.end_s) open = openG;
+    return { air_C: seg.airTemp_C, wallSolAir_C: wallTe, lidSolAir_C: lidTe, outerH_W_m2K: h, openExchange_W_K: open };
+  };
+
+  const bodies: BodySpec[] = [];
+  inp.packs.forEach((line) => {
+    const p = line.pack;
+    const V = p.length_m * p.width_m * p.thickness_m;
+    const A = 2 * (p.length_m * p.width_m + p.length_m * p.thickness_m + p.width_m * p.thickness_m);
+    bodies.push({
+      label: p.name,
+      material: packMaterial(p, line.conditioning_C),
+      shapeM: 0,
+      halfSize_m: V / A,
+      volume_m3: V,
+      area_m2: A,
+      count: line.count,
+      nodes: p.kind === "dry_ice" ? 1 : 5,
+      // Dry ice cannot be conditioned warmer or colder than its sublimation point.
+      start_C: p.kind === "dry_ice" ? line.conditioning_C : line.conditioning_C + v.conditioningShift_K,
+    });
+  });
+  const nPacks = bodies.length;
+  inp.products.forEach((line, i) => {
+    const pm = P.productMats[i];
+    bodies.push({ label: line.product.name, material: pm.mat, shapeM: pm.shapeM, halfSize_m: pm.R, volume_m3: pm.V, area_m2: pm.A, count: line.count, nodes: 9, start_C: line.start_C });
+  });
+  const contacts = inp.packs
+    .map((line, i) => {
+      if (line.contactWith === null) return null;
+      const prod = P.productMats[line.contactWith];
+      const prodLine = inp.products[line.contactWith];
+      const area = Math.min(line.pack.length_m * line.pack.width_m * line.count, (prod.A * prodLine.count) / 2);
+      return { a: i, b: nPacks + line.contactWith, conductance_W_K: line.contact_W_m2K * area };
+    })
+    .filter((c): c is { a: number; b: number; conductance_W_K: number } => c !== null);
+
+  const breakpoints = [...P.segments.map((s) => s.end_s), ...P.openings.flatMap((op) => [op.start_s, op.end_s])];
+  let holdTime: number | null = null;
+  let failsFirst: HoldRun["failsFirst"] = null;
+  const series: HoldSeriesPoint[] = [];
+  const prevC = new Float64Array(inp.products.length);
+  const prevS = new Float64Array(inp.products.length);
+  let prevT = 0;
+  const packLatent = inp.packs.map((line) => {
+    const m = bodies[inp.packs.indexOf(line)].material;
+    const w = line.pack.kind === "dry_ice" ? 0.2 : 0.5;
+    return { Htop: m.H_J_kg(line.pack.phaseChange_C + w / 2), L: line.pack.latentHeat_J_kg };
+  });
+  const net = runNetwork({
+    innerArea: { walls_m2: Aw, lid_m2: Al },
+    wallLayers,
+    lidLayers,
+    edgeConductance_W_K: P.edgeG * kScale * v.insulationKScale,
+    airVolume_m3: P.airVolume_m3,
+    bodies,
+    contacts,
+    innerH_W_m2K: P.innerH,
+    boxStart_C: inp.boxStart_C ?? inp.route.segments[0].airTemp_C,
+    ambient,
+    breakpoints_s: [...breakpoints, P.routeLength_s],
+    tEnd_s: extendTo,
+    onStep: (t, st) => {
+      // Band check on every product's centre and surface (no allocation: this runs every step).
+      const check = (j: number, point: "centre" | "surface", T: number, Tp: number, limit: "upper" | "lower", L: number | null) => {
+        if (L === null) return;
+        const out = limit === "upper" ? T > L : T < L;
+        if (!out) return;
+        const f = t === 0 || T === Tp ? 1 : (L - Tp) / (T - Tp);
+        const tc = t === 0 ? 0 : prevT + Math.min(1, Math.max(0, f)) * (t - prevT);
+        if (holdTime === null || tc < holdTime) {
+          holdTime = tc;
+          failsFirst = { product: inp.products[j].product.name, line: j, point, limit, limit_C: L };
+        }
+      };
+      for (let j = 0; j < inp.products.length; j++) {
+        const b = P.bands[j];
+        const c = st.bodyCenter_C[nPacks + j];
+        const s = st.bodySurface_C[nPacks + j];
+        check(j, "surface", s, prevS[j], "upper", b.upper_C);
+        check(j, "surface", s, prevS[j], "lower", b.lower_C);
+        check(j, "centre", c, prevC[j], "upper", b.upper_C);
+        check(j, "centre", c, prevC[j], "lower", b.lower_C);
+        prevC[j] = c;
+        prevS[j] = s;
+      }
+      prevT = t;
+      if (v.keepSeries) {
+        series.push({
+          t_s: t,
+          air_C: st.air_C,
+          products: inp.products.map((_, j) => ({ center_C: st.bodyCenter_C[nPacks + j], surface_C: st.bodySurface_C[nPacks + j] })),
+          packs: inp.packs.map((line, k) => {
+            const left = Math.min(1, Math.max(0, (packLatent[k].Htop - st.bodyMeanH_J_kg[k]) / packLatent[k].L));
+            return { T_C: st.bodySurface_C[k], latentLeft: left, massLeft_kg: line.pack.kind === "dry_ice" ? line.pack.mass_kg * line.count * left : line.pack.mass_kg * line.count };
+          }),
+        });
+      }
+      // Past the end of the route, stop as soon as the band is left (the margin is known then).
+      return holdTime !== null && !v.keepSeries;
+    },
+  });
+  const dryIceSublimated = inp.packs.reduce((a, line, k) => {
+    if (line.pack.kind !== "dry_ice") return a;
+    const last = series.length ? series[series.length - 1].packs[k].latentLeft : 0;
+    return a + line.pack.mass_kg * line.count * (1 - last);
+  }, 0);
+  const g = net.gains_J;
+  const totalIn = g.walls + g.lid + g.edges + g.sun + g.openings;
+  return {
+    holdTime_s: holdTime,
+    failsFirst,
+    endTime_s: net.t_end_s,
+    heatGain_J: { walls: g.walls, lid: g.lid, edgesAndCorners: g.edges, sun: g.sun, lidOpenings: g.openings },
+    energyBalanceError: Math.abs(net.energyError_J) / Math.max(Math.abs(totalIn), Math.abs(net.storedChange_J), 1e-9),
+    steps: net.steps,
+    newtonIterations: net.newtonIterations,
+    series: v.keepSeries ? downsample(series) : [],
+    co2Released_m3: dryIceSublimated * CO2_M3_PER_KG,
+  };
+}
+
+function downsample(s: HoldSeriesPoint[]): HoldSeriesPoint[] {
+  if (s.length <= MAX_POINTS) return s;
+  const every = Math.ceil(s.length / MAX_POINTS);
+  const out = s.filter((_, i) => i % every === 0);
+  if (out[out.length - 1] !== s[s.length - 1]) out.push(s[s.length - 1]);
+  return out;
+}
+
+export function runHold(raw: HoldInput): HoldResult {
+  const parsed = holdInputSchema.safeParse(raw);
+  if (!parsed.success) throw new PhysicsInputError(parsed.error.issues[0].path.join("."), parsed.error.issues[0].message);
+  return runHoldParsed(parsed.data);
+}
+
+export function runHoldParsed(inp: HoldParsed): HoldResult {
+  const P = prepare(inp);
+  const central = runOnce(P, { outerHScale: 1, insulationKScale: 1, conditioningShift_K: 0, keepSeries: true });
+  // Uncertainty: all eight corners of (outer h ± f, insulation k ± f, conditioning ± K).
+  const u = inp.uncertainty;
+  const holds: (number | null)[] = [central.holdTime_s];
+  for (const sh of [-1, 1]) for (const sk of [-1, 1]) for (const sc of [-1, 1]) {
+    if (u.outerH_frac === 0 && sh === 1) continue;
+    if (u.insulationK_frac === 0 && sk === 1) continue;
+    if (u.conditioning_K === 0 && sc === 1) continue;
+    const r = runOnce(P, { outerHScale: 1 + sh * u.outerH_frac, insulationKScale: 1 + sk * u.insulationK_frac, conditioningShift_K: sc * u.conditioning_K, keepSeries: false });
+    holds.push(r.holdTime_s);
+  }
+  const asNumber = (x: number | null) => (x === null ? Infinity : x);
+  const low = Math.min(...holds.map(asNumber));
+  const high = Math.max(...holds.map(asNumber));
+  const route = P.routeLength_s;
+  const hold = central.holdTime_s;
+  const extended = route * (1 + inp.extendFraction);
+  const warnings = [...P.warnings];
+  if (hold !== null && hold === 0) warnings.push(`${central.failsFirst?.product} is already outside its band when packed`);
+  const hOuter = P.segments.map((s) => inp.overrides.outerH_W_m2K ?? boxOuterCoefficient(P.outer, s.seg.airTemp_C, s.seg.airSpeed_m_s, P.finish.emissivity, -3));
+  const ua = steadyUA(P.wallLayers, P.lidLayers, P.inner, hOuter[0], P.innerH, P.kScaleForUA, P.edgeG);
+  const assumptions = [...P.assumptions];
+  assumptions.push(
+    `Uncertainty band: the lowest and highest hold over 8 runs with outer coefficient ±${Math.round(inp.uncertainty.outerH_frac * 100)} %, insulation conductivity ±${Math.round(inp.uncertainty.insulationK_frac * 100)} % and pack conditioning ±${inp.uncertainty.conditioning_K} K`,
+  );
+  assumptions.push(`After the route ends, the last segment's conditions are continued for ${Math.round(inp.extendFraction * 100)} % of the route length to measure the margin`);
+  return {
+    ...central,
+    holdTime_s: hold !== null && hold <= route ? hold : null,
+    routeLength_s: route,
+    margin_s: hold === null ? extended - route : hold - route,
+    marginIsLowerBound: hold === null,
+    band: {
+      low: Number.isFinite(low) ? low : null,
+      central: hold,
+      high: Number.isFinite(high) ? high : null,
+    },
+    bands: P.bands,
+    segments: P.segments.map((s) => ({ label: s.label, start_s: s.start_s, end_s: s.end_s })),
+    openings_s: P.openings.map((o) => o.start_s),
+    ua,
+    outerH_W_m2K: hOuter,
+    innerH_W_m2K: P.innerH,
+    hasDryIce: P.hasDryIce,
+    assumptions,
+    warnings,
+  };
+}

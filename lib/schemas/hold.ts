@@ -1,0 +1,79 @@
+/**
+ * Input of the hold planner: products with counts, a box, packs with counts and conditioning,
+ * a route and a rule set. One schema for the page, the API, the CLI and `holdline schema hold`.
+ */
+import { z } from "zod";
+import { materialSchema, packSchema, productSchema, routeSchema, ruleSetSchema, shipperSchema, ABSOLUTE_ZERO_C } from "./templates";
+
+const temp = (what: string) =>
+  z
+    .number({ error: `${what}: enter a number` })
+    .min(ABSOLUTE_ZERO_C, { error: `${what} cannot be below absolute zero (−273.15 °C)` })
+    .max(400, { error: `${what} above 400 °C is outside this tool` });
+const count = (what: string) =>
+  z
+    .number({ error: `${what}: enter a whole number` })
+    .int({ error: `${what}: enter a whole number` })
+    .min(1, { error: `${what}: at least 1` })
+    .max(500, { error: `${what}: at most 500` });
+const optionalPositive = (what: string, max: number) =>
+  z.number({ error: `${what}: enter a number` }).positive({ error: `${what} must be greater than zero` }).max(max, { error: `${what} is implausibly large` }).nullable().default(null);
+
+export const PLACEMENTS = ["around", "top", "bottom", "side"] as const;
+
+export const holdProductLineSchema = z.object({
+  product: productSchema,
+  count: count("Count"),
+  start_C: temp("Packed at"),
+});
+
+export const holdPackLineSchema = z.object({
+  pack: packSchema,
+  count: count("Count"),
+  conditioning_C: temp("Conditioned at"),
+  placement: z.enum(PLACEMENTS, { error: "Placement: around, top, bottom or side" }).default("around"),
+  /** Direct contact with one product line (its index), through a contact conductance. */
+  contactWith: z.number().int().min(0).nullable().default(null),
+  contact_W_m2K: z.number().positive().max(1e4).default(50),
+});
+
+export const uncertaintySchema = z.object({
+  outerH_frac: z.number().min(0).max(0.9).default(0.3),
+  insulationK_frac: z.number().min(0).max(0.9).default(0.1),
+  conditioning_K: z.number().min(0).max(20).default(2),
+});
+
+export const holdInputSchema = z
+  .object({
+    products: z.array(holdProductLineSchema).max(12, { error: "At most 12 product lines" }).default([]),
+    shipper: shipperSchema,
+    /** Materials the box names (copied in from the library by the page, API and CLI). */
+    materials: z.array(materialSchema).min(1, { error: "The box's materials are needed" }),
+    packs: z.array(holdPackLineSchema).max(12, { error: "At most 12 pack lines" }).default([]),
+    route: routeSchema,
+    ruleSet: ruleSetSchema,
+    /** Box and inside air temperature when packing; defaults to the first segment's air. */
+    boxStart_C: temp("Box temperature when packed").nullable().default(null),
+    overrides: z
+      .object({
+        outerH_W_m2K: optionalPositive("Outer surface coefficient", 1000),
+        innerH_W_m2K: optionalPositive("Inner surface coefficient", 1000),
+        wallUA_W_K: optionalPositive("Wall UA", 1000),
+        sunShareSides: z.number().min(0).max(1).default(0.25),
+        lidOpenAirChangesPerMinute: z.number().positive().max(600).default(6),
+      })
+      .default({ outerH_W_m2K: null, innerH_W_m2K: null, wallUA_W_K: null, sunShareSides: 0.25, lidOpenAirChangesPerMinute: 6 }),
+    uncertainty: uncertaintySchema.default({ outerH_frac: 0.3, insulationK_frac: 0.1, conditioning_K: 2 }),
+    /** Keep simulating the last segment after the route ends, to measure the margin (fraction of the route length). */
+    extendFraction: z.number().min(0).max(3).default(0.5),
+  })
+  .superRefine((h, ctx) => {
+    if (h.products.length === 0 && h.packs.length === 0) ctx.addIssue({ code: "custom", path: ["products"], message: "Add at least one product or one pack" });
+    h.packs.forEach((p, i) => {
+      if (p.contactWith !== null && p.contactWith >= h.products.length) {
+        ctx.addIssue({ code: "custom", path: ["packs", i, "contactWith"], message: `There is no product line ${p.contactWith + 1}` });
+      }
+    });
+  });
+export type HoldInput = z.input<typeof holdInputSchema>;
+export type HoldParsed = z.output<typeof holdInputSchema>;
