@@ -16,6 +16,12 @@ export default async function Home() {
       <h2>Plan</h2>
       <ul className="tiles">
         <li>
+          <Link href="/hold">
+            <strong>Hold planner</strong>
+            <span>How long this box and these packs keep the load inside its limits on a route</span>
+          </Link>
+        </li>
+        <li>
           <Link href="/warmup">
             <strong>Warm-up and cool-down check</strong>
             <span>Time until a product crosses its limit on the pass, in the van or on the buffet</span>

@@ -9,7 +9,9 @@ import { prepareDatabase } from "../lib/db/prepare";
 import { createPrismaClient, type Db } from "../lib/db/client";
 import { exportLibrary, importLibrary } from "../lib/db/library";
 import { jsonSchemaOf, NAMED_SCHEMAS } from "../lib/schemas/json-schema";
-import { resolveTemplateRefs } from "../lib/db/resolve";
+import { resolveHoldRefs, resolveTemplateRefs } from "../lib/db/resolve";
+import { holdInputSchema } from "../lib/schemas/hold";
+import { runHoldParsed } from "../lib/physics/hold";
 import { warmupInputSchema } from "../lib/schemas/warmup";
 import { runValidated } from "../lib/schemas/run";
 import { runWarmup } from "../lib/physics/warmup";
@@ -22,6 +24,8 @@ Usage:
   holdline warmup FILE|-              warm-up / cool-down check: time until centre, surface
                                       and mean cross the rule-set limit (JSON in, JSON out;
                                       "product" and "ruleSet" may be template names)
+  holdline hold FILE|-                hold planner: how long this box and these packs keep the
+                                      load inside its band on the route (templates by name)
   holdline schema NAME                print the JSON Schema of an input
                                       (${Object.keys(NAMED_SCHEMAS).join(", ")})
   holdline --help                     this text
@@ -122,18 +126,22 @@ export async function main(argv: string[], io: CliIo = STDIO): Promise<number> {
     return 0;
   }
 
-  if (command === "warmup") {
+  if (command === "warmup" || command === "hold") {
     const file = rest[0];
     if (!file) {
-      io.err("holdline warmup: give an input file, or - for standard input (see holdline schema warmup)\n");
+      io.err(`holdline ${command}: give an input file, or - for standard input (see holdline schema ${command})\n`);
       return 2;
     }
-    const data = readJsonInput(file, "warmup", io);
+    const data = readJsonInput(file, command, io);
     if (data === NOT_READ) return 1;
-    const resolved = await withDb((db) => resolveTemplateRefs(db, data, { product: "products", ruleSet: "rulesets" }));
-    const r = resolved.ok ? runValidated(warmupInputSchema, resolved.value, (input) => runWarmup(input)) : resolved;
+    const resolved = await withDb((db) => (command === "hold" ? resolveHoldRefs(db, data) : resolveTemplateRefs(db, data, { product: "products", ruleSet: "rulesets" })));
+    const r = !resolved.ok
+      ? resolved
+      : command === "hold"
+        ? runValidated(holdInputSchema, resolved.value, (input) => runHoldParsed(input))
+        : runValidated(warmupInputSchema, resolved.value, (input) => runWarmup(input));
     if (!r.ok) {
-      io.err(`holdline warmup: the input has problems:\n${Object.entries(r.fieldErrors).map(([k, v]) => `  ${k || "(input)"}: ${v.join("; ")}`).join("\n")}\n`);
+      io.err(`holdline ${command}: the input has problems; nothing was computed:\n${Object.entries(r.fieldErrors).map(([k, v]) => `  ${k || "(input)"}: ${v.join("; ")}`).join("\n")}\n`);
       return 1;
     }
     io.out(JSON.stringify(r.result, null, 2) + "\n");

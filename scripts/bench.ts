@@ -6,6 +6,8 @@ import { solve1D } from "../lib/physics/solver1d";
 import { oneTermTheta, seriesTheta } from "../lib/physics/conduction";
 import { runWarmup } from "../lib/physics/warmup";
 import { DEMO_SCENARIO } from "../lib/db/demo-scenario";
+import { runHoldParsed } from "../lib/physics/hold";
+import { holdInputSchema } from "../lib/schemas/hold";
 
 function median(xs: number[]): number {
   const s = [...xs].sort((a, b) => a - b);
@@ -80,4 +82,47 @@ for (const [name, start, air, limit] of cases) {
   }, 15, 3);
   console.log(`  ${product.name}: ${method}, median ${median(ts).toFixed(2)} ms`);
 }
+// 4. Hold planner: a 48-hour route with 6 segments, one box, 4 pack lines and 3 product lines.
+const D = DEMO_SCENARIO;
+const find = <T extends { name: string }>(xs: T[], start: string) => xs.find((x) => x.name.startsWith(start))!;
+const route48 = {
+  name: "bench: 48 h, 6 segments",
+  notes: "",
+  segments: [
+    { label: "depot", duration_s: 4 * 3600, airTemp_C: 22, airSpeed_m_s: 0.5, sun_W_m2: 0, lidOpenings: 0, lidOpenDuration_s: 0 },
+    { label: "sorting", duration_s: 10 * 3600, airTemp_C: 18, airSpeed_m_s: 0.3, sun_W_m2: 0, lidOpenings: 0, lidOpenDuration_s: 0 },
+    { label: "trunk", duration_s: 12 * 3600, airTemp_C: 12, airSpeed_m_s: 2, sun_W_m2: 0, lidOpenings: 0, lidOpenDuration_s: 0 },
+    { label: "van", duration_s: 8 * 3600, airTemp_C: 25, airSpeed_m_s: 0.5, sun_W_m2: 0, lidOpenings: 1, lidOpenDuration_s: 60 },
+    { label: "store", duration_s: 10 * 3600, airTemp_C: 20, airSpeed_m_s: 0.2, sun_W_m2: 0, lidOpenings: 0, lidOpenDuration_s: 0 },
+    { label: "doorstep", duration_s: 4 * 3600, airTemp_C: 28, airSpeed_m_s: 1, sun_W_m2: 400, lidOpenings: 0, lidOpenDuration_s: 0 },
+  ],
+};
+const holdInput = (band: boolean) =>
+  holdInputSchema.parse({
+    products: [
+      { product: find(D.products, "Cod fillets"), count: 2, start_C: -20 },
+      { product: find(D.products, "Vanilla ice"), count: 1, start_C: -22 },
+      { product: find(D.products, "Roast chicken"), count: 1, start_C: -19 },
+    ],
+    shipper: find(D.shippers, "Quillfield thick"),
+    materials: D.materials,
+    packs: [
+      { pack: find(D.packs, "Eutectic"), count: 4, conditioning_C: -30 },
+      { pack: find(D.packs, "Water ice"), count: 2, conditioning_C: -25 },
+      { pack: find(D.packs, "Gel"), count: 2, conditioning_C: -25 },
+      { pack: find(D.packs, "Dry ice"), count: 2, conditioning_C: -78.5 },
+    ],
+    route: route48,
+    ruleSet: D.rulesets[0],
+    uncertainty: band ? { outerH_frac: 0.3, insulationK_frac: 0.1, conditioning_K: 2 } : { outerH_frac: 0, insulationK_frac: 0, conditioning_K: 0 },
+    extendFraction: 0,
+  });
+const single = holdInput(false);
+const withBand = holdInput(true);
+let lastHold = runHoldParsed(single);
+const h1 = time(() => (lastHold = runHoldParsed(single)), 40, 40);
+const h9 = time(() => runHoldParsed(withBand), 15, 5);
+console.log("\nHold planner — 48 h route, 6 segments, 1 box, 4 pack lines, 3 product lines");
+console.log(`  one plan: median ${median(h1).toFixed(2)} ms (${lastHold.steps} implicit steps, ${lastHold.newtonIterations} Newton iterations, energy balance ${lastHold.energyBalanceError.toExponential(1)})`);
+console.log(`  with the uncertainty band (central + 8 runs): median ${median(h9).toFixed(2)} ms (${(median(h9) / median(h1)).toFixed(1)}× one plan)`);
 if (sink === 42) console.log("");

@@ -29,3 +29,48 @@ export async function resolveTemplateRefs(
   }
   return Object.keys(errors).length ? { ok: false, fieldErrors: errors } : { ok: true, value: out };
 }
+
+/**
+ * Hold-planner input with names: `shipper`, `route`, `ruleSet` and each line's `product` / `pack` may be
+ * template names; a pack line without `conditioning_C` takes the pack's usual conditioning; `materials`
+ * defaults to the library materials the box names.
+ */
+export async function resolveHoldRefs(db: Db, body: unknown): Promise<{ ok: true; value: unknown } | { ok: false; fieldErrors: FieldErrors }> {
+  const top = await resolveTemplateRefs(db, body, { shipper: "shippers", route: "routes", ruleSet: "rulesets" });
+  if (!top.ok || !top.value || typeof top.value !== "object") return top;
+  const out = top.value as Record<string, unknown>;
+  const errors: FieldErrors = {};
+  const lines = async (key: "products" | "packs", field: "product" | "pack", kind: TemplateKind) => {
+    const arr = out[key];
+    if (!Array.isArray(arr)) return;
+    out[key] = await Promise.all(
+      arr.map(async (line, i) => {
+        if (!line || typeof line !== "object") return line;
+        const l = { ...(line as Record<string, unknown>) };
+        if (typeof l[field] === "string") {
+          const t = await getTemplateByName(db, kind, l[field] as string);
+          if (t) l[field] = t.data;
+          else errors[`${key}.${i}.${field}`] = [`No ${field} named "${l[field]}" in the library`];
+        }
+        if (key === "packs" && l.conditioning_C === undefined && l.pack && typeof l.pack === "object") {
+          l.conditioning_C = (l.pack as { conditioning_C?: number }).conditioning_C;
+        }
+        return l;
+      }),
+    );
+  };
+  await lines("products", "product", "products");
+  await lines("packs", "pack", "packs");
+  if (out.materials === undefined && out.shipper && typeof out.shipper === "object") {
+    const s = out.shipper as { wallLayers?: { material: string }[]; lidLayers?: { material: string }[] | null; finishMaterial?: string };
+    const names = new Set([...(s.wallLayers ?? []).map((l) => l.material), ...(s.lidLayers ?? []).map((l) => l.material), s.finishMaterial ?? ""]);
+    const mats = [];
+    for (const n of names) {
+      if (!n) continue;
+      const m = await getTemplateByName(db, "materials", n);
+      if (m) mats.push(m.data);
+    }
+    out.materials = mats;
+  }
+  return Object.keys(errors).length ? { ok: false, fieldErrors: errors } : { ok: true, value: out };
+}

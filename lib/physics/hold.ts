@@ -47,6 +47,7 @@ export interface HoldRun {
   holdTime_s: number | null;
   failsFirst: { product: string; line: number; point: "centre" | "surface"; limit: "upper" | "lower"; limit_C: number } | null;
   endTime_s: number;
+  /** Heat that entered the box system during the route, by path (J). */
   heatGain_J: { walls: number; lid: number; edgesAndCorners: number; sun: number; lidOpenings: number };
   energyBalanceError: number;
   steps: number;
@@ -83,6 +84,8 @@ export function productBand(p: Product, start_C: number, rules: HoldParsed["rule
 }
 
 interface Variant {
+  /** Mesh and time-step refinement factor (1 = normal). */
+  resolution?: number;
   outerHScale: number;
   insulationKScale: number;
   conditioningShift_K: number;
@@ -325,7 +328,7 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
       volume_m3: V,
       area_m2: A,
       count: line.count,
-      nodes: p.kind === "dry_ice" ? 1 : 5,
+      nodes: p.kind === "dry_ice" ? 1 : 5 * (v.resolution ?? 1),
       // Dry ice cannot be conditioned warmer or colder than its sublimation point.
       start_C: p.kind === "dry_ice" ? line.conditioning_C : line.conditioning_C + v.conditioningShift_K,
     });
@@ -333,7 +336,7 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
   const nPacks = bodies.length;
   inp.products.forEach((line, i) => {
     const pm = P.productMats[i];
-    bodies.push({ label: line.product.name, material: pm.mat, shapeM: pm.shapeM, halfSize_m: pm.R, volume_m3: pm.V, area_m2: pm.A, count: line.count, nodes: 9, start_C: line.start_C });
+    bodies.push({ label: line.product.name, material: pm.mat, shapeM: pm.shapeM, halfSize_m: pm.R, volume_m3: pm.V, area_m2: pm.A, count: line.count, nodes: 9 * (v.resolution ?? 1), start_C: line.start_C });
   });
   const contacts = inp.packs
     .map((line, i) => {
@@ -352,6 +355,7 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
   const prevC = new Float64Array(inp.products.length);
   const prevS = new Float64Array(inp.products.length);
   let prevT = 0;
+  let routeGains: { walls: number; lid: number; edges: number; sun: number; openings: number } | null = null;
   const packLatent = inp.packs.map((line) => {
     const m = bodies[inp.packs.indexOf(line)].material;
     const w = line.pack.kind === "dry_ice" ? 0.2 : 0.5;
@@ -370,6 +374,9 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
     ambient,
     breakpoints_s: [...breakpoints, P.routeLength_s],
     tEnd_s: extendTo,
+    refine: v.resolution ?? 1,
+    dtMax_s: 1800 / (v.resolution ?? 1),
+    targetChange_K: 2 / (v.resolution ?? 1),
     onStep: (t, st) => {
       // Band check on every product's centre and surface (no allocation: this runs every step).
       const check = (j: number, point: "centre" | "surface", T: number, Tp: number, limit: "upper" | "lower", L: number | null) => {
@@ -395,6 +402,7 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
         prevS[j] = s;
       }
       prevT = t;
+      if (routeGains === null && t >= P.routeLength_s - 1e-6) routeGains = { ...st.gains };
       if (v.keepSeries) {
         series.push({
           t_s: t,
@@ -415,8 +423,10 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
     const last = series.length ? series[series.length - 1].packs[k].latentLeft : 0;
     return a + line.pack.mass_kg * line.count * (1 - last);
   }, 0);
-  const g = net.gains_J;
-  const totalIn = g.walls + g.lid + g.edges + g.sun + g.openings;
+  const all = net.gains_J;
+  const totalIn = all.walls + all.lid + all.edges + all.sun + all.openings;
+  // The breakdown the user sees covers the route itself, not the extension used for the margin.
+  const g = routeGains ?? all;
   return {
     holdTime_s: holdTime,
     failsFirst,
@@ -444,9 +454,9 @@ export function runHold(raw: HoldInput): HoldResult {
   return runHoldParsed(parsed.data);
 }
 
-export function runHoldParsed(inp: HoldParsed): HoldResult {
+export function runHoldParsed(inp: HoldParsed, opts: { resolution?: number } = {}): HoldResult {
   const P = prepare(inp);
-  const central = runOnce(P, { outerHScale: 1, insulationKScale: 1, conditioningShift_K: 0, keepSeries: true });
+  const central = runOnce(P, { resolution: opts.resolution, outerHScale: 1, insulationKScale: 1, conditioningShift_K: 0, keepSeries: true });
   // Uncertainty: all eight corners of (outer h ± f, insulation k ± f, conditioning ± K).
   const u = inp.uncertainty;
   const holds: (number | null)[] = [central.holdTime_s];
@@ -454,7 +464,7 @@ export function runHoldParsed(inp: HoldParsed): HoldResult {
     if (u.outerH_frac === 0 && sh === 1) continue;
     if (u.insulationK_frac === 0 && sk === 1) continue;
     if (u.conditioning_K === 0 && sc === 1) continue;
-    const r = runOnce(P, { outerHScale: 1 + sh * u.outerH_frac, insulationKScale: 1 + sk * u.insulationK_frac, conditioningShift_K: sc * u.conditioning_K, keepSeries: false });
+    const r = runOnce(P, { resolution: opts.resolution, outerHScale: 1 + sh * u.outerH_frac, insulationKScale: 1 + sk * u.insulationK_frac, conditioningShift_K: sc * u.conditioning_K, keepSeries: false });
     holds.push(r.holdTime_s);
   }
   const asNumber = (x: number | null) => (x === null ? Infinity : x);

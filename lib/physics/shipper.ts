@@ -62,12 +62,16 @@ export interface NetworkSpec {
   /** Largest step, s (default 1800), and the enthalpy change per step the step control aims at, in kelvin of a 3 kJ/(kg·K) body (default 2). */
   dtMax_s?: number;
   targetChange_K?: number;
+  /** Mesh refinement factor for wall nodes (bodies set their own node counts). */
+  refine?: number;
   /** Called after every accepted step; return true to stop. */
   onStep?: (t_s: number, net: NetworkState) => boolean | void;
 }
 
 export interface NetworkState {
   air_C: number;
+  /** Heat in by path so far, J (cumulative). */
+  gains: { walls: number; lid: number; edges: number; sun: number; openings: number };
   /** For each body: centre (node 0) and surface (last node) temperatures, and the mean specific enthalpy. */
   bodyCenter_C: Float64Array;
   bodySurface_C: Float64Array;
@@ -136,10 +140,10 @@ function newChain(n: number): Chain {
 }
 
 /** Builds a wall chain: nodes outside → inside; first node couples to the outer film, last to the inner film. */
-function wallChain(layers: WallLayerSpec[], area: number, kind: "walls" | "lid"): { chain: Chain; halfOuter_K_W: number; halfInner_K_W: number } {
+function wallChain(layers: WallLayerSpec[], area: number, kind: "walls" | "lid", refine: number): { chain: Chain; halfOuter_K_W: number; halfInner_K_W: number } {
   const cells: { dx: number; k: number; cap: number }[] = [];
   for (const L of layers) {
-    const m = L.insulation && L.thickness_m > 0.01 ? 2 : 1;
+    const m = (L.insulation && L.thickness_m > 0.01 ? 2 : 1) * refine;
     for (let j = 0; j < m; j++) cells.push({ dx: L.thickness_m / m, k: L.k_W_mK, cap: L.rho_kg_m3 * L.c_J_kgK * area * (L.thickness_m / m) });
   }
   const ch = newChain(cells.length);
@@ -193,7 +197,7 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
     ["walls", spec.wallLayers, spec.innerArea.walls_m2],
     ["lid", spec.lidLayers, spec.innerArea.lid_m2],
   ] as const) {
-    const w = wallChain(layers, area, kind);
+    const w = wallChain(layers, area, kind, Math.max(1, Math.round(spec.refine ?? 1)));
     w.chain.T.fill(spec.boxStart_C);
     w.chain.Gend = 1 / (w.halfInner_K_W + 1 / (hi * area));
     chains.push(w.chain);
@@ -224,6 +228,7 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
   const gains = { walls: 0, lid: 0, edges: 0, sun: 0, openings: 0, contactsCheck: 0 };
   const state: NetworkState = {
     air_C: Tair,
+    gains,
     bodyCenter_C: new Float64Array(spec.bodies.length),
     bodySurface_C: new Float64Array(spec.bodies.length),
     bodyMeanH_J_kg: new Float64Array(spec.bodies.length),

@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { libraryFileSchema, settingsSchema, templateSchemas } from "./templates";
 import { warmupInputSchema } from "./warmup";
+import { holdInputSchema } from "./hold";
 
 /** Inputs whose JSON Schema `holdline schema <name>` and /api/v1/schema/<name> print. */
 export const NAMED_SCHEMAS: Record<string, z.ZodType> = {
@@ -13,6 +14,7 @@ export const NAMED_SCHEMAS: Record<string, z.ZodType> = {
   settings: settingsSchema,
   library: libraryFileSchema,
   warmup: warmupInputSchema,
+  hold: holdInputSchema,
 };
 
 export function jsonSchemaOf(name: string): object | null {

@@ -1,0 +1,66 @@
+import { describe, it } from "node:test";
+import assert from "node:assert/strict";
+import { readFileSync } from "node:fs";
+import { browserSuite } from "./harness";
+
+const suite = browserSuite();
+
+describe("hold planner in the browser", () => {
+  it("builds a plan from the seeded templates, shows the hold time and chart, saves, reopens and downloads the CSV", async () => {
+    const page = suite.page;
+    await page.goto(suite.h.baseUrl + "/hold");
+    await page.getByLabel("Product 1", { exact: true }).selectOption("Roast chicken thighs, half tray");
+    await page.getByRole("button", { name: "Add a product" }).click();
+    await page.getByLabel("Product 2", { exact: true }).selectOption("Mixed salad leaves, tub");
+    await page.getByLabel("Box", { exact: true }).selectOption("Quillfield thick catering box");
+    await page.getByLabel("Pack 1", { exact: true }).selectOption("Gel pack, 600 g");
+    await page.getByLabel("Route", { exact: true }).selectOption("Summer lunch run, Harbour Street");
+    await page.getByTestId("hold-time").waitFor();
+    assert.match(await page.getByTestId("hold-time").innerText(), /\d+ (h|min|s)|more than/);
+    await page.getByTestId("temperature-chart").locator("path.recharts-curve").first().waitFor();
+    await page.getByTestId("heat-gain").waitFor();
+    await page.getByTestId("caution-block").waitFor();
+    // One more pack changes the answer without pressing anything.
+    const before = await page.getByTestId("hold-margin").innerText();
+    await page.getByLabel("How many").nth(2).fill("8");
+    await page.waitForFunction((prev) => document.querySelector('[data-testid="hold-margin"]')?.textContent !== prev, before);
+
+    const download = page.waitForEvent("download");
+    await page.getByRole("button", { name: "Download curves (CSV)" }).click();
+    const file = await (await download).path();
+    const csv = readFileSync(file!, "utf8");
+    assert.match(csv.split("\n")[0], /^t_s,inside_air_C,/);
+    assert.ok(csv.split("\n").length > 20);
+
+    await page.getByLabel("Save as a plan").fill("Harbour Street lunch, thick box");
+    await page.getByRole("button", { name: "Save plan" }).click();
+    await page.getByRole("link", { name: "open the saved plan" }).click();
+    await page.getByRole("heading", { name: "Harbour Street lunch, thick box" }).waitFor();
+    await page.getByRole("link", { name: "Reopen in the hold planner" }).click();
+    await page.getByText(/Reopened the saved plan/).waitFor();
+    assert.equal(await page.getByLabel("Product 2", { exact: true }).inputValue(), "Mixed salad leaves, tub");
+    assert.equal(await page.getByLabel("How many").nth(2).inputValue(), "8");
+    await page.getByTestId("hold-time").waitFor();
+  });
+
+  it("answers POST /api/v1/hold with the agreed fields, and 422 on bad input", async () => {
+    const page = suite.page;
+    const ok = await page.request.post(suite.h.baseUrl + "/api/v1/hold", {
+      data: {
+        products: [{ product: "Cod fillets, frozen block", count: 1, start_C: -22 }],
+        shipper: "Quillfield lined carton",
+        packs: [{ pack: "Dry ice slab, 2.5 kg", count: 1 }],
+        route: "Overnight courier, Millbrook depot",
+      },
+    });
+    assert.equal(ok.status(), 200);
+    const b = (await ok.json()) as Record<string, unknown> & { series: { t_s: number; air_C: number; products: { center_C: number; surface_C: number }[] }[] };
+    for (const k of ["holdTime_s", "margin_s", "failsFirst", "band", "heatGain_J", "energyBalanceError", "warnings"]) assert.ok(k in b, k);
+    assert.ok(b.series[1].products[0].center_C < 0);
+    const bad = await page.request.post(suite.h.baseUrl + "/api/v1/hold", {
+      data: { products: [{ product: "Whole turkey, 6 kg", count: 20, start_C: 2 }], shipper: "Quillfield thin foam cooler", route: "Summer lunch run, Harbour Street", packs: [] },
+    });
+    assert.equal(bad.status(), 422);
+    assert.match(JSON.stringify(await bad.json()), /larger than the box/);
+  });
+});

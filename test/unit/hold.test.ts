@@ -1,0 +1,110 @@
+import { describe, it, expect } from "vitest";
+import { runHoldParsed, runHold } from "../../lib/physics/hold";
+import { holdInputSchema, type HoldInput } from "../../lib/schemas/hold";
+import { runValidated } from "../../lib/schemas/run";
+import { PhysicsInputError } from "../../lib/physics/validation";
+import { DEMO_SCENARIO as D } from "../../lib/db/demo-scenario";
+
+const P = (n: string) => D.products.find((p) => p.name.startsWith(n))!;
+const K = (n: string) => D.packs.find((p) => p.name.startsWith(n))!;
+const S = (n: string) => D.shippers.find((p) => p.name.startsWith(n))!;
+const noBand = { outerH_frac: 0, insulationK_frac: 0, conditioning_K: 0 };
+const slowRoute = { ...D.routes[0], segments: D.routes[0].segments.map((s) => ({ ...s, duration_s: s.duration_s * 3 })) };
+const base: HoldInput = {
+  products: [{ product: P("Roast chicken"), count: 1, start_C: 1 }],
+  shipper: S("Quillfield thin"),
+  materials: D.materials,
+  packs: [{ pack: K("Water ice"), count: 2, conditioning_C: -18 }],
+  route: slowRoute,
+  ruleSet: D.rulesets[1],
+  boxStart_C: 8,
+  uncertainty: noBand,
+  extendFraction: 3,
+};
+const holdOf = (x: HoldInput) => {
+  const r = runHoldParsed(holdInputSchema.parse(x));
+  expect(r.energyBalanceError).toBeLessThan(1e-9);
+  return r.holdTime_s ?? r.routeLength_s + r.margin_s!;
+};
+
+describe("hold planner: physics direction", () => {
+  const t0 = holdOf(base);
+  it("more insulation holds longer", () => {
+    const thick = { ...base.shipper, wallLayers: [{ material: "EPS foam, 16 kg/m³", thickness_m: 0.05 }] };
+    expect(holdOf({ ...base, shipper: thick })).toBeGreaterThan(t0);
+  });
+  it("more packs hold longer", () => {
+    expect(holdOf({ ...base, packs: [{ pack: K("Water ice"), count: 4, conditioning_C: -18 }] })).toBeGreaterThan(t0);
+  });
+  it("colder conditioning holds longer", () => {
+    expect(holdOf({ ...base, packs: [{ pack: K("Water ice"), count: 2, conditioning_C: -30 }] })).toBeGreaterThan(t0);
+  });
+  it("sun on a black finish shortens the hold against a white one", () => {
+    const sunny = { ...slowRoute, segments: slowRoute.segments.map((s) => ({ ...s, sun_W_m2: 800 })) };
+    const black = holdOf({ ...base, route: sunny, shipper: { ...base.shipper, finishMaterial: "Black paint" } });
+    const white = holdOf({ ...base, route: sunny, shipper: { ...base.shipper, finishMaterial: "White TiO₂ coating" } });
+    expect(black).toBeLessThan(white);
+  });
+});
+
+describe("hold planner: results", () => {
+  it("reports hold, margin, what fails first, the band, heat by path and a closed energy balance", () => {
+    const r = runHold({ ...base, uncertainty: { outerH_frac: 0.3, insulationK_frac: 0.1, conditioning_K: 2 } });
+    expect(r.failsFirst?.product).toBe(P("Roast chicken").name);
+    expect(r.band.low!).toBeLessThanOrEqual(r.band.central!);
+    expect(r.band.high!).toBeGreaterThanOrEqual(r.band.central!);
+    const g = r.heatGain_J;
+    expect(g.walls + g.lid + g.edgesAndCorners + g.sun + g.lidOpenings).toBeGreaterThan(0);
+    expect(g.lidOpenings).toBeGreaterThan(0);
+    expect(r.series[0].products[0].center_C).toBeCloseTo(1, 6);
+    expect(r.series.length).toBeGreaterThan(20);
+    expect(r.assumptions.join(" ")).toMatch(/moisture/);
+  });
+
+  it("a freeze-sensitive product next to a dry-ice pack fails on its lower limit", () => {
+    const r = runHold({
+      ...base,
+      products: [{ product: P("Mixed salad"), count: 1, start_C: 3 }],
+      packs: [{ pack: K("Dry ice"), count: 1, conditioning_C: -78.5, contactWith: 0, contact_W_m2K: 50, placement: "top" }],
+      shipper: S("Quillfield thick"),
+    });
+    expect(r.failsFirst).toMatchObject({ limit: "lower" });
+    expect(r.hasDryIce).toBe(true);
+    expect(r.co2Released_m3).toBeGreaterThan(0);
+    expect(r.series.at(-1)!.packs[0].massLeft_kg).toBeLessThan(K("Dry ice").mass_kg);
+  });
+
+  it("hot food with no coolant is judged against the hot-holding limit", () => {
+    const r = runHold({ ...base, products: [{ product: P("Steamed rice"), count: 1, start_C: 85 }], packs: [], ruleSet: D.rulesets[0] });
+    expect(r.failsFirst).toMatchObject({ limit: "lower", limit_C: 57 });
+  });
+
+  it("reports the pack's latent heat running out", () => {
+    const r = runHold({ ...base, extendFraction: 3 });
+    const left = r.series.map((p) => p.packs[0].latentLeft);
+    expect(left[0]).toBe(1);
+    expect(Math.min(...left)).toBeLessThan(1);
+  });
+});
+
+describe("hold planner: bad input changes nothing and says what to fix", () => {
+  it("contents larger than the box", () => {
+    const r = runValidated(holdInputSchema, { ...base, products: [{ product: P("Whole turkey"), count: 8, start_C: 2 }] }, (x) => runHoldParsed(x));
+    expect(r.ok).toBe(false);
+    if (!r.ok) expect(r.fieldErrors.products[0]).toMatch(/larger than the box/);
+  });
+  it("a product with no band in the rule set", () => {
+    const r = runValidated(holdInputSchema, { ...base, products: [{ product: P("Roast chicken"), count: 1, start_C: 30 }] }, (x) => runHoldParsed(x));
+    expect(r.ok).toBe(false);
+    if (!r.ok) expect(r.fieldErrors["products.0.start_C"][0]).toMatch(/no band/);
+  });
+  it("a route of zero length and an empty load are schema errors", () => {
+    expect(holdInputSchema.safeParse({ ...base, route: { ...slowRoute, segments: [] } }).success).toBe(false);
+    expect(holdInputSchema.safeParse({ ...base, products: [], packs: [] }).success).toBe(false);
+    expect(() => runHold({ ...base, route: { ...slowRoute, segments: [{ ...slowRoute.segments[0], duration_s: 0 }] } })).toThrow(PhysicsInputError);
+  });
+  it("a pack warmer than its melt point is allowed, with a note", () => {
+    const r = runHold({ ...base, packs: [{ pack: K("Water ice"), count: 2, conditioning_C: 4 }] });
+    expect(r.warnings.join(" ")).toMatch(/above its melt point/);
+  });
+});
