@@ -51,6 +51,8 @@ export type Boundary =
       exchange_W_m2K: (t_s: number, Tnode_C: number) => number;
       fluid_C: (t_s: number) => number;
       node0_C: number;
+      /** The rest of the item's surface exchanges with a fluid too (coefficients per m² of the whole surface). */
+      air?: { h_W_m2K: (t_s: number, Ts_C: number) => number; fluid_C: (t_s: number) => number; emissivity?: number; radiant_C?: (t_s: number) => number };
     };
 
 export interface Solver1DInput {
@@ -182,17 +184,18 @@ export function solve1D(inp: Solver1DInput): Solver1DResult {
 
   // Boundary heat flow into the surface node (W per area-measure) and its derivative w.r.t. Ts.
   const surfaceFlow = (tNew: number, Ts: number): [number, number] => {
-    if (bc.kind === "convective") {
-      const h = bc.h_W_m2K(tNew, Ts);
-      let q = h * (bc.fluid_C(tNew) - Ts);
+    const c = bc.kind === "convective" ? bc : bc.kind === "node" ? bc.air : undefined;
+    if (c) {
+      const h = c.h_W_m2K(tNew, Ts);
+      let q = h * (c.fluid_C(tNew) - Ts);
       let dq = -h;
-      if (bc.emissivity && bc.emissivity > 0) {
-        const Tr = (bc.radiant_C ? bc.radiant_C(tNew) : bc.fluid_C(tNew)) + KELVIN_OFFSET;
+      if (c.emissivity && c.emissivity > 0) {
+        const Tr = (c.radiant_C ? c.radiant_C(tNew) : c.fluid_C(tNew)) + KELVIN_OFFSET;
         const Tk = Ts + KELVIN_OFFSET;
-        q += bc.emissivity * SIGMA_W_M2K4 * (Tr ** 4 - Tk ** 4);
-        dq -= 4 * bc.emissivity * SIGMA_W_M2K4 * Tk ** 3;
+        q += c.emissivity * SIGMA_W_M2K4 * (Tr ** 4 - Tk ** 4);
+        dq -= 4 * c.emissivity * SIGMA_W_M2K4 * Tk ** 3;
       }
-      if (bc.extraFlux_W_m2) q += bc.extraFlux_W_m2(tNew);
+      if (bc.kind === "convective" && bc.extraFlux_W_m2) q += bc.extraFlux_W_m2(tNew);
       return [q * Asurf, dq * Asurf];
     }
     return [0, 0];
@@ -261,6 +264,9 @@ export function solve1D(inp: Solver1DInput): Solver1DResult {
         b[s] = 1;
         cc[s] = 0;
       } else {
+        const [qa, dqa] = surfaceFlow(tNew, T[s]);
+        Rr[s] -= qa;
+        b[s] -= dqa;
         const U = bc.contact_W_m2K * Asurf;
         const Ue = bc.exchange_W_m2K(tNew, Tn) * Asurf;
         Rr[s] -= U * (Tn - T[s]);
@@ -324,7 +330,7 @@ export function solve1D(inp: Solver1DInput): Solver1DResult {
       const k2 = kOf(T[s]);
       const Gs = ((2 * k1 * k2) / (k1 + k2)) * (area[s - 1] / dr);
       Qin += rho * vol[s] * (H(T[s]) - Hold[s]) - Gs * (T[s - 1] - T[s]) * dtStep;
-    } else Qin += bc.exchange_W_m2K(tNew, Tn) * Asurf * (bc.fluid_C(tNew) - Tn) * dtStep;
+    } else Qin += (bc.exchange_W_m2K(tNew, Tn) * Asurf * (bc.fluid_C(tNew) - Tn) + surfaceFlow(tNew, T[n - 1])[0]) * dtStep;
     t = tNew;
     step++;
     if (inp.adaptive) {
