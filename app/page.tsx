@@ -22,6 +22,12 @@ export default async function Home() {
           </Link>
         </li>
         <li>
+          <Link href="/thaw">
+            <strong>Thaw planner</strong>
+            <span>When to start a defrost, which way, and how long the surface sits warm</span>
+          </Link>
+        </li>
+        <li>
           <Link href="/warmup">
             <strong>Warm-up and cool-down check</strong>
             <span>Time until a product crosses its limit on the pass, in the van or on the buffet</span>

@@ -9,7 +9,9 @@ import { prepareDatabase } from "../lib/db/prepare";
 import { createPrismaClient, type Db } from "../lib/db/client";
 import { exportLibrary, importLibrary } from "../lib/db/library";
 import { jsonSchemaOf, NAMED_SCHEMAS } from "../lib/schemas/json-schema";
-import { resolveHoldRefs, resolveTemplateRefs } from "../lib/db/resolve";
+import { resolveHoldRefs, resolveTemplateRefs, resolveThawRefs } from "../lib/db/resolve";
+import { thawInputSchema } from "../lib/schemas/thaw";
+import { runThawParsed } from "../lib/physics/thaw";
 import { holdInputSchema } from "../lib/schemas/hold";
 import { runHoldParsed } from "../lib/physics/hold";
 import { warmupInputSchema } from "../lib/schemas/warmup";
@@ -26,6 +28,8 @@ Usage:
                                       "product" and "ruleSet" may be template names)
   holdline hold FILE|-                hold planner: how long this box and these packs keep the
                                       load inside its band on the route (templates by name)
+  holdline thaw FILE|-                thaw planner: thaw time, time the surface sits above the
+                                      chill limit, compliance; "compare": true runs every method
   holdline schema NAME                print the JSON Schema of an input
                                       (${Object.keys(NAMED_SCHEMAS).join(", ")})
   holdline --help                     this text
@@ -126,7 +130,7 @@ export async function main(argv: string[], io: CliIo = STDIO): Promise<number> {
     return 0;
   }
 
-  if (command === "warmup" || command === "hold") {
+  if (command === "warmup" || command === "hold" || command === "thaw") {
     const file = rest[0];
     if (!file) {
       io.err(`holdline ${command}: give an input file, or - for standard input (see holdline schema ${command})\n`);
@@ -134,12 +138,16 @@ export async function main(argv: string[], io: CliIo = STDIO): Promise<number> {
     }
     const data = readJsonInput(file, command, io);
     if (data === NOT_READ) return 1;
-    const resolved = await withDb((db) => (command === "hold" ? resolveHoldRefs(db, data) : resolveTemplateRefs(db, data, { product: "products", ruleSet: "rulesets" })));
+    const resolved = await withDb((db) =>
+      command === "hold" ? resolveHoldRefs(db, data) : command === "thaw" ? resolveThawRefs(db, data) : resolveTemplateRefs(db, data, { product: "products", ruleSet: "rulesets" }),
+    );
     const r = !resolved.ok
       ? resolved
       : command === "hold"
         ? runValidated(holdInputSchema, resolved.value, (input) => runHoldParsed(input))
-        : runValidated(warmupInputSchema, resolved.value, (input) => runWarmup(input));
+        : command === "thaw"
+          ? runValidated(thawInputSchema, resolved.value, (input) => runThawParsed(input))
+          : runValidated(warmupInputSchema, resolved.value, (input) => runWarmup(input));
     if (!r.ok) {
       io.err(`holdline ${command}: the input has problems; nothing was computed:\n${Object.entries(r.fieldErrors).map(([k, v]) => `  ${k || "(input)"}: ${v.join("; ")}`).join("\n")}\n`);
       return 1;
@@ -154,11 +162,14 @@ export async function main(argv: string[], io: CliIo = STDIO): Promise<number> {
 
 const isEntry = process.argv[1] && /holdline\.(ts|mjs)$/.test(process.argv[1]);
 if (isEntry) {
+  // exitCode, not exit(): a large answer piped to another program must be written out in full first.
   main(process.argv.slice(2)).then(
-    (code) => process.exit(code),
+    (code) => {
+      process.exitCode = code;
+    },
     (e) => {
       process.stderr.write(`holdline: ${(e as Error).stack ?? e}\n`);
-      process.exit(1);
+      process.exitCode = 1;
     },
   );
 }

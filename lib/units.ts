@@ -34,6 +34,8 @@ export type Quantity =
   | "fraction" // [-], a mass fraction
   | "ratio" // [-], e.g. emissivity
   | "count" // [-]
+  | "volume" // [m³], shown in L
+  | "conductance" // [W/(m²·K)]
   | "money"; // [currency units]
 
 const LB_KG = 0.45359237;
@@ -71,6 +73,10 @@ export function unitLabel(q: Quantity, p: UnitPrefs): string {
       return "";
     case "count":
       return "";
+    case "volume":
+      return "L";
+    case "conductance":
+      return "W/(m²·K)";
     case "money":
       return "cost units";
   }
@@ -92,6 +98,8 @@ export function toDisplay(q: Quantity, si: number, p: UnitPrefs): number {
     case "specificHeat":
     case "latentHeat":
       return si / 1000;
+    case "volume":
+      return si * 1000;
     default:
       return si;
   }
@@ -113,6 +121,8 @@ export function fromDisplay(q: Quantity, shown: number, p: UnitPrefs): number {
     case "specificHeat":
     case "latentHeat":
       return shown * 1000;
+    case "volume":
+      return shown / 1000;
     default:
       return shown;
   }

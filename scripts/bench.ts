@@ -8,6 +8,8 @@ import { runWarmup } from "../lib/physics/warmup";
 import { DEMO_SCENARIO } from "../lib/db/demo-scenario";
 import { runHoldParsed } from "../lib/physics/hold";
 import { holdInputSchema } from "../lib/schemas/hold";
+import { runThawParsed } from "../lib/physics/thaw";
+import { thawInputSchema } from "../lib/schemas/thaw";
 
 function median(xs: number[]): number {
   const s = [...xs].sort((a, b) => a - b);
@@ -125,4 +127,14 @@ const h9 = time(() => runHoldParsed(withBand), 15, 5);
 console.log("\nHold planner — 48 h route, 6 segments, 1 box, 4 pack lines, 3 product lines");
 console.log(`  one plan: median ${median(h1).toFixed(2)} ms (${lastHold.steps} implicit steps, ${lastHold.newtonIterations} Newton iterations, energy balance ${lastHold.energyBalanceError.toExponential(1)})`);
 console.log(`  with the uncertainty band (central + 8 runs): median ${median(h9).toFixed(2)} ms (${(median(h9) / median(h1)).toFixed(1)}× one plan)`);
+// 5. Thaw planner.
+const codThaw = thawInputSchema.parse({ product: find(D.products, "Cod fillets"), start_C: -18, ruleSet: D.rulesets[0], method: { kind: "fridge_air", air_C: 4, speed_m_s: 0.3 } });
+const compare = thawInputSchema.parse({ product: find(D.products, "Cod fillets"), start_C: -18, ruleSet: D.rulesets[0], method: { kind: "fridge_air", air_C: 4, speed_m_s: 0.3 }, compare: true });
+let oneThaw = runThawParsed(codThaw);
+const th1 = time(() => (oneThaw = runThawParsed(codThaw)), 30, 10);
+let cmp = runThawParsed(compare);
+const th5 = time(() => (cmp = runThawParsed(compare)), 10, 3);
+console.log("\nThaw planner — 5 kg frozen cod block (50 × 250 × 400 mm) from −18 °C");
+console.log(`  one thaw in a 4 °C refrigerator to the end point: median ${median(th1).toFixed(2)} ms (${oneThaw.steps} steps; ${((oneThaw.thawTime_s ?? 0) / 3600).toFixed(1)} h)`);
+console.log(`  all five methods compared: median ${median(th5).toFixed(2)} ms (${cmp.comparison!.map((m) => `${m.kind} ${((m.thawTime_s ?? 0) / 3600).toFixed(1)} h`).join(", ")})`);
 if (sink === 42) console.log("");

@@ -10,6 +10,7 @@ import { formatQuantity, roundForDisplay, toDisplay, unitLabel } from "@/lib/uni
 import { formatDuration } from "@/lib/format";
 import { UnitInput } from "@/app/_components/UnitInput";
 import { useUnits } from "@/app/_components/units-context";
+import { useMounted } from "@/app/_components/useMounted";
 import { CautionBlock } from "@/app/_components/CautionBlock";
 import { TemperatureChart } from "@/app/_components/TemperatureChart";
 import { downloadCsv } from "@/app/_components/csv";
@@ -68,13 +69,15 @@ export function HoldPlanner(props: HoldPlannerProps) {
   const packLines = useFieldArray({ control, name: "packs" });
   const values = useWatch({ control }) as HoldInput;
   const key = JSON.stringify(useDeferredValue(values));
+  const mounted = useMounted();
   const outcome = useMemo(() => {
+    if (!mounted) return null;
     try {
       return runValidated(holdInputSchema, JSON.parse(key), (input) => ({ r: runHoldParsed(input), input }));
     } catch (e) {
       return { ok: false as const, fieldErrors: { "": [(e as Error).message] } };
     }
-  }, [key]);
+  }, [key, mounted]);
   const [saved, setSaved] = useState<number | null>(null);
   const [planName, setPlanName] = useState("");
   const e = formState.errors;
@@ -222,9 +225,11 @@ export function HoldPlanner(props: HoldPlannerProps) {
       </form>
 
       <section className="planner-results" aria-live="polite" data-testid="hold-results">
-        {outcome.ok ? (
+        {outcome?.ok ? (
           <HoldResults r={outcome.result.r} input={outcome.result.input} tUnit={tUnit} />
-        ) : (
+        ) : !outcome ? (
+          <p className="muted">Working it out…</p>
+          ) : (
           <div className="banner error" role="alert" data-testid="hold-errors">
             <p>No result until these are fixed:</p>
             <ul>
@@ -234,7 +239,7 @@ export function HoldPlanner(props: HoldPlannerProps) {
             </ul>
           </div>
         )}
-        {outcome.ok ? (
+        {outcome?.ok ? (
           <div className="save-row no-print">
             <label htmlFor="plan-name">Save as a plan</label>
             <input id="plan-name" value={planName} placeholder={`${values.shipper?.name} on ${values.route?.name}`} onChange={(ev) => setPlanName(ev.target.value)} />
@@ -266,7 +271,7 @@ export function HoldPlanner(props: HoldPlannerProps) {
             ) : null}
           </div>
         ) : null}
-        <CautionBlock dryIce={outcome.ok && outcome.result.r.hasDryIce} extra={outcome.ok && outcome.result.r.hasDryIce ? ["Carbon dioxide from dry ice builds up in closed vans and cold rooms: open the load space before reaching in."] : []} />
+        <CautionBlock dryIce={outcome?.ok === true && outcome.result.r.hasDryIce} extra={outcome?.ok === true && outcome.result.r.hasDryIce ? ["Carbon dioxide from dry ice builds up in closed vans and cold rooms: open the load space before reaching in."] : []} />
         <div className="print-only sign-off">
           <h2>Packing record</h2>
           <p>Packed by: ____________________ &nbsp; Date and time: ____________________</p>

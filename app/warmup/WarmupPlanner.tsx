@@ -10,6 +10,7 @@ import { formatQuantity, roundForDisplay, toDisplay, unitLabel } from "@/lib/uni
 import { formatDuration } from "@/lib/format";
 import { UnitInput } from "@/app/_components/UnitInput";
 import { useUnits } from "@/app/_components/units-context";
+import { useMounted } from "@/app/_components/useMounted";
 import { CautionBlock } from "@/app/_components/CautionBlock";
 import { TemperatureChart } from "@/app/_components/TemperatureChart";
 import { savePlanAction } from "@/app/plans/actions";
@@ -42,13 +43,15 @@ export function WarmupPlanner({ products, ruleSets, defaultRuleSet }: { products
   const values = useWatch({ control }) as WarmupInput;
   const deferred = useDeferredValue(values);
   const key = JSON.stringify(deferred);
+  const mounted = useMounted();
   const outcome = useMemo(() => {
+    if (!mounted) return null;
     try {
       return runValidated(warmupInputSchema, JSON.parse(key), (input) => runWarmup(input));
     } catch (e) {
       return { ok: false as const, fieldErrors: { "": [(e as Error).message] } };
     }
-  }, [key]);
+  }, [key, mounted]);
   const [saved, setSaved] = useState<{ id: number } | null>(null);
   const [planName, setPlanName] = useState("");
   const e = formState.errors;
@@ -155,9 +158,11 @@ export function WarmupPlanner({ products, ruleSets, defaultRuleSet }: { products
       </form>
 
       <section className="planner-results" aria-live="polite" data-testid="warmup-results">
-        {outcome.ok ? (
+        {outcome?.ok ? (
           <Results result={outcome.result} tUnit={tUnit} />
-        ) : (
+        ) : !outcome ? (
+          <p className="muted">Working it out…</p>
+          ) : (
           <div className="banner error" role="alert">
             <p>No result until these are fixed:</p>
             <ul>
@@ -167,7 +172,7 @@ export function WarmupPlanner({ products, ruleSets, defaultRuleSet }: { products
             </ul>
           </div>
         )}
-        {outcome.ok ? (
+        {outcome?.ok ? (
           <div className="save-row">
             <label htmlFor="plan-name">Save as a plan</label>
             <input id="plan-name" value={planName} placeholder={`${values.product?.name ?? ""} from ${values.start_C} °C`} onChange={(ev) => setPlanName(ev.target.value)} />

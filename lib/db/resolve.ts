@@ -74,3 +74,17 @@ export async function resolveHoldRefs(db: Db, body: unknown): Promise<{ ok: true
   }
   return Object.keys(errors).length ? { ok: false, fieldErrors: errors } : { ok: true, value: out };
 }
+
+/** Thaw input with names: `product`, `ruleSet`, and a tray method's `tray` may be template names. */
+export async function resolveThawRefs(db: Db, body: unknown): Promise<{ ok: true; value: unknown } | { ok: false; fieldErrors: FieldErrors }> {
+  const top = await resolveTemplateRefs(db, body, { product: "products", ruleSet: "rulesets" });
+  if (!top.ok || !top.value || typeof top.value !== "object") return top;
+  const out = top.value as Record<string, unknown>;
+  const m = out.method as Record<string, unknown> | undefined;
+  if (m && typeof m === "object" && typeof m.tray === "string") {
+    const t = await getTemplateByName(db, "materials", m.tray);
+    if (!t) return { ok: false, fieldErrors: { "method.tray": [`No material named "${m.tray}" in the library`] } };
+    out.method = { ...m, tray: t.data };
+  }
+  return { ok: true, value: out };
+}

@@ -2,6 +2,7 @@ import { z } from "zod";
 import { libraryFileSchema, settingsSchema, templateSchemas } from "./templates";
 import { warmupInputSchema } from "./warmup";
 import { holdInputSchema } from "./hold";
+import { thawInputSchema } from "./thaw";
 
 /** Inputs whose JSON Schema `holdline schema <name>` and /api/v1/schema/<name> print. */
 export const NAMED_SCHEMAS: Record<string, z.ZodType> = {
@@ -15,6 +16,7 @@ export const NAMED_SCHEMAS: Record<string, z.ZodType> = {
   library: libraryFileSchema,
   warmup: warmupInputSchema,
   hold: holdInputSchema,
+  thaw: thawInputSchema,
 };
 
 export function jsonSchemaOf(name: string): object | null {
