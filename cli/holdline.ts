@@ -9,7 +9,12 @@ import { prepareDatabase } from "../lib/db/prepare";
 import { createPrismaClient, type Db } from "../lib/db/client";
 import { exportLibrary, importLibrary } from "../lib/db/library";
 import { jsonSchemaOf, NAMED_SCHEMAS } from "../lib/schemas/json-schema";
-import { resolveHoldRefs, resolveTemplateRefs, resolveThawRefs } from "../lib/db/resolve";
+import { resolveHoldRefs, resolveSizeRefs, resolveTemplateRefs, resolveThawRefs } from "../lib/db/resolve";
+import { sizeInputSchema } from "../lib/schemas/size";
+import { fieldErrorsOf } from "../lib/schemas/errors";
+import { runSizing } from "../lib/physics/sizing";
+import { PhysicsInputError } from "../lib/physics/validation";
+import { nodePool } from "./size-pool";
 import { thawInputSchema } from "../lib/schemas/thaw";
 import { runThawParsed } from "../lib/physics/thaw";
 import { holdInputSchema } from "../lib/schemas/hold";
@@ -30,6 +35,9 @@ Usage:
                                       load inside its band on the route (templates by name)
   holdline thaw FILE|-                thaw planner: thaw time, time the surface sits above the
                                       chill limit, compliance; "compare": true runs every method
+  holdline size FILE|-                pack-out sizer: every candidate box and pack count through
+                                      the hold model, on both cores; prints candidates, the
+                                      Pareto front and near misses
   holdline schema NAME                print the JSON Schema of an input
                                       (${Object.keys(NAMED_SCHEMAS).join(", ")})
   holdline --help                     this text
@@ -154,6 +162,39 @@ export async function main(argv: string[], io: CliIo = STDIO): Promise<number> {
     }
     io.out(JSON.stringify(r.result, null, 2) + "\n");
     return 0;
+  }
+
+  if (command === "size") {
+    const file = rest[0];
+    if (!file) {
+      io.err("holdline size: give an input file, or - for standard input (see holdline schema size)\n");
+      return 2;
+    }
+    const data = readJsonInput(file, "size", io);
+    if (data === NOT_READ) return 1;
+    const resolved = await withDb((db) => resolveSizeRefs(db, data));
+    const parsed = resolved.ok ? sizeInputSchema.safeParse(resolved.value) : null;
+    const problems = !resolved.ok ? resolved.fieldErrors : parsed && !parsed.success ? fieldErrorsOf(parsed.error) : null;
+    if (problems || !parsed?.success) {
+      io.err(`holdline size: the input has problems; nothing was computed:\n${Object.entries(problems ?? {}).map(([k, v]) => `  ${k || "(input)"}: ${v.join("; ")}`).join("\n")}\n`);
+      return 1;
+    }
+    const pool = nodePool(parsed.data);
+    try {
+      const r = await runSizing(parsed.data, pool.evaluate, { onProgress: (d, t) => io.err(`\rholdline size: ${d} of ${t} candidates`) });
+      io.err("\n");
+      if (r.message) io.err(`holdline size: ${r.message}\n`);
+      io.out(JSON.stringify(r, null, 2) + "\n");
+      return 0;
+    } catch (e) {
+      if (e instanceof PhysicsInputError) {
+        io.err(`holdline size: ${e.message}\n`);
+        return 1;
+      }
+      throw e;
+    } finally {
+      await pool.close();
+    }
   }
 
   io.err(`holdline: unknown command "${command}"\n\n${HELP}\n`);

@@ -10,6 +10,9 @@ import { runHoldParsed } from "../lib/physics/hold";
 import { holdInputSchema } from "../lib/schemas/hold";
 import { runThawParsed } from "../lib/physics/thaw";
 import { thawInputSchema } from "../lib/schemas/thaw";
+import { runSizing, evaluateHere } from "../lib/physics/sizing";
+import { sizeInputSchema } from "../lib/schemas/size";
+import { nodePool } from "../cli/size-pool";
 
 function median(xs: number[]): number {
   const s = [...xs].sort((a, b) => a - b);
@@ -137,4 +140,44 @@ const th5 = time(() => (cmp = runThawParsed(compare)), 10, 3);
 console.log("\nThaw planner — 5 kg frozen cod block (50 × 250 × 400 mm) from −18 °C");
 console.log(`  one thaw in a 4 °C refrigerator to the end point: median ${median(th1).toFixed(2)} ms (${oneThaw.steps} steps; ${((oneThaw.thawTime_s ?? 0) / 3600).toFixed(1)} h)`);
 console.log(`  all five methods compared: median ${median(th5).toFixed(2)} ms (${cmp.comparison!.map((m) => `${m.kind} ${((m.thawTime_s ?? 0) / 3600).toFixed(1)} h`).join(", ")})`);
+// 6. Pack-out sizer: about 2,000 candidates (5 box variants × 0–10 ice × 0–10 gel packs × 2 × 2 conditioning, less repeats).
+const sizeInp = (prune: boolean) =>
+  sizeInputSchema.parse({
+    products: [
+      { product: find(D.products, "Roast chicken"), count: 1, start_C: 2 },
+      { product: find(D.products, "Steamed rice"), count: 1, start_C: 3 },
+    ],
+    route: find(D.routes, "Overnight"),
+    ruleSet: D.rulesets[1],
+    materials: D.materials,
+    boxes: D.shippers.map((sh) => ({ shipper: sh, thicknessVariants_m: sh.name.includes("thin") ? [0.04, 0.06] : [] })),
+    packs: [
+      { pack: find(D.packs, "Water ice"), minCount: 0, maxCount: 10, conditioning_C: [-18, -25] },
+      { pack: find(D.packs, "Gel"), minCount: 0, maxCount: 10, conditioning_C: [-18, -25] },
+    ],
+    margin: { kind: "percent", value: 20 },
+    prune,
+  });
+const timeSizing = async (prune: boolean) => {
+  const inp = sizeInp(prune);
+  const pool = nodePool(inp);
+  const t0 = performance.now();
+  const cold = await runSizing(inp, pool.evaluate);
+  const coldMs = performance.now() - t0;
+  const t1 = performance.now();
+  const warm = await runSizing(inp, pool.evaluate);
+  const warmMs = performance.now() - t1;
+  await pool.close();
+  return { cold, coldMs, warm, warmMs };
+};
+const singleInp = sizeInp(false);
+const ts0 = performance.now();
+const singleRun = await runSizing(singleInp, evaluateHere(singleInp));
+const singleMs = performance.now() - ts0;
+const pr = await timeSizing(true);
+const un = await timeSizing(false);
+console.log(`\nPack-out sizer — ${un.warm.candidates.length} candidates, overnight route (17 h), judged at the low end of the band, 2 worker threads`);
+console.log(`  with monotone pruning: ${pr.warmMs.toFixed(0)} ms (${pr.coldMs.toFixed(0)} ms including starting the workers); ${pr.warm.evaluated} run, ${pr.warm.pruned} decided by monotonicity`);
+console.log(`  every candidate run (no pruning): ${un.warmMs.toFixed(0)} ms (${un.coldMs.toFixed(0)} ms including starting the workers); one thread: ${singleMs.toFixed(0)} ms`);
+console.log(`  same answer pruned and unpruned: ${JSON.stringify(pr.warm.pareto) === JSON.stringify(un.warm.pareto) && JSON.stringify(singleRun.pareto) === JSON.stringify(un.warm.pareto) ? "yes" : "NO"} (Pareto front of ${un.warm.pareto.length})`);
 if (sink === 42) console.log("");

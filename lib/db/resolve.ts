@@ -88,3 +88,49 @@ export async function resolveThawRefs(db: Db, body: unknown): Promise<{ ok: true
   }
   return { ok: true, value: out };
 }
+
+/**
+ * Sizer input with names: `route`, `ruleSet`, each product line's `product`, each box's `shipper` and each
+ * pack line's `pack` may be template names; `materials` defaults to every library material the boxes name.
+ */
+export async function resolveSizeRefs(db: Db, body: unknown): Promise<{ ok: true; value: unknown } | { ok: false; fieldErrors: FieldErrors }> {
+  const top = await resolveTemplateRefs(db, body, { route: "routes", ruleSet: "rulesets" });
+  if (!top.ok || !top.value || typeof top.value !== "object") return top;
+  const out = top.value as Record<string, unknown>;
+  const errors: FieldErrors = {};
+  const lines = async (key: string, field: string, kind: TemplateKind) => {
+    const arr = out[key];
+    if (!Array.isArray(arr)) return;
+    out[key] = await Promise.all(
+      arr.map(async (line, i) => {
+        if (!line || typeof line !== "object") return line;
+        const l = { ...(line as Record<string, unknown>) };
+        if (typeof l[field] === "string") {
+          const t = await getTemplateByName(db, kind, l[field] as string);
+          if (t) l[field] = t.data;
+          else errors[`${key}.${i}.${field}`] = [`No ${kind.replace(/s$/, "")} named "${l[field]}" in the library`];
+        }
+        return l;
+      }),
+    );
+  };
+  await lines("products", "product", "products");
+  await lines("boxes", "shipper", "shippers");
+  await lines("packs", "pack", "packs");
+  if (out.materials === undefined && Array.isArray(out.boxes)) {
+    const names = new Set<string>();
+    for (const b of out.boxes as { shipper?: { wallLayers?: { material: string }[]; lidLayers?: { material: string }[] | null; finishMaterial?: string } }[]) {
+      const s = b?.shipper;
+      if (!s || typeof s !== "object") continue;
+      for (const l of [...(s.wallLayers ?? []), ...(s.lidLayers ?? [])]) names.add(l.material);
+      if (s.finishMaterial) names.add(s.finishMaterial);
+    }
+    const mats = [];
+    for (const n of names) {
+      const m = await getTemplateByName(db, "materials", n);
+      if (m) mats.push(m.data);
+    }
+    out.materials = mats;
+  }
+  return Object.keys(errors).length ? { ok: false, fieldErrors: errors } : { ok: true, value: out };
+}

@@ -54,6 +54,8 @@ export interface HoldRun {
   newtonIterations: number;
   series: HoldSeriesPoint[];
   co2Released_m3: number;
+  /** When the last dry ice sublimated (null if none was packed or some is left). */
+  dryIceGone_s: number | null;
 }
 
 export interface HoldResult extends HoldRun {
@@ -356,6 +358,8 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
   const prevS = new Float64Array(inp.products.length);
   let prevT = 0;
   let routeGains: { walls: number; lid: number; edges: number; sun: number; openings: number } | null = null;
+  const dryIdx = inp.packs.map((l, k) => (l.pack.kind === "dry_ice" ? k : -1)).filter((k) => k >= 0);
+  let dryIceGone: number | null = null;
   const packLatent = inp.packs.map((line) => {
     const m = bodies[inp.packs.indexOf(line)].material;
     const w = line.pack.kind === "dry_ice" ? 0.2 : 0.5;
@@ -403,6 +407,7 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
       }
       prevT = t;
       if (routeGains === null && t >= P.routeLength_s - 1e-6) routeGains = { ...st.gains };
+      if (dryIdx.length && dryIceGone === null && dryIdx.every((k) => st.bodyMeanH_J_kg[k] >= packLatent[k].Htop)) dryIceGone = t;
       if (v.keepSeries) {
         series.push({
           t_s: t,
@@ -437,6 +442,7 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
     newtonIterations: net.newtonIterations,
     series: v.keepSeries ? downsample(series) : [],
     co2Released_m3: dryIceSublimated * CO2_M3_PER_KG,
+    dryIceGone_s: dryIceGone,
   };
 }
 
@@ -452,6 +458,26 @@ export function runHold(raw: HoldInput): HoldResult {
   const parsed = holdInputSchema.safeParse(raw);
   if (!parsed.success) throw new PhysicsInputError(parsed.error.issues[0].path.join("."), parsed.error.issues[0].message);
   return runHoldParsed(parsed.data);
+}
+
+/** A corner of the uncertainty sample: scales on the outer coefficient and insulation k, and a conditioning shift (K). */
+export interface HoldCorner {
+  outerHScale: number;
+  insulationKScale: number;
+  conditioningShift_K: number;
+}
+
+/**
+ * Only the hold runs asked for, without curves, each stopping at its first failure: what the pack-out
+ * sizer needs. Throws PhysicsInputError for contents that do not fit or a product with no band.
+ */
+export function holdRuns(inp: HoldParsed, corners: HoldCorner[]): { runs: HoldRun[]; routeLength_s: number; hasLowerLimit: boolean } {
+  const P = prepare(inp);
+  return {
+    runs: corners.map((c) => runOnce(P, { ...c, keepSeries: false })),
+    routeLength_s: P.routeLength_s,
+    hasLowerLimit: P.bands.some((b) => b.lower_C !== null),
+  };
 }
 
 export function runHoldParsed(inp: HoldParsed, opts: { resolution?: number } = {}): HoldResult {

@@ -3,6 +3,7 @@ import { libraryFileSchema, settingsSchema, templateSchemas } from "./templates"
 import { warmupInputSchema } from "./warmup";
 import { holdInputSchema } from "./hold";
 import { thawInputSchema } from "./thaw";
+import { sizeInputSchema } from "./size";
 
 /** Inputs whose JSON Schema `holdline schema <name>` and /api/v1/schema/<name> print. */
 export const NAMED_SCHEMAS: Record<string, z.ZodType> = {
@@ -17,6 +18,7 @@ export const NAMED_SCHEMAS: Record<string, z.ZodType> = {
   warmup: warmupInputSchema,
   hold: holdInputSchema,
   thaw: thawInputSchema,
+  size: sizeInputSchema,
 };
 
 export function jsonSchemaOf(name: string): object | null {

@@ -1,0 +1,347 @@
+/**
+ * The pack-out sizer: every feasible combination of a candidate box (and its wall-thickness variants),
+ * pack counts and conditioning temperatures goes through the hold model; the answer is the set that
+ * holds for the route plus the margin, its Pareto front over packed mass, cost and outer volume, and
+ * the near misses with the reason each fails.
+ *
+ * Judging by the low end of the uncertainty band: the model is monotone in the outer coefficient,
+ * the insulation conductivity and the conditioning temperature, so the earliest upper-limit failure
+ * is at the corner (h +f, k +f, conditioning +K) and the earliest lower-limit failure at the opposite
+ * corner. The sizer runs those corners (one, or two when a product has a lower limit) instead of all
+ * eight; the full band is computed when a candidate is opened as a plan.
+ *
+ * Pruning: with no lower limit in play, more of the same pack never shortens the hold, so a count
+ * vector that is componentwise at least one that holds (same box, same conditioning) holds too, and
+ * is never on the Pareto front (it only adds mass and cost). Such candidates are marked without a run.
+ */
+import type { SizeParsed } from "../schemas/size";
+import { MAX_CANDIDATES } from "../schemas/size";
+import type { HoldParsed } from "../schemas/hold";
+import type { Shipper, Material } from "../schemas/templates";
+import { holdRuns, type HoldCorner } from "./hold";
+import { PhysicsInputError } from "./validation";
+
+export interface Candidate {
+  index: number;
+  box: number;
+  /** Thickness of the varied insulation layer, or null for the box as it is. */
+  variant_m: number | null;
+  counts: number[];
+  conditioning_C: number[];
+  level: number;
+  group: string;
+}
+
+export type Verdict = "holds" | "fails" | "does not fit";
+
+export interface CandidateResult {
+  index: number;
+  verdict: Verdict;
+  /** Judged hold time (low end or central), s; null when it holds past the simulated time. */
+  hold_s: number | null;
+  /** Hold at the other judging points, when run. */
+  central_s: number | null;
+  reason: string | null;
+  failsFirst: { product: string; point: string; limit: "upper" | "lower" } | null;
+  dryIceGone_s: number | null;
+  pruned: boolean;
+}
+
+export interface CandidateRow extends CandidateResult {
+  boxName: string;
+  packs: { name: string; count: number; conditioning_C: number }[];
+  mass_kg: number;
+  cost: number;
+  outerVolume_m3: number;
+  holds: boolean;
+}
+
+export interface SizingPlan {
+  candidates: Candidate[];
+  required_s: number;
+  routeLength_s: number;
+  prunable: boolean;
+  levels: number[][];
+  discardedBeforeRun: number;
+}
+
+export interface SizingResult {
+  required_s: number;
+  routeLength_s: number;
+  candidates: CandidateRow[];
+  pareto: number[];
+  nearMisses: { index: number; reason: string; hold_s: number | null }[];
+  evaluated: number;
+  pruned: number;
+  doesNotFit: number;
+  cancelled: boolean;
+  message: string | null;
+}
+
+/** The box as a candidate variant: the thickest insulation layer of walls and lid set to `t`. */
+export function boxVariant(s: Shipper, materials: Material[], t: number | null): Shipper {
+  if (t === null) return s;
+  const isIns = (name: string) => materials.find((m) => m.name === name)?.category === "insulation";
+  const vary = (layers: { material: string; thickness_m: number }[]) => {
+    let best = -1;
+    layers.forEach((l, i) => {
+      if (isIns(l.material) && (best < 0 || l.thickness_m > layers[best].thickness_m)) best = i;
+    });
+    return best < 0 ? layers : layers.map((l, i) => (i === best ? { ...l, thickness_m: t } : l));
+  };
+  return { ...s, name: `${s.name} (${Math.round(t * 1000)} mm)`, wallLayers: vary(s.wallLayers), lidLayers: s.lidLayers ? vary(s.lidLayers) : null };
+}
+
+function outerDims(s: Shipper) {
+  const tw = s.wallLayers.reduce((a, l) => a + l.thickness_m, 0);
+  const tl = (s.lidLayers ?? s.wallLayers).reduce((a, l) => a + l.thickness_m, 0);
+  return { L: s.innerLength_m + 2 * tw, W: s.innerWidth_m + 2 * tw, H: s.innerHeight_m + tw + tl };
+}
+
+/** Box mass: the template's empty mass, plus or minus the varied layer's material. */
+function boxMass(base: Shipper, variant: Shipper, materials: Material[]): number {
+  const shell = (s: Shipper) => {
+    const o = outerDims(s);
+    let m = 0;
+    const layerMass = (layers: { material: string; thickness_m: number }[], area: number) => {
+      for (const l of layers) m += (materials.find((x) => x.name === l.material)?.density_kg_m3 ?? 0) * l.thickness_m * area;
+    };
+    layerMass(s.wallLayers, 2 * (o.L + o.W) * o.H + o.L * o.W);
+    layerMass(s.lidLayers ?? s.wallLayers, o.L * o.W);
+    return m;
+  };
+  return Math.max(0, base.emptyMass_kg + shell(variant) - shell(base));
+}
+
+export function requiredHold(inp: SizeParsed, routeLength_s: number): number {
+  return inp.margin.kind === "percent" ? routeLength_s * (1 + inp.margin.value / 100) : routeLength_s + inp.margin.value * 3600;
+}
+
+export function planSizing(inp: SizeParsed): SizingPlan {
+  const routeLength_s = inp.route.segments.reduce((a, s) => a + s.duration_s, 0);
+  if (!(routeLength_s > 0)) throw new PhysicsInputError("route", "the route has no length");
+  const required_s = requiredHold(inp, routeLength_s);
+  // Count the space before building it, so an oversized search is refused at once.
+  const boxVariants = inp.boxes.reduce((a, b) => a + 1 + b.thicknessVariants_m.length, 0);
+  let size = boxVariants;
+  for (const p of inp.packs) size *= (p.maxCount - p.minCount + 1) * p.conditioning_C.length;
+  if (size > inp.maxCandidates) {
+    throw new PhysicsInputError(
+      "packs",
+      `that search has ${size.toLocaleString("en")} candidates, more than the ${inp.maxCandidates.toLocaleString("en")} allowed (at most ${MAX_CANDIDATES.toLocaleString("en")}): narrow the count ranges, use fewer conditioning temperatures or fewer boxes`,
+    );
+  }
+  const candidates: Candidate[] = [];
+  const counts = inp.packs.map((p) => p.minCount);
+  const conds = inp.packs.map(() => 0);
+  inp.boxes.forEach((b, bi) => {
+    for (const v of [null, ...b.thicknessVariants_m]) {
+      // Odometer over conditioning choices, then counts.
+      const nC = inp.packs.map((p) => p.conditioning_C.length);
+      conds.fill(0);
+      do {
+        counts.forEach((_, i) => (counts[i] = inp.packs[i].minCount));
+        do {
+          const total = counts.reduce((a, c) => a + c, 0);
+          // A pack line with no packs has no conditioning: keep only its first choice, so nothing repeats.
+          const distinct = counts.every((n, i) => n > 0 || conds[i] === 0);
+          if (total > 0 && distinct) {
+            const c = inp.packs.map((p, i) => p.conditioning_C[conds[i]]);
+            candidates.push({ index: candidates.length, box: bi, variant_m: v, counts: [...counts], conditioning_C: c, level: total, group: `${bi}|${v}|${c.join(",")}` });
+          }
+        } while (advance(counts, inp.packs.map((p) => p.minCount), inp.packs.map((p) => p.maxCount)));
+      } while (advance(conds, nC.map(() => 0), nC.map((n) => n - 1)));
+    }
+  });
+  if (candidates.length === 0) throw new PhysicsInputError("packs", "every candidate has no packs at all: raise the most-packs counts");
+  const maxLevel = Math.max(...candidates.map((c) => c.level));
+  const levels: number[][] = Array.from({ length: maxLevel + 1 }, () => []);
+  for (const c of candidates) levels[c.level].push(c.index);
+  return { candidates, required_s, routeLength_s, prunable: false, levels: levels.filter((l) => l.length), discardedBeforeRun: 0 };
+}
+
+function advance(v: number[], lo: number[], hi: number[]): boolean {
+  for (let i = 0; i < v.length; i++) {
+    if (v[i] < hi[i]) {
+      v[i]++;
+      return true;
+    }
+    v[i] = lo[i];
+  }
+  return false;
+}
+
+/** The hold-planner input of one candidate. */
+export function candidateHoldInput(inp: SizeParsed, c: Candidate, extendFraction: number): HoldParsed {
+  const b = inp.boxes[c.box];
+  const shipper = boxVariant(b.shipper, inp.materials, c.variant_m);
+  return {
+    products: inp.products,
+    shipper,
+    materials: inp.materials,
+    packs: inp.packs
+      .map((p, i) => ({ pack: p.pack, count: c.counts[i], conditioning_C: c.conditioning_C[i], placement: p.placement, contactWith: null, contact_W_m2K: 50 }))
+      .filter((l) => l.count > 0),
+    route: inp.route,
+    ruleSet: inp.ruleSet,
+    boxStart_C: inp.boxStart_C,
+    overrides: { outerH_W_m2K: null, innerH_W_m2K: null, wallUA_W_K: null, sunShareSides: 0.25, lidOpenAirChangesPerMinute: 6 },
+    uncertainty: { outerH_frac: 0, insulationK_frac: 0, conditioning_K: 0 },
+    extendFraction,
+  };
+}
+
+/** Runs one candidate through the hold model at the judging corner(s). Pure: safe to call in a worker. */
+export function evaluateCandidate(inp: SizeParsed, c: Candidate, required_s: number, routeLength_s: number): CandidateResult {
+  const extend = Math.max(0.05, required_s / routeLength_s - 1 + 0.02);
+  const u = inp.uncertainty;
+  const hot: HoldCorner = { outerHScale: 1 + u.outerH_frac, insulationKScale: 1 + u.insulationK_frac, conditioningShift_K: u.conditioning_K };
+  const cold: HoldCorner = { outerHScale: 1 - u.outerH_frac, insulationKScale: 1 - u.insulationK_frac, conditioningShift_K: -u.conditioning_K };
+  const central: HoldCorner = { outerHScale: 1, insulationKScale: 1, conditioningShift_K: 0 };
+  let out;
+  try {
+    const hold = candidateHoldInput(inp, c, extend);
+    // The central run tells whether a lower limit is in play; the low end adds the worst corners.
+    out = holdRuns(hold, inp.judgeBy === "central" ? [central] : [hot]);
+    if (inp.judgeBy === "low" && out.hasLowerLimit) out.runs.push(holdRuns(hold, [cold]).runs[0]);
+  } catch (e) {
+    if (e instanceof PhysicsInputError && /larger than the box/.test(e.message)) {
+      return { index: c.index, verdict: "does not fit", hold_s: null, central_s: null, reason: "the contents do not fit", failsFirst: null, dryIceGone_s: null, pruned: false };
+    }
+    throw e;
+  }
+  let worst = out.runs[0];
+  for (const r of out.runs) if (r.holdTime_s !== null && (worst.holdTime_s === null || r.holdTime_s < worst.holdTime_s)) worst = r;
+  const hold = worst.holdTime_s;
+  const holds = hold === null || hold >= required_s;
+  let reason: string | null = null;
+  if (!holds && worst.failsFirst) {
+    const ff = worst.failsFirst;
+    if (worst.dryIceGone_s !== null && worst.dryIceGone_s <= hold!) reason = `dry ice exhausted after ${(worst.dryIceGone_s / 3600).toFixed(1)} h, then ${ff.product} (${ff.point}) rose above ${ff.limit_C} °C`;
+    else if (ff.limit === "lower") reason = `${ff.product} (${ff.point}) fell below ${ff.limit_C.toFixed(1)} °C: it would freeze`;
+    else reason = `${ff.product} (${ff.point}) rose above ${ff.limit_C} °C`;
+  }
+  return {
+    index: c.index,
+    verdict: holds ? "holds" : "fails",
+    hold_s: hold,
+    central_s: inp.judgeBy === "central" ? hold : null,
+    reason,
+    failsFirst: worst.failsFirst ? { product: worst.failsFirst.product, point: worst.failsFirst.point, limit: worst.failsFirst.limit } : null,
+    dryIceGone_s: worst.dryIceGone_s,
+    pruned: false,
+  };
+}
+
+/** Whether monotone pruning is allowed: only when no product can cross a lower limit. */
+export function canPrune(inp: SizeParsed): boolean {
+  if (!inp.prune) return false;
+  return inp.products.every((l) => !l.product.freezeSensitive && l.start_C < inp.ruleSet.hotHoldMin_C);
+}
+
+/**
+ * Drives the search level by level (total pack count), asking `evaluate` for each level's candidates
+ * that pruning has not already decided. `evaluate` may fan out to workers.
+ */
+export async function runSizing(
+  inp: SizeParsed,
+  evaluate: (indices: number[], plan: SizingPlan) => Promise<CandidateResult[]>,
+  opts: { onProgress?: (done: number, total: number) => void; signal?: { aborted: boolean } } = {},
+): Promise<SizingResult> {
+  const plan = planSizing(inp);
+  const prune = canPrune(inp);
+  const results: (CandidateResult | null)[] = plan.candidates.map(() => null);
+  const holdingByGroup = new Map<string, number[][]>();
+  let done = 0;
+  let evaluated = 0;
+  let pruned = 0;
+  let cancelled = false;
+  const total = plan.candidates.length;
+  for (const level of plan.levels) {
+    if (opts.signal?.aborted) {
+      cancelled = true;
+      break;
+    }
+    const toRun: number[] = [];
+    for (const i of level) {
+      const c = plan.candidates[i];
+      const holding = holdingByGroup.get(c.group);
+      if (prune && holding && holding.some((h) => h.every((n, k) => c.counts[k] >= n))) {
+        results[i] = { index: i, verdict: "holds", hold_s: null, central_s: null, reason: null, failsFirst: null, dryIceGone_s: null, pruned: true };
+        pruned++;
+        done++;
+      } else toRun.push(i);
+    }
+    if (toRun.length) {
+      const rs = await evaluate(toRun, plan);
+      for (const r of rs) {
+        results[r.index] = r;
+        evaluated++;
+        done++;
+        if (r.verdict === "holds") {
+          const c = plan.candidates[r.index];
+          const list = holdingByGroup.get(c.group) ?? [];
+          list.push(c.counts);
+          holdingByGroup.set(c.group, list);
+        }
+      }
+    }
+    opts.onProgress?.(done, total);
+  }
+  // Rows: mass, cost and outer volume of each candidate, and the fit check for pruned ones (same rule as the model's).
+  const rows: CandidateRow[] = [];
+  for (const c of plan.candidates) {
+    const r = results[c.index];
+    if (!r) continue;
+    const b = inp.boxes[c.box];
+    const s = boxVariant(b.shipper, inp.materials, c.variant_m);
+    const o = outerDims(s);
+    const inner = s.innerLength_m * s.innerWidth_m * s.innerHeight_m;
+    const contents =
+      inp.products.reduce((a, l) => a + volumeOf(l.product) * l.count, 0) +
+      inp.packs.reduce((a, p, i) => a + p.pack.length_m * p.pack.width_m * p.pack.thickness_m * c.counts[i], 0);
+    const fits = contents <= inner;
+    const verdict: Verdict = !fits ? "does not fit" : r.verdict;
+    rows.push({
+      ...r,
+      verdict,
+      boxName: s.name,
+      packs: inp.packs.map((p, i) => ({ name: p.pack.name, count: c.counts[i], conditioning_C: c.conditioning_C[i] })).filter((p) => p.count > 0),
+      mass_kg: boxMass(b.shipper, s, inp.materials) + inp.packs.reduce((a, p, i) => a + p.pack.mass_kg * c.counts[i], 0) + inp.products.reduce((a, l) => a + l.product.mass_kg * l.count, 0),
+      cost: b.shipper.cost + inp.packs.reduce((a, p, i) => a + p.unitCost * c.counts[i], 0),
+      outerVolume_m3: o.L * o.W * o.H,
+      holds: verdict === "holds",
+    });
+  }
+  const holding = rows.filter((r) => r.holds);
+  const pareto = holding
+    .filter((a) => !holding.some((b) => b !== a && b.mass_kg <= a.mass_kg && b.cost <= a.cost && b.outerVolume_m3 <= a.outerVolume_m3 && (b.mass_kg < a.mass_kg || b.cost < a.cost || b.outerVolume_m3 < a.outerVolume_m3)))
+    .map((r) => r.index)
+    .sort((x, y) => x - y);
+  const nearMisses = rows
+    .filter((r) => r.verdict === "fails" && r.hold_s !== null && r.hold_s >= 0.75 * plan.required_s)
+    .sort((a, b) => (b.hold_s ?? 0) - (a.hold_s ?? 0))
+    .slice(0, 12)
+    .map((r) => ({ index: r.index, reason: r.reason ?? "fails", hold_s: r.hold_s }));
+  const doesNotFit = rows.filter((r) => r.verdict === "does not fit").length;
+  let message: string | null = null;
+  if (!cancelled && holding.length === 0) {
+    const best = rows.filter((r) => r.verdict === "fails").sort((a, b) => (b.hold_s ?? 0) - (a.hold_s ?? 0))[0];
+    message =
+      doesNotFit === rows.length
+        ? "Nothing fits: the load and packs are larger than every candidate box. Choose a bigger box or fewer packs."
+        : `No candidate holds for ${(plan.required_s / 3600).toFixed(1)} h${best ? `; the best reaches ${((best.hold_s ?? 0) / 3600).toFixed(1)} h (${best.reason})` : ""}. Try thicker walls, more or colder packs, a smaller margin, or judge by the central value.`;
+  }
+  return { required_s: plan.required_s, routeLength_s: plan.routeLength_s, candidates: rows, pareto, nearMisses, evaluated, pruned, doesNotFit, cancelled, message };
+}
+
+function volumeOf(p: { shape: string; dimA_m: number; dimB_m?: number | null; dimC_m?: number | null }): number {
+  if (p.shape === "sphere") return (Math.PI / 6) * p.dimA_m ** 3;
+  if (p.shape === "cylinder") return (Math.PI / 4) * p.dimA_m ** 2 * (p.dimB_m ?? 0);
+  return p.dimA_m * (p.dimB_m ?? 0) * (p.dimC_m ?? 0);
+}
+
+/** Evaluates in this thread (API, tests). */
+export function evaluateHere(inp: SizeParsed) {
+  return async (indices: number[], plan: SizingPlan) => indices.map((i) => evaluateCandidate(inp, plan.candidates[i], plan.required_s, plan.routeLength_s));
+}

@@ -1,0 +1,50 @@
+/**
+ * Input of the pack-out sizer. One schema for the page, the API, the CLI and `holdline schema size`.
+ */
+import { z } from "zod";
+import { materialSchema, packSchema, routeSchema, ruleSetSchema, shipperSchema, ABSOLUTE_ZERO_C } from "./templates";
+import { holdProductLineSchema, uncertaintySchema, PLACEMENTS } from "./hold";
+
+/** The largest search the sizer accepts in one go. */
+export const MAX_CANDIDATES = 20_000;
+
+const temp = (what: string) =>
+  z.number({ error: `${what}: enter a number` }).min(ABSOLUTE_ZERO_C, { error: `${what} cannot be below absolute zero (−273.15 °C)` }).max(100, { error: `${what} above 100 °C is not conditioning` });
+
+export const sizeBoxSchema = z.object({
+  shipper: shipperSchema,
+  /** Extra variants: the box's thickest insulation layer (walls and lid) at these thicknesses. */
+  thicknessVariants_m: z.array(z.number().positive({ error: "A wall thickness must be greater than zero" }).max(0.3, { error: "Wall thickness above 300 mm is not a box" })).max(10).default([]),
+});
+
+export const sizePackSchema = z
+  .object({
+    pack: packSchema,
+    minCount: z.number().int({ error: "Fewest: a whole number" }).min(0, { error: "Fewest cannot be negative" }).max(100).default(0),
+    maxCount: z.number().int({ error: "Most: a whole number" }).min(0, { error: "Most cannot be negative" }).max(100, { error: "Most: at most 100" }),
+    conditioning_C: z.array(temp("Conditioning")).min(1, { error: "Give at least one conditioning temperature" }).max(6),
+    placement: z.enum(PLACEMENTS).default("around"),
+    unitCost: z.number().min(0, { error: "Cost cannot be negative" }).default(0),
+  })
+  .superRefine((p, ctx) => {
+    if (p.maxCount < p.minCount) ctx.addIssue({ code: "custom", path: ["maxCount"], message: "Most must be at least Fewest" });
+  });
+
+export const sizeInputSchema = z
+  .object({
+    products: z.array(holdProductLineSchema).min(1, { error: "Add at least one product to size for" }).max(12),
+    route: routeSchema,
+    ruleSet: ruleSetSchema,
+    materials: z.array(materialSchema).min(1, { error: "The boxes' materials are needed" }),
+    boxes: z.array(sizeBoxSchema).min(1, { error: "Choose at least one candidate box" }).max(20),
+    packs: z.array(sizePackSchema).min(1, { error: "Choose at least one candidate pack" }).max(6),
+    margin: z.object({ kind: z.enum(["percent", "hours"]), value: z.number().min(0, { error: "Margin cannot be negative" }).max(1000) }).default({ kind: "percent", value: 20 }),
+    judgeBy: z.enum(["low", "central"], { error: "Judge by the low end of the band or the central value" }).default("low"),
+    uncertainty: uncertaintySchema.default({ outerH_frac: 0.3, insulationK_frac: 0.1, conditioning_K: 2 }),
+    boxStart_C: temp("Box temperature when packed").nullable().default(null),
+    maxCandidates: z.number().int().min(1).max(MAX_CANDIDATES).default(5000),
+    /** Skip candidates that monotone physics already decides (never where a lower limit could be crossed). */
+    prune: z.boolean().default(true),
+  });
+export type SizeInput = z.input<typeof sizeInputSchema>;
+export type SizeParsed = z.output<typeof sizeInputSchema>;
