@@ -22,6 +22,7 @@ export default async function RootLayout({ children }: { children: React.ReactNo
           </Link>
           <nav aria-label="Main">
             <Link href="/hold">Hold planner</Link>
+            <Link href="/size">Pack-out sizer</Link>
             <Link href="/thaw">Thaw planner</Link>
             <Link href="/warmup">Warm-up check</Link>
             <span className="nav-sep" />

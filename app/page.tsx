@@ -22,6 +22,12 @@ export default async function Home() {
           </Link>
         </li>
         <li>
+          <Link href="/size">
+            <strong>Pack-out sizer</strong>
+            <span>The lightest, cheapest box and packs that hold for the route plus a margin</span>
+          </Link>
+        </li>
+        <li>
           <Link href="/thaw">
             <strong>Thaw planner</strong>
             <span>When to start a defrost, which way, and how long the surface sits warm</span>

@@ -44,7 +44,7 @@ export function makePool(workers: { post: (m: ToWorker) => void; onMessage: (f: 
     });
     w.post({ type: "init", inp });
   }
-  return async (indices: number[]): Promise<CandidateResult[]> => {
+  const evaluate = async (indices: number[]): Promise<CandidateResult[]> => {
     const chunk = Math.max(1, Math.min(16, Math.ceil(indices.length / (workers.length * 4))));
     const chunks: number[][] = [];
     for (let i = 0; i < indices.length; i += chunk) chunks.push(indices.slice(i, i + chunk));
@@ -66,4 +66,10 @@ export function makePool(workers: { post: (m: ToWorker) => void; onMessage: (f: 
     );
     return perWorker.flat();
   };
+  /** Rejects every request still waiting (after the workers were stopped). */
+  const cancel = () => {
+    for (const p of pending.values()) p.reject(new Error("cancelled"));
+    pending.clear();
+  };
+  return Object.assign(evaluate, { cancel });
 }
