@@ -12,6 +12,7 @@ import { UnitInput } from "@/app/_components/UnitInput";
 import { useUnits } from "@/app/_components/units-context";
 import { useMounted } from "@/app/_components/useMounted";
 import { CautionBlock } from "@/app/_components/CautionBlock";
+import { NoResult, FactList, NamedSelect } from "@/app/_components/ResultParts";
 import { TemperatureChart } from "@/app/_components/TemperatureChart";
 import { downloadCsv } from "@/app/_components/csv";
 import { savePlanAction } from "@/app/plans/actions";
@@ -97,15 +98,7 @@ export function HoldPlanner(props: HoldPlannerProps) {
             <div key={f.id} className="line" data-testid={`product-line-${i}`}>
               <div className="field">
                 <label htmlFor={`p-${i}`}>Product {i + 1}</label>
-                <select
-                  id={`p-${i}`}
-                  value={values.products?.[i]?.product?.name}
-                  onChange={(ev) => setValue(`products.${i}.product`, products.find((p) => p.name === ev.target.value)!, { shouldValidate: true })}
-                >
-                  {products.map((p) => (
-                    <option key={p.name}>{p.name}</option>
-                  ))}
-                </select>
+                <NamedSelect id={`p-${i}`} items={products} value={values.products?.[i]?.product?.name} onChange={(x) => setValue(`products.${i}.product`, x, { shouldValidate: true })} />
               </div>
               <div className="inline">
                 <div className="field">
@@ -130,11 +123,7 @@ export function HoldPlanner(props: HoldPlannerProps) {
         </fieldset>
         <div className="field">
           <label htmlFor="shipper">Box</label>
-          <select id="shipper" value={values.shipper?.name} onChange={(ev) => setValue("shipper", shippers.find((s) => s.name === ev.target.value)!, { shouldValidate: true })}>
-            {shippers.map((s) => (
-              <option key={s.name}>{s.name}</option>
-            ))}
-          </select>
+          <NamedSelect id="shipper" items={shippers} value={values.shipper?.name} onChange={(x) => setValue("shipper", x, { shouldValidate: true })} />
         </div>
         <div className="field">
           <label htmlFor="boxStart">Box temperature when packed (empty = first segment&apos;s air)</label>
@@ -208,19 +197,11 @@ export function HoldPlanner(props: HoldPlannerProps) {
         </fieldset>
         <div className="field">
           <label htmlFor="route">Route</label>
-          <select id="route" value={values.route?.name} onChange={(ev) => setValue("route", routes.find((r) => r.name === ev.target.value)!, { shouldValidate: true })}>
-            {routes.map((r) => (
-              <option key={r.name}>{r.name}</option>
-            ))}
-          </select>
+          <NamedSelect id="route" items={routes} value={values.route?.name} onChange={(x) => setValue("route", x, { shouldValidate: true })} />
         </div>
         <div className="field">
           <label htmlFor="ruleset">Rule set</label>
-          <select id="ruleset" value={values.ruleSet?.name} onChange={(ev) => setValue("ruleSet", ruleSets.find((r) => r.name === ev.target.value)!, { shouldValidate: true })}>
-            {ruleSets.map((r) => (
-              <option key={r.name}>{r.name}</option>
-            ))}
-          </select>
+          <NamedSelect id="ruleset" items={ruleSets} value={values.ruleSet?.name} onChange={(x) => setValue("ruleSet", x, { shouldValidate: true })} />
         </div>
       </form>
 
@@ -230,14 +211,7 @@ export function HoldPlanner(props: HoldPlannerProps) {
         ) : !outcome ? (
           <p className="muted">Working it out…</p>
           ) : (
-          <div className="banner error" role="alert" data-testid="hold-errors">
-            <p>No result until these are fixed:</p>
-            <ul>
-              {Object.entries(outcome.fieldErrors).map(([k, v]) => (
-                <li key={k}>{v.join("; ")}</li>
-              ))}
-            </ul>
-          </div>
+          <NoResult fieldErrors={outcome.fieldErrors} testId="hold-errors" />
         )}
         {outcome?.ok ? (
           <div className="save-row no-print">
@@ -418,22 +392,8 @@ export function HoldPlanner(props: HoldPlannerProps) {
             );
           })}
         </ul>
-        <h3>Assumptions</h3>
-        <ul className="facts" data-testid="assumptions">
-          {r.assumptions.map((a) => (
-            <li key={a}>{a}</li>
-          ))}
-        </ul>
-        {r.warnings.length ? (
-          <>
-            <h3>Warnings</h3>
-            <ul className="facts warnings">
-              {r.warnings.map((w) => (
-                <li key={w}>{w}</li>
-              ))}
-            </ul>
-          </>
-        ) : null}
+        <FactList title="Assumptions" items={r.assumptions} testId="assumptions" />
+        <FactList title="Warnings" items={r.warnings} warn />
       </>
     );
   }

@@ -13,6 +13,7 @@ import { formatDuration } from "@/lib/format";
 import { UnitInput } from "@/app/_components/UnitInput";
 import { useUnits } from "@/app/_components/units-context";
 import { CautionBlock } from "@/app/_components/CautionBlock";
+import { NamedSelect } from "@/app/_components/ResultParts";
 import { savePlanAction } from "@/app/plans/actions";
 
 type SortKey = "mass_kg" | "cost" | "outerVolume_m3" | "hold_s";
@@ -169,11 +170,7 @@ export function SizePlanner(props: { products: Product[]; shippers: Shipper[]; p
             <div key={f.id} className="line">
               <div className="field">
                 <label htmlFor={`sp-${i}`}>Product {i + 1}</label>
-                <select id={`sp-${i}`} value={values.products?.[i]?.product?.name} onChange={(ev) => setValue(`products.${i}.product`, products.find((p) => p.name === ev.target.value)!)}>
-                  {products.map((p) => (
-                    <option key={p.name}>{p.name}</option>
-                  ))}
-                </select>
+                <NamedSelect id={`sp-${i}`} items={products} value={values.products?.[i]?.product?.name} onChange={(x) => setValue(`products.${i}.product`, x)} />
               </div>
               <div className="inline">
                 <div className="field">
@@ -197,19 +194,11 @@ export function SizePlanner(props: { products: Product[]; shippers: Shipper[]; p
         </fieldset>
         <div className="field">
           <label htmlFor="s-route">Route</label>
-          <select id="s-route" value={values.route?.name} onChange={(ev) => setValue("route", routes.find((r) => r.name === ev.target.value)!)}>
-            {routes.map((r) => (
-              <option key={r.name}>{r.name}</option>
-            ))}
-          </select>
+          <NamedSelect id="s-route" items={routes} value={values.route?.name} onChange={(x) => setValue("route", x)} />
         </div>
         <div className="field">
           <label htmlFor="s-rules">Rule set</label>
-          <select id="s-rules" value={values.ruleSet?.name} onChange={(ev) => setValue("ruleSet", ruleSets.find((r) => r.name === ev.target.value)!)}>
-            {ruleSets.map((r) => (
-              <option key={r.name}>{r.name}</option>
-            ))}
-          </select>
+          <NamedSelect id="s-rules" items={ruleSets} value={values.ruleSet?.name} onChange={(x) => setValue("ruleSet", x)} />
         </div>
         <div className="inline">
           <div className="field">

@@ -12,6 +12,7 @@ import { UnitInput } from "@/app/_components/UnitInput";
 import { useUnits } from "@/app/_components/units-context";
 import { useMounted } from "@/app/_components/useMounted";
 import { CautionBlock } from "@/app/_components/CautionBlock";
+import { NoResult, FactList, NamedSelect } from "@/app/_components/ResultParts";
 import { TemperatureChart } from "@/app/_components/TemperatureChart";
 import { savePlanAction } from "@/app/plans/actions";
 
@@ -71,11 +72,7 @@ export function ThawPlanner({ products, ruleSets, trays, defaultRuleSet }: { pro
       <form className="template-form planner-inputs" onSubmit={(ev) => ev.preventDefault()} noValidate>
         <div className="field">
           <label htmlFor="product">Frozen item</label>
-          <select id="product" value={values.product?.name} onChange={(ev) => setValue("product", products.find((p) => p.name === ev.target.value)!, { shouldValidate: true })}>
-            {products.map((p) => (
-              <option key={p.name}>{p.name}</option>
-            ))}
-          </select>
+          <NamedSelect id="product" items={products} value={values.product?.name} onChange={(x) => setValue("product", x, { shouldValidate: true })} />
         </div>
         <Num control={control} name="start_C" id="start_C" label="Starting temperature" quantity="temperature" />
         <div className="field">
@@ -142,11 +139,7 @@ export function ThawPlanner({ products, ruleSets, trays, defaultRuleSet }: { pro
         </fieldset>
         <div className="field">
           <label htmlFor="ruleset">Rule set</label>
-          <select id="ruleset" value={values.ruleSet?.name} onChange={(ev) => setValue("ruleSet", ruleSets.find((r) => r.name === ev.target.value)!, { shouldValidate: true })}>
-            {ruleSets.map((r) => (
-              <option key={r.name}>{r.name}</option>
-            ))}
-          </select>
+          <NamedSelect id="ruleset" items={ruleSets} value={values.ruleSet?.name} onChange={(x) => setValue("ruleSet", x, { shouldValidate: true })} />
         </div>
         <div className="field">
           <label htmlFor="margin">Thawed when the centre is this far above its freezing point</label>
@@ -173,14 +166,7 @@ export function ThawPlanner({ products, ruleSets, trays, defaultRuleSet }: { pro
         ) : !outcome ? (
           <p className="muted">Working it out…</p>
           ) : (
-          <div className="banner error" role="alert" data-testid="thaw-errors">
-            <p>No result until these are fixed:</p>
-            <ul>
-              {Object.entries(outcome.fieldErrors).map(([k, v]) => (
-                <li key={k}>{v.join("; ")}</li>
-              ))}
-            </ul>
-          </div>
+          <NoResult fieldErrors={outcome.fieldErrors} testId="thaw-errors" />
         )}
         {outcome?.ok ? (
           <div className="save-row">
@@ -311,16 +297,7 @@ export function ThawPlanner({ products, ruleSets, trays, defaultRuleSet }: { pro
           ))}
           <li>Energy balance closes to {r.energyBalanceError.toExponential(1)} of the heat stored.</li>
         </ul>
-        {r.warnings.length ? (
-          <>
-            <h3>Warnings</h3>
-            <ul className="facts warnings">
-              {r.warnings.map((w) => (
-                <li key={w}>{w}</li>
-              ))}
-            </ul>
-          </>
-        ) : null}
+        <FactList title="Warnings" items={r.warnings} warn />
       </>
     );
   }

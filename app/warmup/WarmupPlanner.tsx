@@ -12,6 +12,7 @@ import { UnitInput } from "@/app/_components/UnitInput";
 import { useUnits } from "@/app/_components/units-context";
 import { useMounted } from "@/app/_components/useMounted";
 import { CautionBlock } from "@/app/_components/CautionBlock";
+import { NoResult, FactList, NamedSelect } from "@/app/_components/ResultParts";
 import { TemperatureChart } from "@/app/_components/TemperatureChart";
 import { savePlanAction } from "@/app/plans/actions";
 
@@ -163,14 +164,7 @@ export function WarmupPlanner({ products, ruleSets, defaultRuleSet }: { products
         ) : !outcome ? (
           <p className="muted">Working it out…</p>
           ) : (
-          <div className="banner error" role="alert">
-            <p>No result until these are fixed:</p>
-            <ul>
-              {Object.entries(outcome.fieldErrors).map(([k, v]) => (
-                <li key={k}>{v.join("; ")}</li>
-              ))}
-            </ul>
-          </div>
+          <NoResult fieldErrors={outcome.fieldErrors} />
         )}
         {outcome?.ok ? (
           <div className="save-row">
@@ -270,16 +264,7 @@ export function WarmupPlanner({ products, ruleSets, defaultRuleSet }: { products
           ))}
           <li>The limit {limitShown} {tUnit} comes from the rule set &ldquo;{values.ruleSet?.name}&rdquo;, which you can edit in the library.</li>
         </ul>
-        {r.warnings.length ? (
-          <>
-            <h3>Warnings</h3>
-            <ul className="facts warnings" data-testid="warnings">
-              {r.warnings.map((w) => (
-                <li key={w}>{w}</li>
-              ))}
-            </ul>
-          </>
-        ) : null}
+        <FactList title="Warnings" items={r.warnings} warn testId="warnings" />
       </>
     );
   }

@@ -30,6 +30,41 @@ export async function resolveTemplateRefs(
   return Object.keys(errors).length ? { ok: false, fieldErrors: errors } : { ok: true, value: out };
 }
 
+/** Replaces template names inside a list of lines (`products[i].product`, `packs[i].pack`, …) by the templates. */
+async function resolveLines(db: Db, out: Record<string, unknown>, key: string, field: string, kind: TemplateKind, errors: FieldErrors, each?: (l: Record<string, unknown>) => void): Promise<void> {
+  const arr = out[key];
+  if (!Array.isArray(arr)) return;
+  out[key] = await Promise.all(
+    arr.map(async (line, i) => {
+      if (!line || typeof line !== "object") return line;
+      const l = { ...(line as Record<string, unknown>) };
+      if (typeof l[field] === "string") {
+        const t = await getTemplateByName(db, kind, l[field] as string);
+        if (t) l[field] = t.data;
+        else errors[`${key}.${i}.${field}`] = [`No ${kind.replace(/s$/, "")} named "${l[field]}" in the library`];
+      }
+      each?.(l);
+      return l;
+    }),
+  );
+}
+
+/** The library materials that the given boxes name (walls, lid and finish). */
+async function materialsNamedBy(db: Db, boxes: unknown[]): Promise<unknown[]> {
+  const names = new Set<string>();
+  for (const s of boxes as { wallLayers?: { material: string }[]; lidLayers?: { material: string }[] | null; finishMaterial?: string }[]) {
+    if (!s || typeof s !== "object") continue;
+    for (const l of [...(s.wallLayers ?? []), ...(s.lidLayers ?? [])]) names.add(l.material);
+    if (s.finishMaterial) names.add(s.finishMaterial);
+  }
+  const mats = [];
+  for (const n of names) {
+    const m = await getTemplateByName(db, "materials", n);
+    if (m) mats.push(m.data);
+  }
+  return mats;
+}
+
 /**
  * Hold-planner input with names: `shipper`, `route`, `ruleSet` and each line's `product` / `pack` may be
  * template names; a pack line without `conditioning_C` takes the pack's usual conditioning; `materials`
@@ -40,38 +75,11 @@ export async function resolveHoldRefs(db: Db, body: unknown): Promise<{ ok: true
   if (!top.ok || !top.value || typeof top.value !== "object") return top;
   const out = top.value as Record<string, unknown>;
   const errors: FieldErrors = {};
-  const lines = async (key: "products" | "packs", field: "product" | "pack", kind: TemplateKind) => {
-    const arr = out[key];
-    if (!Array.isArray(arr)) return;
-    out[key] = await Promise.all(
-      arr.map(async (line, i) => {
-        if (!line || typeof line !== "object") return line;
-        const l = { ...(line as Record<string, unknown>) };
-        if (typeof l[field] === "string") {
-          const t = await getTemplateByName(db, kind, l[field] as string);
-          if (t) l[field] = t.data;
-          else errors[`${key}.${i}.${field}`] = [`No ${field} named "${l[field]}" in the library`];
-        }
-        if (key === "packs" && l.conditioning_C === undefined && l.pack && typeof l.pack === "object") {
-          l.conditioning_C = (l.pack as { conditioning_C?: number }).conditioning_C;
-        }
-        return l;
-      }),
-    );
-  };
-  await lines("products", "product", "products");
-  await lines("packs", "pack", "packs");
-  if (out.materials === undefined && out.shipper && typeof out.shipper === "object") {
-    const s = out.shipper as { wallLayers?: { material: string }[]; lidLayers?: { material: string }[] | null; finishMaterial?: string };
-    const names = new Set([...(s.wallLayers ?? []).map((l) => l.material), ...(s.lidLayers ?? []).map((l) => l.material), s.finishMaterial ?? ""]);
-    const mats = [];
-    for (const n of names) {
-      if (!n) continue;
-      const m = await getTemplateByName(db, "materials", n);
-      if (m) mats.push(m.data);
-    }
-    out.materials = mats;
-  }
+  await resolveLines(db, out, "products", "product", "products", errors);
+  await resolveLines(db, out, "packs", "pack", "packs", errors, (l) => {
+    if (l.conditioning_C === undefined && l.pack && typeof l.pack === "object") l.conditioning_C = (l.pack as { conditioning_C?: number }).conditioning_C;
+  });
+  if (out.materials === undefined && out.shipper && typeof out.shipper === "object") out.materials = await materialsNamedBy(db, [out.shipper]);
   return Object.keys(errors).length ? { ok: false, fieldErrors: errors } : { ok: true, value: out };
 }
 
@@ -98,39 +106,9 @@ export async function resolveSizeRefs(db: Db, body: unknown): Promise<{ ok: true
   if (!top.ok || !top.value || typeof top.value !== "object") return top;
   const out = top.value as Record<string, unknown>;
   const errors: FieldErrors = {};
-  const lines = async (key: string, field: string, kind: TemplateKind) => {
-    const arr = out[key];
-    if (!Array.isArray(arr)) return;
-    out[key] = await Promise.all(
-      arr.map(async (line, i) => {
-        if (!line || typeof line !== "object") return line;
-        const l = { ...(line as Record<string, unknown>) };
-        if (typeof l[field] === "string") {
-          const t = await getTemplateByName(db, kind, l[field] as string);
-          if (t) l[field] = t.data;
-          else errors[`${key}.${i}.${field}`] = [`No ${kind.replace(/s$/, "")} named "${l[field]}" in the library`];
-        }
-        return l;
-      }),
-    );
-  };
-  await lines("products", "product", "products");
-  await lines("boxes", "shipper", "shippers");
-  await lines("packs", "pack", "packs");
-  if (out.materials === undefined && Array.isArray(out.boxes)) {
-    const names = new Set<string>();
-    for (const b of out.boxes as { shipper?: { wallLayers?: { material: string }[]; lidLayers?: { material: string }[] | null; finishMaterial?: string } }[]) {
-      const s = b?.shipper;
-      if (!s || typeof s !== "object") continue;
-      for (const l of [...(s.wallLayers ?? []), ...(s.lidLayers ?? [])]) names.add(l.material);
-      if (s.finishMaterial) names.add(s.finishMaterial);
-    }
-    const mats = [];
-    for (const n of names) {
-      const m = await getTemplateByName(db, "materials", n);
-      if (m) mats.push(m.data);
-    }
-    out.materials = mats;
-  }
+  await resolveLines(db, out, "products", "product", "products", errors);
+  await resolveLines(db, out, "boxes", "shipper", "shippers", errors);
+  await resolveLines(db, out, "packs", "pack", "packs", errors);
+  if (out.materials === undefined && Array.isArray(out.boxes)) out.materials = await materialsNamedBy(db, (out.boxes as { shipper?: unknown }[]).map((b) => b?.shipper));
   return Object.keys(errors).length ? { ok: false, fieldErrors: errors } : { ok: true, value: out };
 }

@@ -1,0 +1,49 @@
+"use client";
+import type { Material } from "@/lib/schemas/templates";
+
+/** The banner shown instead of a result while the inputs have problems. */
+export function NoResult({ fieldErrors, testId }: { fieldErrors: Record<string, string[]>; testId?: string }) {
+  return (
+    <div className="banner error" role="alert" data-testid={testId}>
+      <p>No result until these are fixed:</p>
+      <ul>
+        {Object.entries(fieldErrors).map(([k, v]) => (
+          <li key={k}>{v.join("; ")}</li>
+        ))}
+      </ul>
+    </div>
+  );
+}
+
+/** A headed list of assumptions or warnings (nothing when empty). */
+export function FactList({ title, items, warn = false, testId }: { title: string; items: string[]; warn?: boolean; testId?: string }) {
+  if (!items.length) return null;
+  return (
+    <>
+      <h3>{title}</h3>
+      <ul className={warn ? "facts warnings" : "facts"} data-testid={testId}>
+        {items.map((a) => (
+          <li key={a}>{a}</li>
+        ))}
+      </ul>
+    </>
+  );
+}
+
+/** A select over named templates that hands back the whole template. */
+export function NamedSelect<T extends { name: string } | Material>(props: { id: string; items: T[]; value: string | undefined; onChange: (item: T) => void }) {
+  return (
+    <select
+      id={props.id}
+      value={props.value}
+      onChange={(ev) => {
+        const found = props.items.find((x) => x.name === ev.target.value);
+        if (found) props.onChange(found);
+      }}
+    >
+      {props.items.map((x) => (
+        <option key={x.name}>{x.name}</option>
+      ))}
+    </select>
+  );
+}
