@@ -39,6 +39,19 @@ describe("pack-out sizer in the browser", () => {
     await page.getByText("Packed by:").waitFor();
   });
 
+  it("can be stopped part-way, and says so", async () => {
+    const page = suite.page;
+    await page.goto(suite.h.baseUrl + "/size");
+    // A freeze-sensitive load cannot be pruned, so this search runs long enough to stop.
+    await page.getByLabel("Product 1", { exact: true }).selectOption("Mixed salad leaves, tub");
+    for (const i of [1, 2, 3]) await page.getByLabel("Most").nth(i).fill("10");
+    await page.getByRole("button", { name: "Find pack-outs" }).click();
+    await page.getByTestId("size-progress").waitFor();
+    await page.getByRole("button", { name: "Stop" }).click();
+    await page.getByText("Stopped. Nothing was changed.").waitFor();
+    assert.equal(await page.getByTestId("size-table").count(), 0);
+  });
+
   it("answers POST /api/v1/size with candidates, pareto and nearMisses; refuses an oversized search with a clear message", async () => {
     const page = suite.page;
     const body = {
