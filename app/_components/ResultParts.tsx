@@ -47,3 +47,21 @@ export function NamedSelect<T extends { name: string } | Material>(props: { id: 
     </select>
   );
 }
+
+/** A field's error message, beside the field. */
+export function FieldMessage({ msg }: { msg?: string }) {
+  return msg ? (
+    <p className="field-error" role="alert">
+      {msg}
+    </p>
+  ) : null;
+}
+
+/** "Saved — open the saved plan" after a plan was stored. */
+export function SavedNotice({ id }: { id: number | null }) {
+  return id ? (
+    <span role="status">
+      Saved — <a href={`/plans/${id}`}>open the saved plan</a>
+    </span>
+  ) : null;
+}

@@ -12,7 +12,7 @@ import { UnitInput } from "@/app/_components/UnitInput";
 import { useUnits } from "@/app/_components/units-context";
 import { useMounted } from "@/app/_components/useMounted";
 import { CautionBlock } from "@/app/_components/CautionBlock";
-import { NoResult, FactList, NamedSelect } from "@/app/_components/ResultParts";
+import { NoResult, FactList, NamedSelect, FieldMessage, SavedNotice } from "@/app/_components/ResultParts";
 import { TemperatureChart } from "@/app/_components/TemperatureChart";
 import { downloadCsv } from "@/app/_components/csv";
 import { savePlanAction } from "@/app/plans/actions";
@@ -20,13 +20,6 @@ import { savePlanAction } from "@/app/plans/actions";
 const PALETTE = ["#235a6b", "#b4641e", "#5a7d2a", "#7b4b94", "#9a3b3b", "#2f6fb0"];
 const WH = 3600;
 
-function Err({ msg }: { msg?: string }) {
-  return msg ? (
-    <p className="field-error" role="alert">
-      {msg}
-    </p>
-  ) : null;
-}
 
 export interface HoldPlannerProps {
   products: Product[];
@@ -104,12 +97,12 @@ export function HoldPlanner(props: HoldPlannerProps) {
                 <div className="field">
                   <label htmlFor={`pc-${i}`}>How many</label>
                   <input id={`pc-${i}`} type="number" min={1} step={1} {...register(`products.${i}.count`, { valueAsNumber: true })} />
-                  <Err msg={e.products?.[i]?.count?.message} />
+                  <FieldMessage msg={e.products?.[i]?.count?.message} />
                 </div>
                 <div className="field">
                   <label htmlFor={`pt-${i}`}>Packed at</label>
                   <Controller control={control} name={`products.${i}.start_C`} render={({ field }) => <UnitInput id={`pt-${i}`} quantity="temperature" value={field.value as number} onChange={field.onChange} invalid={!!e.products?.[i]?.start_C} />} />
-                  <Err msg={e.products?.[i]?.start_C?.message} />
+                  <FieldMessage msg={e.products?.[i]?.start_C?.message} />
                 </div>
                 <button type="button" className="secondary" onClick={() => productLines.remove(i)} aria-label={`Remove product ${i + 1}`}>
                   Remove
@@ -153,12 +146,12 @@ export function HoldPlanner(props: HoldPlannerProps) {
                 <div className="field">
                   <label htmlFor={`kc-${i}`}>How many</label>
                   <input id={`kc-${i}`} type="number" min={1} step={1} {...register(`packs.${i}.count`, { valueAsNumber: true })} />
-                  <Err msg={e.packs?.[i]?.count?.message} />
+                  <FieldMessage msg={e.packs?.[i]?.count?.message} />
                 </div>
                 <div className="field">
                   <label htmlFor={`kt-${i}`}>Conditioned at</label>
                   <Controller control={control} name={`packs.${i}.conditioning_C`} render={({ field }) => <UnitInput id={`kt-${i}`} quantity="temperature" value={field.value as number} onChange={field.onChange} />} />
-                  <Err msg={e.packs?.[i]?.conditioning_C?.message} />
+                  <FieldMessage msg={e.packs?.[i]?.conditioning_C?.message} />
                 </div>
               </div>
               <div className="inline">
@@ -238,11 +231,7 @@ export function HoldPlanner(props: HoldPlannerProps) {
             <button type="button" className="secondary" onClick={() => window.print()}>
               Print plan record
             </button>
-            {saved ? (
-              <span role="status">
-                Saved — <a href={`/plans/${saved}`}>open the saved plan</a>
-              </span>
-            ) : null}
+            <SavedNotice id={saved} />
           </div>
         ) : null}
         <CautionBlock dryIce={outcome?.ok === true && outcome.result.r.hasDryIce} extra={outcome?.ok === true && outcome.result.r.hasDryIce ? ["Carbon dioxide from dry ice builds up in closed vans and cold rooms: open the load space before reaching in."] : []} />

@@ -12,7 +12,7 @@ import { UnitInput } from "@/app/_components/UnitInput";
 import { useUnits } from "@/app/_components/units-context";
 import { useMounted } from "@/app/_components/useMounted";
 import { CautionBlock } from "@/app/_components/CautionBlock";
-import { NoResult, FactList, NamedSelect } from "@/app/_components/ResultParts";
+import { NoResult, FactList, NamedSelect, SavedNotice } from "@/app/_components/ResultParts";
 import { TemperatureChart } from "@/app/_components/TemperatureChart";
 import { savePlanAction } from "@/app/plans/actions";
 
@@ -185,11 +185,7 @@ export function ThawPlanner({ products, ruleSets, trays, defaultRuleSet }: { pro
             >
               Save plan
             </button>
-            {saved ? (
-              <span role="status">
-                Saved — <a href={`/plans/${saved}`}>open the saved plan</a>
-              </span>
-            ) : null}
+            <SavedNotice id={saved} />
           </div>
         ) : null}
         <CautionBlock extra={outcome?.ok ? outcome.result.advice : []} />

@@ -12,17 +12,10 @@ import { UnitInput } from "@/app/_components/UnitInput";
 import { useUnits } from "@/app/_components/units-context";
 import { useMounted } from "@/app/_components/useMounted";
 import { CautionBlock } from "@/app/_components/CautionBlock";
-import { NoResult, FactList, NamedSelect } from "@/app/_components/ResultParts";
+import { NoResult, FactList, NamedSelect, FieldMessage, SavedNotice } from "@/app/_components/ResultParts";
 import { TemperatureChart } from "@/app/_components/TemperatureChart";
 import { savePlanAction } from "@/app/plans/actions";
 
-function Err({ msg }: { msg?: string }) {
-  return msg ? (
-    <p className="field-error" role="alert">
-      {msg}
-    </p>
-  ) : null;
-}
 
 export function WarmupPlanner({ products, ruleSets, defaultRuleSet }: { products: Product[]; ruleSets: RuleSet[]; defaultRuleSet: string }) {
   const units = useUnits();
@@ -80,7 +73,7 @@ export function WarmupPlanner({ products, ruleSets, defaultRuleSet }: { products
         <div className="field">
           <label htmlFor="start_C">Starting temperature</label>
           <Controller control={control} name="start_C" render={({ field }) => <UnitInput id="start_C" quantity="temperature" value={field.value as number} onChange={field.onChange} invalid={!!e.start_C} />} />
-          <Err msg={e.start_C?.message} />
+          <FieldMessage msg={e.start_C?.message} />
         </div>
         <fieldset className="group">
           <legend>Surroundings</legend>
@@ -95,23 +88,23 @@ export function WarmupPlanner({ products, ruleSets, defaultRuleSet }: { products
             <div className="field">
               <label htmlFor="sur_T">Temperature</label>
               <Controller control={control} name="surroundings.T_C" render={({ field }) => <UnitInput id="sur_T" quantity="temperature" value={field.value as number} onChange={field.onChange} invalid={!!e.surroundings?.T_C} />} />
-              <Err msg={e.surroundings?.T_C?.message} />
+              <FieldMessage msg={e.surroundings?.T_C?.message} />
             </div>
             <div className="field">
               <label htmlFor="sur_speed">Air or water speed</label>
               <Controller control={control} name="surroundings.speed_m_s" render={({ field }) => <UnitInput id="sur_speed" quantity="speed" value={field.value as number} onChange={field.onChange} invalid={!!e.surroundings?.speed_m_s} />} />
-              <Err msg={e.surroundings?.speed_m_s?.message} />
+              <FieldMessage msg={e.surroundings?.speed_m_s?.message} />
             </div>
             <div className="field">
               <label htmlFor="sur_eps">Surface emissivity</label>
               <Controller control={control} name="surroundings.emissivity" render={({ field }) => <UnitInput id="sur_eps" quantity="ratio" value={field.value as number} onChange={field.onChange} invalid={!!e.surroundings?.emissivity} />} />
-              <Err msg={e.surroundings?.emissivity?.message} />
+              <FieldMessage msg={e.surroundings?.emissivity?.message} />
             </div>
             <div className="field">
               <label htmlFor="sur_h">Surface coefficient h (optional)</label>
               <Controller control={control} name="surroundings.h_W_m2K" render={({ field }) => <UnitInput id="sur_h" quantity="count" nullable value={field.value as number | null} onChange={field.onChange} invalid={!!e.surroundings?.h_W_m2K} />} />
               <p className="help">W/(m²·K). Leave empty to compute it from the correlations.</p>
-              <Err msg={e.surroundings?.h_W_m2K?.message} />
+              <FieldMessage msg={e.surroundings?.h_W_m2K?.message} />
             </div>
           </div>
         </fieldset>
@@ -144,7 +137,7 @@ export function WarmupPlanner({ products, ruleSets, defaultRuleSet }: { products
           <div className="field">
             <label htmlFor="horizon">Look ahead</label>
             <Controller control={control} name="horizon_s" render={({ field }) => <UnitInput id="horizon" quantity="duration" value={field.value as number} onChange={field.onChange} invalid={!!e.horizon_s} />} />
-            <Err msg={e.horizon_s?.message} />
+            <FieldMessage msg={e.horizon_s?.message} />
           </div>
           <div className="field">
             <label htmlFor="method">Method</label>
@@ -186,11 +179,7 @@ export function WarmupPlanner({ products, ruleSets, defaultRuleSet }: { products
             >
               Save plan
             </button>
-            {saved ? (
-              <span role="status">
-                Saved — <a href={`/plans/${saved.id}`}>open the saved plan</a>
-              </span>
-            ) : null}
+            <SavedNotice id={saved?.id ?? null} />
           </div>
         ) : null}
         <CautionBlock />
