@@ -216,7 +216,7 @@ export function SizePlanner(props: { products: Product[]; shippers: Shipper[]; p
         <div className="field">
           <label htmlFor="s-judge">Judge by</label>
           <select id="s-judge" {...register("judgeBy")}>
-            <option value="low">the low end of the uncertainty band (safer)</option>
+            <option value="low">the low end of the uncertainty band (more cautious)</option>
             <option value="central">the central estimate</option>
           </select>
         </div>

@@ -7,7 +7,7 @@
 import type { Db } from "./client";
 import { libraryFileSchema, TEMPLATE_KINDS, type LibraryFile, type TemplateKind, templateSchemas } from "../schemas/templates";
 import { describeIssues } from "../schemas/errors";
-import { delegateFor, listTemplates, _toRowForTests as toRow } from "./templates";
+import { delegateFor, listTemplates, toRow } from "./templates";
 import { getSettings } from "./settings";
 
 export async function exportLibrary(db: Db): Promise<LibraryFile> {

@@ -252,4 +252,4 @@ export async function defaultRuleSet(db: Db): Promise<Stored<"rulesets"> | null>
   return r ? { id: r.id, version: r.version, updatedAt: r.updatedAt, data: fromRow("rulesets", r) } : null;
 }
 
-export { fromRow as _fromRowForTests, toRow as _toRowForTests };
+export { toRow };

@@ -6,7 +6,7 @@
  * 20 °C start are common practice, stated with the answer. Dry ice is not conditioned.
  */
 import type { Pack } from "../schemas/templates";
-import { simpleMaterial } from "./properties";
+import { packMaterial } from "./hold";
 import { solve1D } from "./solver1d";
 
 export const CABINET_H_W_M2K = 10;
@@ -14,9 +14,7 @@ export const PACK_START_C = 20;
 
 export function conditioningTime_s(p: Pack, conditioning_C: number): number | null {
   if (p.kind === "dry_ice") return null;
-  const rho = p.mass_kg / (p.length_m * p.width_m * p.thickness_m);
-  const k: Record<Pack["kind"], [number, number]> = { water_ice: [2.2, 0.57], gel: [2.0, 0.55], pcm: [1.0, 0.5], dry_ice: [0.6, 0.6] };
-  const mat = simpleMaterial({ rho_kg_m3: rho, cSolid_J_kgK: p.cpSolid_J_kgK, cLiquid_J_kgK: p.cpLiquid_J_kgK, kSolid_W_mK: k[p.kind][0], kLiquid_W_mK: k[p.kind][1], melt_C: p.phaseChange_C, latent_J_kg: p.latentHeat_J_kg, mushy_K: 0.5 });
+  const mat = packMaterial(p);
   const target = conditioning_C + 1;
   if (PACK_START_C <= target) return 0;
   const r = solve1D({

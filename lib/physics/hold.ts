@@ -8,9 +8,9 @@ import { holdInputSchema, type HoldInput, type HoldParsed } from "../schemas/hol
 import type { Material, Pack, Product } from "../schemas/templates";
 import { foodThermal, simpleMaterial } from "./properties";
 import { itemShape } from "./geometry";
-import { solAirTemperature } from "./surfaces";
+import { solAirTemperature, CP_AIR_J_KGK, P_ATM_PA, R_AIR_J_KGK } from "./surfaces";
 import { boxOuterCoefficient, radiationAt, runNetwork, type BodySpec, type WallLayerSpec } from "./shipper";
-import { PhysicsInputError } from "./validation";
+import { KELVIN_OFFSET, PhysicsInputError } from "./validation";
 import type { EnthalpyMaterial } from "./solver1d";
 
 /** CO₂ gas volume per kg of dry ice at 20 °C and 1 atm, ideal gas: 0.547 m³/kg (published-values.md §4.4, COMPUTED). */
@@ -168,12 +168,11 @@ function prepare(inp: HoldParsed): Prepared {
     contentsVolume += shape.volume_m3 * line.count;
   });
   let hasDryIce = false;
-  inp.packs.forEach((line, i) => {
+  inp.packs.forEach((line) => {
     const p = line.pack;
     contentsVolume += p.length_m * p.width_m * p.thickness_m * line.count;
     if (p.kind === "dry_ice") hasDryIce = true;
     if (line.conditioning_C > p.phaseChange_C) warnings.push(`${p.name} is conditioned at ${line.conditioning_C} °C, above its ${p.kind === "dry_ice" ? "sublimation" : "melt"} point (${p.phaseChange_C} °C): it starts melted and gives sensible cooling only`);
-    void i;
   });
   if (contentsVolume > innerVolume) {
     throw new PhysicsInputError("products", `the contents (${(contentsVolume * 1000).toFixed(1)} L) are larger than the box's inner volume (${(innerVolume * 1000).toFixed(1)} L)`);
@@ -265,7 +264,8 @@ export function steadyUA(
   return { walls_W_K: walls, lid_W_K: lid, edges_W_K: edges, total_W_K: walls + lid + edges };
 }
 
-function packMaterial(p: Pack, conditioning: number): EnthalpyMaterial & { Tf_C: number } {
+/** A coolant pack as an enthalpy material (melt or sublimation over a narrow band). */
+export function packMaterial(p: Pack): EnthalpyMaterial & { Tf_C: number } {
   const [ks, kl] = PACK_K[p.kind];
   const rho = p.mass_kg / (p.length_m * p.width_m * p.thickness_m);
   return simpleMaterial({
@@ -279,7 +279,6 @@ function packMaterial(p: Pack, conditioning: number): EnthalpyMaterial & { Tf_C:
     latent_J_kg: p.latentHeat_J_kg,
     mushy_K: p.kind === "dry_ice" ? 0.2 : 0.5,
   }) as EnthalpyMaterial & { Tf_C: number };
-  void conditioning;
 }
 
 function runOnce(P: Prepared, v: Variant): HoldRun {
@@ -300,7 +299,9 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
   const hOuter = P.segments.map((s) =>
     (o.outerH_W_m2K ?? boxOuterCoefficient(P.outer, s.seg.airTemp_C, s.seg.airSpeed_m_s, P.finish.emissivity, hot ? 3 : -3)) * v.outerHScale,
   );
-  const openG = (P.airVolume_m3 * 1.2 * 1006 * o.lidOpenAirChangesPerMinute) / 60;
+  // Outside air swept in while the lid is open: ρc of air (ideal gas at the segment's air temperature is
+  // within 10 % of 20 °C over a route, so 20 °C is used) times the air changes per second.
+  const openG = (P.airVolume_m3 * (P_ATM_PA / (R_AIR_J_KGK * (20 + KELVIN_OFFSET))) * CP_AIR_J_KGK * o.lidOpenAirChangesPerMinute) / 60;
   const segAt = (t: number) => {
     for (let i = 0; i < P.segments.length; i++) if (t < P.segments[i].end_s) return i;
     return P.segments.length - 1;
@@ -324,7 +325,7 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
     const A = 2 * (p.length_m * p.width_m + p.length_m * p.thickness_m + p.width_m * p.thickness_m);
     bodies.push({
       label: p.name,
-      material: packMaterial(p, line.conditioning_C),
+      material: packMaterial(p),
       shapeM: 0,
       halfSize_m: V / A,
       volume_m3: V,

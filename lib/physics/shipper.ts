@@ -296,7 +296,6 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
         A.extraDiag[A.n - 1] += c.conductance_W_K;
         B.extraDiag[B.n - 1] += c.conductance_W_K;
       }
-      let maxRes = 0;
       // Build and forward-eliminate each chain.
       let airDiag = Cair / h + Gedge + Gopen;
       let airRes = (Cair * (Tair - TairOld)) / h - Gedge * (amb.air_C - Tair) - Gopen * (amb.air_C - Tair);
@@ -346,10 +345,6 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
         ch.b[n - 1] += U;
         airRes -= U * (ch.T[n - 1] - Tair);
         airDiag += U;
-        for (let i = 0; i < n; i++) {
-          const r = Math.abs(ch.R[i]);
-          if (r > maxRes) maxRes = r;
-        }
         // Forward elimination towards the air-coupled end.
         ch.bp[0] = ch.b[0];
         ch.dp[0] = -ch.R[0];
@@ -362,7 +357,6 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
         airDiag -= (U * U) / ch.bp[n - 1];
         airRhs += (U * ch.dp[n - 1]) / ch.bp[n - 1];
       }
-      maxRes = Math.max(maxRes, Math.abs(airRes));
       const dAir = (-airRes + airRhs) / airDiag;
       Tair += dAir;
       let maxStep = Math.abs(dAir);
@@ -382,7 +376,6 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
         it++;
         break;
       }
-      void maxRes;
     }
     if (!converged) {
       for (const ch of chains) ch.T.set(ch.Told);

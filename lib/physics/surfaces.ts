@@ -130,8 +130,7 @@ export function naturalHorizontalPlate(
   facing: "up" | "down",
   warnings: string[] = [],
 ): ConvectionResult {
-  const { Ra } = natural(fluid, Ts_C, Tinf_C, Lc_m, warnings);
-  const p = fluidProps(fluid, (Ts_C + Tinf_C) / 2);
+  const { p, Ra } = natural(fluid, Ts_C, Tinf_C, Lc_m, warnings);
   const hot = Ts_C >= Tinf_C;
   const unstable = (hot && facing === "up") || (!hot && facing === "down");
   let Nu: number;
@@ -152,8 +151,7 @@ export function naturalHorizontalPlate(
   }
   // Below the range the power laws fall to zero; keep conduction-like floor Nu ≥ 1 so h never vanishes.
   Nu = Math.max(Nu, 1);
-  void p;
-  return { h_W_m2K: (Nu * fluidProps(fluid, (Ts_C + Tinf_C) / 2).k_W_mK) / Lc_m, Nu, Ra, correlation, source: "incroperaFreeConv" };
+  return { h_W_m2K: (Nu * p.k_W_mK) / Lc_m, Nu, Ra, correlation, source: "incroperaFreeConv" };
 }
 
 /** Horizontal cylinder of diameter D: Nu = {0.60 + 0.387 Ra^(1/6)/[1 + (0.559/Pr)^(9/16)]^(8/27)}², Ra ≤ 10¹² [churchillChu1975, Eq. 9.34]. */

@@ -3,13 +3,9 @@
  * a route and a rule set. One schema for the page, the API, the CLI and `holdline schema hold`.
  */
 import { z } from "zod";
-import { materialSchema, packSchema, productSchema, routeSchema, ruleSetSchema, shipperSchema, ABSOLUTE_ZERO_C } from "./templates";
+import { materialSchema, packSchema, productSchema, routeSchema, ruleSetSchema, shipperSchema, temperatureField } from "./templates";
 
-const temp = (what: string) =>
-  z
-    .number({ error: `${what}: enter a number` })
-    .min(ABSOLUTE_ZERO_C, { error: `${what} cannot be below absolute zero (−273.15 °C)` })
-    .max(400, { error: `${what} above 400 °C is outside this tool` });
+const temp = (what: string) => temperatureField(what, 400, "is outside this tool");
 const count = (what: string) =>
   z
     .number({ error: `${what}: enter a whole number` })

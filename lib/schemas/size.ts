@@ -2,14 +2,13 @@
  * Input of the pack-out sizer. One schema for the page, the API, the CLI and `holdline schema size`.
  */
 import { z } from "zod";
-import { materialSchema, packSchema, routeSchema, ruleSetSchema, shipperSchema, ABSOLUTE_ZERO_C } from "./templates";
+import { materialSchema, packSchema, routeSchema, ruleSetSchema, shipperSchema, temperatureField } from "./templates";
 import { holdProductLineSchema, uncertaintySchema, PLACEMENTS } from "./hold";
 
 /** The largest search the sizer accepts in one go. */
 export const MAX_CANDIDATES = 20_000;
 
-const temp = (what: string) =>
-  z.number({ error: `${what}: enter a number` }).min(ABSOLUTE_ZERO_C, { error: `${what} cannot be below absolute zero (−273.15 °C)` }).max(100, { error: `${what} above 100 °C is not conditioning` });
+const temp = (what: string) => temperatureField(what, 100, "is not conditioning");
 
 export const sizeBoxSchema = z.object({
   shipper: shipperSchema,

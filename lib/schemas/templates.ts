@@ -12,10 +12,12 @@ export const ABSOLUTE_ZERO_C = -273.15;
 const num = (what: string) => z.number({ error: `${what}: enter a number` });
 const positive = (what: string) => num(what).positive({ error: `${what} must be greater than zero` });
 const nonNegative = (what: string) => num(what).nonnegative({ error: `${what} cannot be negative` });
-const temperature = (what: string) =>
+/** A temperature field in °C: never below absolute zero, and at most `max_C` (with the reason shown if exceeded). */
+export const temperatureField = (what: string, max_C = 1000, tooHigh = "is not a food temperature") =>
   num(what)
     .min(ABSOLUTE_ZERO_C, { error: `${what} cannot be below absolute zero (−273.15 °C)` })
-    .max(1000, { error: `${what} above 1000 °C is not a food temperature` });
+    .max(max_C, { error: `${what} above ${max_C} °C ${tooHigh}` });
+const temperature = (what: string) => temperatureField(what);
 const fraction = (what: string) =>
   num(what).min(0, { error: `${what} cannot be negative` }).max(1, { error: `${what} cannot exceed 1` });
 const name = z

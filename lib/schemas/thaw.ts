@@ -2,13 +2,9 @@
  * Input of the thaw planner. One schema for the page, the API, the CLI and `holdline schema thaw`.
  */
 import { z } from "zod";
-import { materialSchema, productSchema, ruleSetSchema, ABSOLUTE_ZERO_C } from "./templates";
+import { materialSchema, productSchema, ruleSetSchema, temperatureField } from "./templates";
 
-const temp = (what: string) =>
-  z
-    .number({ error: `${what}: enter a number` })
-    .min(ABSOLUTE_ZERO_C, { error: `${what} cannot be below absolute zero (−273.15 °C)` })
-    .max(100, { error: `${what} above 100 °C is not thawing` });
+const temp = (what: string) => temperatureField(what, 100, "is not thawing");
 const speed = (what: string, max: number) => z.number({ error: `${what}: enter a number` }).min(0, { error: `${what} cannot be negative` }).max(max, { error: `${what} above ${max} m/s is not a kitchen` });
 const positive = (what: string, max: number) => z.number({ error: `${what}: enter a number` }).positive({ error: `${what} must be greater than zero` }).max(max, { error: `${what} is implausibly large` });
 

@@ -3,7 +3,7 @@
  * `holdline schema warmup`. SI units with the unit in each name.
  */
 import { z } from "zod";
-import { productSchema, ruleSetSchema, ABSOLUTE_ZERO_C } from "./templates";
+import { productSchema, ruleSetSchema, temperatureField } from "./templates";
 
 export const LIMIT_KINDS = ["chilledMax", "hotHoldMin", "frozenMax"] as const;
 export type LimitKind = (typeof LIMIT_KINDS)[number];
@@ -15,11 +15,7 @@ export const LIMIT_LABELS: Record<LimitKind, string> = {
 
 export const METHODS = ["auto", "lumped", "series", "numerical"] as const;
 
-const temp = (what: string) =>
-  z
-    .number({ error: `${what}: enter a number` })
-    .min(ABSOLUTE_ZERO_C, { error: `${what} cannot be below absolute zero (−273.15 °C)` })
-    .max(400, { error: `${what} above 400 °C is outside this tool` });
+const temp = (what: string) => temperatureField(what, 400, "is outside this tool");
 
 export const surroundingsSchema = z.object({
   medium: z.enum(["air", "water"], { error: "Surroundings: air or water" }),
