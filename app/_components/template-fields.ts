@@ -31,6 +31,14 @@ export const TEMPLATE_FIELDS: Record<TemplateKind, FieldSpec[]> = {
     { kind: "number", name: "dimA_m", label: "Dimension 1", quantity: "length" },
     { kind: "number", name: "dimB_m", label: "Dimension 2", quantity: "length", nullable: true },
     { kind: "number", name: "dimC_m", label: "Dimension 3", quantity: "length", nullable: true },
+    {
+      kind: "number",
+      name: "wallThickness_m",
+      label: "Wall thickness (hollow items)",
+      quantity: "length",
+      nullable: true,
+      help: "A sphere or cylinder around a closed cavity, such as a whole bird: the average thickness of meat and bone around the cavity. Leave empty for a solid item",
+    },
     { kind: "number", name: "mass_kg", label: "Mass", quantity: "mass" },
     {
       kind: "group",

@@ -3,7 +3,9 @@
  * finite-volume scheme on an enthalpy formulation [patankar1980, voller1990].
  *
  * - Geometry: slab (half-thickness L, symmetric), infinite cylinder or sphere (radius R), vertex-centred
- *   grid with half cells at the centre and at the surface, so both temperatures are node values.
+ *   grid with half cells at the centre and at the surface, so both temperatures are node values. A
+ *   hollow cylinder or sphere (a shell from `innerRadius_m` to R with an insulated inner face, a closed
+ *   cavity) uses the same grid between the two faces; its "centre" is the inner face.
  * - Unknowns: node temperatures; the stored quantity is ρ·H(T) with the material's tabulated enthalpy,
  *   so latent heat is released across the freezing range without tracking a front.
  * - Each step solves the nonlinear balance by Newton iterations on a tridiagonal system, with the
@@ -58,6 +60,8 @@ export type Boundary =
 export interface Solver1DInput {
   shape: Shape1D;
   halfSize_m: number;
+  /** Hollow cylinder or sphere: radius of the insulated inner face (0 or omitted: solid). */
+  innerRadius_m?: number;
   nodes: number;
   material: EnthalpyMaterial;
   initial_C: number | ((xStar: number) => number);
@@ -118,18 +122,21 @@ export function solve1D(inp: Solver1DInput): Solver1DResult {
   requirePositive("dt_s", inp.dt_s);
   const n = inp.nodes;
   const m = M_OF[inp.shape];
-  const dr = L / (n - 1);
-  const r = Float64Array.from({ length: n }, (_, i) => i * dr);
+  const r0 = inp.innerRadius_m ?? 0;
+  if (!(r0 >= 0 && r0 < L)) throw new PhysicsInputError("innerRadius_m", "the inner radius must be at least 0 and smaller than the outer one");
+  if (r0 > 0 && m === 0) throw new PhysicsInputError("innerRadius_m", "a slab cannot be hollow");
+  const dr = (L - r0) / (n - 1);
+  const r = Float64Array.from({ length: n }, (_, i) => r0 + i * dr);
   const vol = new Float64Array(n);
   const area = new Float64Array(n); // area of face between i and i+1
-  for (let i = 0; i < n; i++) vol[i] = shellVolume(m, Math.max(0, r[i] - dr / 2), Math.min(L, r[i] + dr / 2));
+  for (let i = 0; i < n; i++) vol[i] = shellVolume(m, Math.max(r0, r[i] - dr / 2), Math.min(L, r[i] + dr / 2));
   for (let i = 0; i < n - 1; i++) area[i] = Math.pow(r[i] + dr / 2, m);
   const Asurf = Math.pow(L, m);
   const rho = requirePositive("density", inp.material.rho_kg_m3);
   const { H_J_kg: H, c_J_kgK: cOf, k_W_mK: kOf } = inp.material;
 
   const T = new Float64Array(n);
-  for (let i = 0; i < n; i++) T[i] = typeof inp.initial_C === "number" ? inp.initial_C : inp.initial_C(r[i] / L);
+  for (let i = 0; i < n; i++) T[i] = typeof inp.initial_C === "number" ? inp.initial_C : inp.initial_C(i / (n - 1));
   for (let i = 0; i < n; i++) requireTemperature("initial temperature", T[i]);
   const Hold = new Float64Array(n);
   const Told = new Float64Array(n);

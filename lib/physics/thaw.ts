@@ -10,7 +10,7 @@ import { itemShape, type ItemShape } from "./geometry";
 import { itemSurfaceCoefficient, naturalHorizontalPlate, forcedFlatPlate, mixedConvection, radiationCoefficient, type Surroundings } from "./surfaces";
 import { annularFinEfficiency, straightFinEfficiency } from "./fins";
 import { solve1D, type Boundary, type Solver1DResult } from "./solver1d";
-import { plankTime, phamTime } from "./phase-change";
+import { closedFormEstimates, type EstimateInputs } from "./phase-change";
 import { PhysicsInputError } from "./validation";
 
 /** Share of a round item's projected area that actually touches a tray: a circle of half its radius (our assumption). */
@@ -35,7 +35,7 @@ export interface ThawMethodResult {
   surfaceAboveLimit_s: number;
   maxSurface_C: number;
   compliance: ComplianceLine[];
-  estimates: { plank_s: number | null; pham_s: number | null };
+  estimates: { plank_s: number | null; pham_s: number | null; inputs: EstimateInputs };
   h_W_m2K: number;
   startBy: string | null;
   fridgeSpaceTime_m3h: number | null;
@@ -100,6 +100,8 @@ interface Item {
   food: FoodThermal;
   m: 0 | 1 | 2;
   R: number;
+  /** Radius of the insulated cavity face of a hollow item (0 when solid). */
+  Ri: number;
   footprint: { area_m2: number; contact_m2: number; round: boolean; r_m: number; a_m: number; b_m: number };
 }
 
@@ -112,9 +114,12 @@ function makeItem(p: Product): Item {
     mass_kg: p.mass_kg,
     volume_m3: shape.volume_m3,
     isMeatLike: /meat|poultry|fish|beef|pork|lamb|chicken|turkey|cod|salmon/i.test(p.category + " " + p.name),
+    hollow: shape.hollow !== null,
   });
   const m = shape.oneD.shape === "slab" ? 0 : shape.oneD.shape === "cylinder" ? 1 : 2;
-  const R = ((m + 1) * shape.volume_m3) / shape.area_m2;
+  // A solid item: the 1-D shape with the item's own V/A. A hollow one: its real shell.
+  const R = shape.hollow ? shape.hollow.outer_m : ((m + 1) * shape.volume_m3) / shape.area_m2;
+  const Ri = shape.hollow ? shape.hollow.inner_m : 0;
   let footprint: Item["footprint"];
   if (p.shape === "sphere") {
     const r = p.dimA_m / 2;
@@ -127,7 +132,7 @@ function makeItem(p: Product): Item {
     const b = p.dimC_m!;
     footprint = { area_m2: a * b, contact_m2: a * b, round: false, r_m: Math.sqrt((a * b) / Math.PI), a_m: a, b_m: b };
   }
-  return { p, shape, food, m, R, footprint };
+  return { p, shape, food, m, R, Ri, footprint };
 }
 
 function seriesDown(r: Solver1DResult) {
@@ -174,8 +179,9 @@ function runMethod(item: Item, inp: ThawParsed, method: ThawMethod, endPoint_C: 
   const g = shape.convection;
   const Tref = (inp.start_C + endPoint_C) / 2;
   const stop = (st: { center_C: number }) => st.center_C >= endPoint_C;
-  const base = { shape: item.m === 0 ? ("slab" as const) : item.m === 1 ? ("cylinder" as const) : ("sphere" as const), halfSize_m: item.R, nodes: NODES, material: food, initial_C: inp.start_C, tEnd_s: inp.horizon_s, stopWhen: stop };
-  const dt0 = Math.max(1, Math.min(60, (item.R * item.R) / 2e-6 / 300));
+  const base = { shape: item.m === 0 ? ("slab" as const) : item.m === 1 ? ("cylinder" as const) : ("sphere" as const), halfSize_m: item.R, innerRadius_m: item.Ri, nodes: NODES, material: food, initial_C: inp.start_C, tEnd_s: inp.horizon_s, stopWhen: stop };
+  const depth = item.R - item.Ri;
+  const dt0 = Math.max(1, Math.min(60, (depth * depth) / 2e-6 / 300));
   const adaptive = { target_K: 1, dtMax_s: 900 };
   let hShown = 0;
   let medium_C = 0;
@@ -329,28 +335,8 @@ function runMethod(item: Item, inp: ThawParsed, method: ThawMethod, endPoint_C: 
   let maxSurf = -Infinity;
   for (let i = 0; i < result.t_s.length && result.t_s[i] <= tEnd + 1e-9; i++) maxSurf = Math.max(maxSurf, result.surface_C[i]);
 
-  // Second opinion: Plank and Pham's thawing form, with the same coefficient and medium.
-  const kU = food.k_W_mK(food.Tf_C + 2);
-  const kF = food.k_W_mK(Math.min(inp.start_C, food.Tf_C - 5));
-  const E = p.shape === "sphere" ? 3 : shape.oneD.E;
-  const hEst = Math.max(hShown, 0.01);
-  const pl = plankTime({ shape: p.shape === "sphere" ? "sphere" : "slab", a_m: p.shape === "sphere" ? p.dimA_m : 2 * shape.oneD.halfSize_m, rho_kg_m3: food.rho_kg_m3, latent_J_kg: food.latent_J_kg, h_W_m2K: hEst, k_W_mK: kU, Tf_C: food.Tf_C, medium_C, E: p.shape === "sphere" ? 1 : E });
-  const ph = phamTime({
-    E,
-    halfSize_m: shape.oneD.halfSize_m,
-    h_W_m2K: hEst,
-    rhoUnfrozen_kg_m3: food.rho_kg_m3,
-    rhoFrozen_kg_m3: food.rho_kg_m3,
-    cUnfrozen_J_kgK: food.c_J_kgK(food.Tf_C + 2),
-    cFrozen_J_kgK: food.c_J_kgK(Math.min(inp.start_C, food.Tf_C - 10)),
-    kUnfrozen_W_mK: kU,
-    kFrozen_W_mK: kF,
-    latent_J_kg: food.latent_J_kg,
-    Tf_C: food.Tf_C,
-    initial_C: inp.start_C,
-    finalCenter_C: endPoint_C,
-    medium_C,
-  });
+  // Second opinion: Plank and Pham's thawing form, with the same coefficient, medium, latent heat and sensible heats.
+  const closed = closedFormEstimates({ food, shape, productShape: p.shape, h_W_m2K: Math.max(hShown, 0.01), start_C: inp.start_C, end_C: endPoint_C, medium_C });
 
   const compliance = complianceFor(method, rs, above, chill);
   const startBy = inp.readyBy && thawTime !== null ? new Date(new Date(inp.readyBy).getTime() - thawTime * 1000).toISOString() : null;
@@ -363,7 +349,7 @@ function runMethod(item: Item, inp: ThawParsed, method: ThawMethod, endPoint_C: 
     surfaceAboveLimit_s: above,
     maxSurface_C: maxSurf,
     compliance,
-    estimates: { plank_s: pl.value < 1e300 ? pl.value : null, pham_s: ph.value < 1e300 ? ph.value : null },
+    estimates: { plank_s: closed.plank_s, pham_s: closed.pham_s, inputs: closed.inputs },
     h_W_m2K: hShown,
     startBy,
     fridgeSpaceTime_m3h: inFridge && thawTime !== null ? (shape.volume_m3 * thawTime) / 3600 : null,
@@ -372,6 +358,17 @@ function runMethod(item: Item, inp: ThawParsed, method: ThawMethod, endPoint_C: 
     series: seriesDown(result),
     notes,
   };
+}
+
+/** One sentence on why Plank and Pham differ from the numerical answer, with the figures. */
+function estimateSpread(r: ThawMethodResult): string {
+  const t = r.thawTime_s;
+  const pct = (e: number | null) => (e === null || t === null || t <= 0 ? "—" : `${e >= t ? "+" : "−"}${Math.abs((e / t - 1) * 100).toFixed(0)} %`);
+  return (
+    `Plank and Pham (closed-form second opinions) get the same latent heat as the numerical model (${(r.estimates.inputs.latent_J_kg / 1000).toFixed(0)} kJ/kg, the ice present at the start) and sensible specific heats; ` +
+    `they differ from it by ${pct(r.estimates.plank_s)} (Plank) and ${pct(r.estimates.pham_s)} (Pham) because they melt all the ice at one temperature behind a sharp front and use one conductivity, where the food melts gradually below its freezing point and conducts better while still partly frozen; ` +
+    `Plank also ignores warming the frozen core. Pham's thawing form is from memory and unverified. Plan with the numerical figure; a large spread means the item is outside the formulas' usual range`
+  );
 }
 
 function complianceFor(method: ThawMethod, rs: RuleSet, above_s: number, chill: number): ComplianceLine[] {
@@ -439,11 +436,14 @@ export function runThawParsed(inp: ThawParsed): ThawResult {
   }
   const assumptions = [
     `Thawed means the centre reaches ${endPoint_C.toFixed(1)} °C (${inp.endPoint_C === null ? `initial freezing point ${item.food.Tf_C.toFixed(1)} °C plus ${inp.endMargin_K} K` : "as given"}); the item starts uniformly at ${inp.start_C} °C`,
-    `The ${inp.product.shape} is modelled in one dimension (${item.m === 0 ? "slab" : item.m === 1 ? "cylinder" : "sphere"}) with its real volume and surface (half-size ${(item.R * 1000).toFixed(0)} mm); properties follow temperature from the composition, with ice melting over the freezing range`,
+    item.shape.hollow
+      ? `The item is modelled as a hollow ${item.m === 2 ? "sphere" : "cylinder"}: a ${(item.shape.hollow.wall_m * 1000).toFixed(0)} mm wall around a closed cavity, ${(2 * item.R * 1000).toFixed(0)} mm across, heated from outside only (the cavity face insulated); properties follow temperature from the composition, with ice melting over the freezing range. A real carcass is not a uniform wall: its thickest meat sets the thaw time and its thin parts thaw sooner, so the wall should be the deepest meat over the cavity; the answer is only as good as that figure`
+      : `The ${inp.product.shape} is modelled in one dimension (${item.m === 0 ? "slab" : item.m === 1 ? "cylinder" : "sphere"}) with its real volume and surface (half-size ${(item.R * 1000).toFixed(0)} mm); properties follow temperature from the composition, with ice melting over the freezing range`,
     `Surface coefficient ${main.h_W_m2K.toFixed(1)} W/(m²·K) ${inp.overrides.h_W_m2K ? "as given" : "from the core's correlations" + (inp.method.kind.includes("water") ? " in water" : " plus radiation (ε = " + inp.overrides.emissivity + ")")}`,
     "Microwave thawing and thawing as part of cooking are outside this model",
     "Drip loss, packaging air pockets (unless given as packaging) and the shelf around the item are not modelled",
   ];
+  assumptions.push(estimateSpread(main));
   if (item.p.shape === "sphere") assumptions.push(`On a tray, a round item touches it over ${Math.round(ROUND_CONTACT_FRACTION * 100)} % of its projected area (our assumption)`);
   const advice = [
     "Once thawed, cook it or keep it refrigerated at or below the chill limit, and use it promptly.",

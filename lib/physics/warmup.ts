@@ -10,7 +10,7 @@ import { itemShape } from "./geometry";
 import { itemSurfaceCoefficient, type Surroundings } from "./surfaces";
 import { lumpedTheta, seriesMeanTheta, seriesTheta } from "./conduction";
 import { solve1D } from "./solver1d";
-import { plankTime, phamTime, type EstimateShape } from "./phase-change";
+import { closedFormEstimates } from "./phase-change";
 import { PhysicsInputError } from "./validation";
 
 export interface WarmupPoint {
@@ -96,6 +96,7 @@ export function runWarmup(raw: WarmupInput): WarmupResult {
     mass_kg: p.mass_kg,
     volume_m3: shape.volume_m3,
     isMeatLike: /meat|poultry|fish|beef|pork|lamb|chicken|turkey/i.test(p.category + " " + p.name),
+    hollow: shape.hollow !== null,
   });
   warnings.push(...props.warnings);
   const limit_C = limitFor(inp.limit, inp.ruleSet);
@@ -131,7 +132,7 @@ export function runWarmup(raw: WarmupInput): WarmupResult {
   const rho = props.rho_kg_m3;
   const alpha = k / (rho * c);
   const biotLumped = (h * shape.lumpedLength_m) / k;
-  const Lmin = Math.min(...shape.factors.map((f) => f.halfSize_m));
+  const Lmin = shape.hollow ? shape.hollow.wall_m : Math.min(...shape.factors.map((f) => f.halfSize_m));
   const biot = (h * Lmin) / k;
   const phaseChange = Math.min(Ti, Tinf) < props.Tf_C + 1;
 
@@ -142,9 +143,13 @@ export function runWarmup(raw: WarmupInput): WarmupResult {
     reason = `Chosen by the user`;
     if (method !== "numerical" && phaseChange) warnings.push("Freezing or thawing is involved but the chosen method ignores latent heat; use the numerical method");
     if (method === "lumped" && biotLumped >= 0.1) warnings.push(`Lumped capacitance needs Bi < 0.1; here Bi = ${biotLumped.toFixed(2)}`);
+    if (method === "series" && shape.hollow) warnings.push("The series solution is for the solid shape: it ignores the cavity of this hollow item; use the numerical method");
   } else if (phaseChange) {
     method = "numerical";
     reason = `Temperatures reach the freezing range (initial freezing point ${props.Tf_C.toFixed(1)} °C), so latent heat and changing properties matter: numerical enthalpy solver`;
+  } else if (shape.hollow && biotLumped >= 0.1) {
+    method = "numerical";
+    reason = `Bi = ${biotLumped.toFixed(2)} ≥ 0.1 on V/A and the item is hollow, which the series solutions here do not cover: numerical solver on the shell`;
   } else if (biotLumped < 0.1) {
     method = "lumped";
     reason = `Bi = ${biotLumped.toFixed(3)} < 0.1 on V/A: the inside stays nearly uniform, lumped capacitance is valid`;
@@ -204,7 +209,8 @@ export function runWarmup(raw: WarmupInput): WarmupResult {
           let lastTs = NaN;
           let lastH = hc!.hConvective_W_m2K;
           return (_t: number, Ts: number) => {
-            if (Math.abs(Ts - lastTs) > 0.25) {
+            // Re-evaluate when the surface has moved 0.25 K (always on the first call, when lastTs is NaN).
+            if (!(Math.abs(Ts - lastTs) <= 0.25)) {
               lastTs = Ts;
               lastH = itemSurfaceCoefficient(shape.convection, Ts, s, 0, []).hConvective_W_m2K;
             }
@@ -212,12 +218,14 @@ export function runWarmup(raw: WarmupInput): WarmupResult {
           };
         })();
     const alphaMax = Math.max(props.k_W_mK(Math.min(Ti, Tinf)) / (rho * props.c_J_kgK(Math.min(Ti, Tinf) - 5)), alpha, 1e-8);
-    const tau = (oneD.halfSize_m * oneD.halfSize_m) / alphaMax;
+    const depth = oneD.halfSize_m - oneD.innerRadius_m;
+    const tau = (depth * depth) / alphaMax;
     const dt = Math.min(Math.max(tau / 300, 1), horizon / 1000);
     const dtMax = Math.min(900, horizon / 100);
     const r = solve1D({
       shape: oneD.shape,
       halfSize_m: oneD.halfSize_m,
+      innerRadius_m: oneD.innerRadius_m,
       nodes: NODES,
       material: props,
       initial_C: Ti,
@@ -241,30 +249,13 @@ export function runWarmup(raw: WarmupInput): WarmupResult {
 
   let estimates: WarmupResult["estimates"] = null;
   if (phaseChange && Ti < props.Tf_C && Tinf > props.Tf_C) {
-    const oneD = shape.oneD;
-    const eShape: EstimateShape = p.shape === "sphere" ? "sphere" : "slab";
-    const E = p.shape === "sphere" ? 1 : oneD.E;
-    const kU = props.k_W_mK(props.Tf_C + 1);
-    const kF = props.k_W_mK(Math.min(Ti, props.Tf_C - 5));
-    const pl = plankTime({ shape: eShape, a_m: 2 * oneD.halfSize_m, rho_kg_m3: rho, latent_J_kg: props.latent_J_kg, h_W_m2K: h, k_W_mK: kU, Tf_C: props.Tf_C, medium_C: Tinf, E });
-    const ph = phamTime({
-      E: p.shape === "sphere" ? 3 : oneD.E,
-      halfSize_m: oneD.halfSize_m,
-      h_W_m2K: h,
-      rhoUnfrozen_kg_m3: rho,
-      rhoFrozen_kg_m3: rho,
-      cUnfrozen_J_kgK: props.c_J_kgK(props.Tf_C + 2),
-      cFrozen_J_kgK: props.c_J_kgK(Math.min(Ti, props.Tf_C - 10)),
-      kUnfrozen_W_mK: kU,
-      kFrozen_W_mK: kF,
-      latent_J_kg: props.latent_J_kg,
-      Tf_C: props.Tf_C,
-      initial_C: Ti,
-      finalCenter_C: Math.max(props.Tf_C + 0.5, 0),
-      medium_C: Tinf,
-    });
-    estimates = { plank_s: pl.value < 1e300 ? pl.value : null, pham_s: ph.value < 1e300 ? ph.value : null };
-    warnings.push(...pl.warnings.filter((w) => !warnings.includes(w)), ...ph.warnings.filter((w) => !warnings.includes(w)));
+    // Same latent heat and sensible (latent-free) specific heats as the enthalpy model.
+    const closed = closedFormEstimates({ food: props, shape, productShape: p.shape, h_W_m2K: h, start_C: Ti, end_C: Math.max(props.Tf_C + 0.5, 0), medium_C: Tinf });
+    estimates = { plank_s: closed.plank_s, pham_s: closed.pham_s };
+    warnings.push(...closed.warnings.filter((w) => !warnings.includes(w)));
+    assumptions.push(
+      `Plank and Pham are closed-form second opinions with the numerical model's latent heat (${(closed.inputs.latent_J_kg / 1000).toFixed(0)} kJ/kg, the ice present at the start) and sensible specific heats; they melt all the ice at one temperature and use one conductivity, so they differ from the numerical answer, usually by tens of per cent. Pham's thawing form is from memory and unverified`,
+    );
   }
 
   series = series.map((pt) => ({ t_s: pt.t_s, center_C: round(pt.center_C), surface_C: round(pt.surface_C), mean_C: round(pt.mean_C) }));

@@ -94,6 +94,9 @@ export const productSchema = z
     dimA_m: positive("This size"),
     dimB_m: positive("This size").nullable().default(null),
     dimC_m: positive("This size").nullable().default(null),
+    /** Hollow sphere or cylinder (a whole bird with its body cavity): thickness of the solid wall around a closed cavity. */
+    // Optional (absent = solid) so that products written before this field still type-check and load.
+    wallThickness_m: positive("Wall thickness").nullable().optional(),
     mass_kg: positive("Mass"),
     composition: compositionSchema,
     compositionSource: z.string().max(400).default(""),
@@ -117,6 +120,13 @@ export const productSchema = z
     }
     if (need >= 3 && (p.dimC_m === null || p.dimC_m === undefined)) {
       ctx.addIssue({ code: "custom", path: ["dimC_m"], message: `${SHAPE_DIMENSIONS[p.shape][2]}: required for a ${p.shape}` });
+    }
+    if (p.wallThickness_m !== null && p.wallThickness_m !== undefined && Number.isFinite(p.wallThickness_m)) {
+      if (p.shape !== "sphere" && p.shape !== "cylinder") {
+        ctx.addIssue({ code: "custom", path: ["wallThickness_m"], message: "Wall thickness: only a sphere or a cylinder can be hollow; leave it empty" });
+      } else if (Number.isFinite(p.dimA_m) && p.wallThickness_m >= p.dimA_m / 2) {
+        ctx.addIssue({ code: "custom", path: ["wallThickness_m"], message: "Wall thickness: must be less than half the diameter (leave it empty for a solid item)" });
+      }
     }
   });
 export type ProductInput = z.input<typeof productSchema>;
