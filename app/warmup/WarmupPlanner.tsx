@@ -192,6 +192,7 @@ export function WarmupPlanner({ products, ruleSets, defaultRuleSet }: { products
       t_h: p.t_s / 3600,
       center: roundForDisplay(toDisplay("temperature", p.center_C, units), 5),
       surface: roundForDisplay(toDisplay("temperature", p.surface_C, units), 5),
+      midFace: roundForDisplay(toDisplay("temperature", p.midFace_C, units), 5),
       mean: roundForDisplay(toDisplay("temperature", p.mean_C, units), 5),
     }));
     const limitShown = roundForDisplay(toDisplay("temperature", r.limit_C, units), 4);
@@ -202,9 +203,21 @@ export function WarmupPlanner({ products, ruleSets, defaultRuleSet }: { products
         <table className="list summary" data-testid="time-to-limit">
           <tbody>
             <tr>
-              <th>Surface</th>
+              <th>Surface{r.surfacePoint === "corner" ? " (corner, first to cross)" : r.surfacePoint === "edge" ? " (rim, first to cross)" : r.surfacePoint === "mid-face" ? " (middle of the largest face)" : ""}</th>
               <td data-testid="ttl-surface">{r.timeToLimit_s.surface === null ? "not within the time looked at" : formatDuration(r.timeToLimit_s.surface)}</td>
             </tr>
+            {r.surfacePoint === "corner" ? (
+              <tr>
+                <th>Edge</th>
+                <td data-testid="ttl-edge">{r.timeToLimit_s.edge === null ? "not within the time looked at" : formatDuration(r.timeToLimit_s.edge)}</td>
+              </tr>
+            ) : null}
+            {r.surfacePoint === "corner" || r.surfacePoint === "edge" ? (
+              <tr>
+                <th>Middle of the face</th>
+                <td data-testid="ttl-midface">{r.timeToLimit_s.midFace === null ? "not within the time looked at" : formatDuration(r.timeToLimit_s.midFace)}</td>
+              </tr>
+            ) : null}
             <tr>
               <th>Centre</th>
               <td data-testid="ttl-center">{r.timeToLimit_s.center === null ? "not within the time looked at" : formatDuration(r.timeToLimit_s.center)}</td>
@@ -220,7 +233,8 @@ export function WarmupPlanner({ products, ruleSets, defaultRuleSet }: { products
           unit={tUnit}
           limits={[{ y: limitShown, label: `limit ${limitShown} ${tUnit}` }]}
           lines={[
-            { key: "surface", label: "surface", color: "#b4641e" },
+            { key: "surface", label: r.surfacePoint === "corner" ? "surface (corner)" : r.surfacePoint === "edge" ? "surface (rim)" : "surface", color: "#b4641e" },
+            ...(r.surfacePoint === "corner" || r.surfacePoint === "edge" ? [{ key: "midFace", label: "middle of the face", color: "#c9a27a", dashed: true }] : []),
             { key: "center", label: "centre", color: "#235a6b" },
             { key: "mean", label: "mass average", color: "#6b7378", dashed: true },
           ]}

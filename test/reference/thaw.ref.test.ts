@@ -1,10 +1,11 @@
 import { describe, it, expect } from "vitest";
-import { runThaw, DEFAULT_TRAY } from "../../lib/physics/thaw";
+import { runThaw, runThawParsed, DEFAULT_TRAY } from "../../lib/physics/thaw";
+import { thawInputSchema } from "../../lib/schemas/thaw";
 import { annularFinEfficiency, straightFinEfficiency } from "../../lib/physics/fins";
 import { DEMO_SCENARIO as D } from "../../lib/db/demo-scenario";
-import { foodThermal } from "../../lib/physics/properties";
+import { foodThermal, simpleMaterial } from "../../lib/physics/properties";
 import { solve1D } from "../../lib/physics/solver1d";
-import { phamTime, plankTime } from "../../lib/physics/phase-change";
+import { phamTime, plankTime, shellEstimateGeometry } from "../../lib/physics/phase-change";
 
 const turkey = D.products.find((p) => p.name.startsWith("Whole turkey"))!;
 const cod = D.products.find((p) => p.name.startsWith("Cod"))!;
@@ -12,30 +13,73 @@ const us = D.rulesets.find((r) => r.name.startsWith("US"))!;
 const LB = 0.45359237;
 
 describe("USDA FSIS consumer thawing guidance (\"The Big Thaw — Safe Defrosting Methods\"; \"Turkey Basics: Safe Thawing\")", () => {
-  // Planning figures with a safety margin, used as plausibility ranges (published-values.md §4.2, CONFIRMED):
-  // refrigerator about 24 h per 4–5 lb of a large bird; cold water about 30 min per lb, water changed every 30 min.
-  // The demo bird is a 6 kg (13.2 lb) solid sphere of equal volume, from 0 °F (−18 °C). A real bird is hollow and
-  // longer, so it thaws faster in water, where conduction inside limits the rate; the bands below say so.
-  const lb = turkey.mass_kg / LB;
+  // Planning figures with a safety margin (published-values.md §4.2, CONFIRMED): refrigerator about 24 h per
+  // 4–5 lb of a large bird; cold water about 30 min per lb, water changed every 30 min. They are plausibility
+  // bounds, not measurements. The demo bird is a hollow sphere: a 50 mm wall (the deepest meat over the cavity)
+  // around a closed cavity, its outer size set by mass and composition density. 4 and 9 kg birds are the same
+  // bird scaled geometrically (every length × (m/6 kg)^(1/3)), so physics scales with m^(2/3) while the guidance
+  // is linear in mass: the ratio falls with size by construction.
+  // Bands (stated before running): cold water 0.6–1.25 × the guidance — a well-specified bird should thaw within
+  // the planning figure, which has a margin, and not in much less; refrigerator 0.3–1.25 × — the guidance assumes
+  // a household fridge (often 1–3 °C, a bagged bird on a tray), the model 4.4 °C air moving at 0.1 m/s on a bare
+  // bird, and it sits well below the guidance; see the report for what remains.
+  // Before (solid sphere of equal volume, 6 kg): refrigerator 49.4 h vs 63–79 h; cold water 13.4 h vs 6.6 h (2.03 ×).
+  const bird = (kg: number) => {
+    const s = Math.cbrt(kg / turkey.mass_kg);
+    return { ...turkey, name: `Whole turkey, ${kg} kg`, mass_kg: kg, dimA_m: turkey.dimA_m * s, wallThickness_m: turkey.wallThickness_m! * s };
+  };
+  const fridge = { kind: "fridge_air" as const, air_C: 4.4, speed_m_s: 0.1 };
+  const coldWater = { kind: "still_water" as const, water_C: 15, bath_m3: 0.03, changeEvery_s: 1800, room_C: 21, packaging: { thickness_m: 0.0001, k_W_mK: 0.33 } };
 
-  it("refrigerator at 40 °F (4.4 °C), still air: within 0.5–1.25 × the guidance (24 h per 4–5 lb)", () => {
-    const r = runThaw({ product: turkey, start_C: -18, ruleSet: us, method: { kind: "fridge_air", air_C: 4.4, speed_m_s: 0.1 } });
-    const guide_h = [(lb / 5) * 24, (lb / 4) * 24];
-    const model_h = r.thawTime_s! / 3600;
-    console.log(`USDA fridge: model ${model_h.toFixed(1)} h, guidance ${guide_h[0].toFixed(0)}–${guide_h[1].toFixed(0)} h`);
-    expect(model_h).toBeGreaterThan(0.5 * guide_h[0]);
-    expect(model_h).toBeLessThan(1.25 * guide_h[1]);
-    expect(r.energyBalanceError).toBeLessThan(1e-9);
+  it("the demo bird's shell holds its stated mass at the composition density (volume consistent with mass)", () => {
+    const r = runThawParsed(thawInputSchema.parse({ product: turkey, start_C: -18, ruleSet: us, method: fridge }));
+    expect(r.warnings.join(" ")).not.toMatch(/shell holds|porous/);
+    expect(r.assumptions.join(" ")).toMatch(/hollow sphere: a 50 mm wall/);
   });
 
-  it("cold water (15 °C) changed every 30 min: within 1–2.5 × the guidance (30 min per lb), a solid sphere being slower than a hollow bird", () => {
-    const r = runThaw({ product: turkey, start_C: -18, ruleSet: us, method: { kind: "still_water", water_C: 15, bath_m3: 0.03, changeEvery_s: 1800, room_C: 21, packaging: { thickness_m: 0.0001, k_W_mK: 0.33 } } });
-    const guide_h = lb * 0.5;
-    const model_h = r.thawTime_s! / 3600;
-    console.log(`USDA cold water: model ${model_h.toFixed(1)} h, guidance ${guide_h.toFixed(1)} h (ratio ${(model_h / guide_h).toFixed(2)})`);
-    expect(model_h / guide_h).toBeGreaterThan(1);
-    expect(model_h / guide_h).toBeLessThan(2.5);
-    expect(r.energyBalanceError).toBeLessThan(1e-9);
+  for (const kg of [4, 6, 9]) {
+    it(`${kg} kg bird from 0 °F (−18 °C): refrigerator 0.3–1.25 × and cold water 0.6–1.25 × the guidance`, () => {
+      const lb = kg / LB;
+      const f = runThawParsed(thawInputSchema.parse({ product: bird(kg), start_C: -18, ruleSet: us, method: fridge }));
+      const w = runThawParsed(thawInputSchema.parse({ product: bird(kg), start_C: -18, ruleSet: us, method: coldWater }));
+      const fridge_h = f.thawTime_s! / 3600;
+      const water_h = w.thawTime_s! / 3600;
+      const guideFridge = [(lb / 5) * 24, (lb / 4) * 24];
+      const guideWater = lb * 0.5;
+      console.log(
+        `USDA ${kg} kg (${lb.toFixed(1)} lb): refrigerator ${fridge_h.toFixed(1)} h vs ${guideFridge[0].toFixed(0)}–${guideFridge[1].toFixed(0)} h (ratio ${(fridge_h / guideFridge[1]).toFixed(2)}–${(fridge_h / guideFridge[0]).toFixed(2)}); ` +
+          `cold water ${water_h.toFixed(1)} h vs ${guideWater.toFixed(1)} h (ratio ${(water_h / guideWater).toFixed(2)})`,
+      );
+      expect(fridge_h / guideFridge[0]).toBeGreaterThan(0.3);
+      expect(fridge_h / guideFridge[1]).toBeLessThan(1.25);
+      expect(water_h / guideWater).toBeGreaterThan(0.6);
+      expect(water_h / guideWater).toBeLessThan(1.25);
+      expect(f.energyBalanceError).toBeLessThan(1e-9);
+      expect(w.energyBalanceError).toBeLessThan(1e-9);
+    });
+  }
+});
+
+describe("hollow shell against Plank's quasi-steady limit (hand calculation from Plank's assumptions)", () => {
+  // With a negligible sensible heat (Stefan number → 0) and a sharp melting point, the numerical thaw of a shell
+  // must approach Plank's integral for the shell: t = ρL/ΔT (ℓ/h + S/k), sphere S = [(R² − Ri²)/2 − Ri² + Ri³/R]/3,
+  // ℓ = (R³ − Ri³)/(3R²) (derived in lib/physics/phase-change.ts). R = 0.12 m, Ri = 0.07 m, h = 50, k = 0.5,
+  // ρ = 1000, L = 300 kJ/kg, ΔT = 10 K: ℓ = 1.385e-3/0.0432 = 0.03206 m, S = (0.00475 − 0.0049 + 0.002858)/3 = 9.028e-4 m²,
+  // t = 3×10⁸/10 × (6.41e-4 + 1.806e-3) = 73 400 s.
+  it("spherical and cylindrical shells within 3 % of the Plank integral; the solid sphere reproduces Plank's 1/6, 1/24", () => {
+    const mat = simpleMaterial({ rho_kg_m3: 1000, cSolid_J_kgK: 100, cLiquid_J_kgK: 100, kSolid_W_mK: 0.5, kLiquid_W_mK: 0.5, melt_C: 0, latent_J_kg: 300_000, mushy_K: 0.2 });
+    const g = shellEstimateGeometry("sphere", 0.12, 0.07);
+    expect(g.lumped_m).toBeCloseTo(0.03206, 4);
+    expect(g.S_m2).toBeCloseTo(9.028e-4, 6);
+    expect(plankTime({ shape: "sphere", a_m: 0.24, innerDiameter_m: 0.14, rho_kg_m3: 1000, latent_J_kg: 300_000, h_W_m2K: 50, k_W_mK: 0.5, Tf_C: 0, medium_C: 10 }).value / 73_400).toBeCloseTo(1, 2);
+    for (const [shape, Ri] of [["sphere", 0.07], ["cylinder", 0.07], ["sphere", 0]] as const) {
+      const r = solve1D({ shape, halfSize_m: 0.12, innerRadius_m: Ri, nodes: 121, material: mat, initial_C: -0.1, boundary: { kind: "convective", h_W_m2K: () => 50, fluid_C: () => 10 }, tEnd_s: 1e7, dt_s: 20, adaptive: { target_K: 2, dtMax_s: 600 }, stopWhen: (st) => st.center_C >= 0.1 });
+      const t = r.t_s.at(-1)!;
+      const pl = plankTime({ shape, a_m: 0.24, innerDiameter_m: Ri ? 2 * Ri : undefined, rho_kg_m3: 1000, latent_J_kg: 300_000, h_W_m2K: 50, k_W_mK: 0.5, Tf_C: 0, medium_C: 10 }).value;
+      console.log(`${shape} shell Ri = ${Ri}: numerical ${(t / 3600).toFixed(2)} h, Plank integral ${(pl / 3600).toFixed(2)} h`);
+      expect(Math.abs(t / pl - 1)).toBeLessThan(0.03);
+      expect(Math.abs(r.energyError_J / r.storedChange_J)).toBeLessThan(1e-9);
+    }
   });
 });
 
