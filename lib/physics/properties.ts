@@ -121,7 +121,7 @@ export function initialFreezingEstimate(c: Composition): { Tf_C: number; raw_C: 
   const [lo, hi] = PHAM_TF_WATER_RANGE;
   if (c.water < lo || c.water > hi) {
     warnings.push(
-      `The composition has ${(c.water * 100).toFixed(0)} % water, outside the ${lo * 100}–${hi * 100} % that Pham's (1996) freezing-point formula was fitted to: the estimate is rough, give the measured initial freezing point if you have it`,
+      `The composition has ${(c.water * 100).toFixed(0)} % water, outside the ${Math.round(lo * 100)}–${Math.round(hi * 100)} % that Pham's (1996) freezing-point formula was fitted to: the estimate is rough, give the measured initial freezing point if you have it`,
     );
   }
   if (!(Tf >= TF_ESTIMATE_FLOOR_C)) {

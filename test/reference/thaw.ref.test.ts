@@ -125,10 +125,32 @@ describe("agreement with the closed-form estimates (Plank 1913; Pham 1986)", () 
     }
   });
 
+  // The formulas get what the enthalpy model uses: the latent heat it releases between the start and the end point
+  // (the ice present at the start, x_ice = (x_w − 0.4 x_p)(1 − t_f/t), ASHRAE Refrigeration Handbook 2006, Ch. 9),
+  // and sensible specific heats without the latent part. Hand calculation for the demo cod block from −18 °C
+  // (t_f −2.2 °C): x_ice = (0.812 − 0.0712)(1 − 2.2/18) = 0.6502, latent 0.6502 × 333.6 = 216.9 kJ/kg (before: all
+  // the water, 270.9 kJ/kg, and Pham's frozen specific heat was the apparent one at −18 °C, about 3.6 kJ/(kg·K)).
+  it("Plank and Pham receive the enthalpy model's latent heat and sensible specific heats (demo cod block)", () => {
+    const r = runThawParsed(thawInputSchema.parse({ product: cod, start_C: -18, ruleSet: us, method: { kind: "running_water", water_C: 15, speed_m_s: 0.05, packaging: null } }));
+    const inp = r.estimates.inputs;
+    expect(inp.latent_J_kg / 216_900).toBeCloseTo(1, 2);
+    const f = foodThermal({ composition: cod.composition, initialFreezing_C: cod.initialFreezing_C });
+    // Energy: H(end) − H(start) = latent + c_frozen (t_f − start) + c_thawed (end − t_f), within 0.5 %.
+    const dH = f.H_J_kg(r.endPoint_C) - f.H_J_kg(-18);
+    const parts = inp.latent_J_kg + inp.cFrozen_J_kgK * (f.Tf_C + 18) + inp.cUnfrozen_J_kgK * (r.endPoint_C - f.Tf_C);
+    expect(Math.abs(parts / dH - 1)).toBeLessThan(0.005);
+    // Sensible, not apparent: between ASHRAE Table 3's frozen (2.14) and unfrozen (3.77) values for cod.
+    expect(inp.cFrozen_J_kgK).toBeGreaterThan(2000);
+    expect(inp.cFrozen_J_kgK).toBeLessThan(2800);
+    expect(r.assumptions.join(" ")).toMatch(/Plank and Pham .* same latent heat .* differ from it by/);
+  });
+
   // Thawing: Góral, Kluza, Spiess & Kozłowicz (2016), Food Technol. Biotechnol. 54(1):3–12 find no simple thawing
   // formula accurate over a wide range, and Pham's thawing form here is from memory. With the ASHRAE ice-fraction
   // model much of the ice melts well below the freezing point, where the food still conducts well, so the numerical
   // thaw is faster than both formulas. Accepted: each formula within a factor of 2 of the numerical time.
+  // Before (all the water as latent heat, apparent frozen c): running water Plank 1.68 ×, Pham 1.82 × the numerical
+  // 1.67 h; room air 1.28 ×, 1.43 × of 7.53 h. After: 1.34 ×, 1.43 × and 1.03 ×, 1.12 ×.
   it("thawing a 50 mm slab of cod in running water (high Bi) and in moving air (low Bi)", () => {
     const slab = { ...cod, shape: "slab" as const, dimA_m: 0.05, dimB_m: 0.6, dimC_m: 0.8, mass_kg: 0.05 * 0.6 * 0.8 * 1060 };
     for (const method of [
