@@ -226,7 +226,10 @@ export function ThawPlanner({ products, ruleSets, trays, defaultRuleSet }: { pro
             <tr>
               <th>Second opinion</th>
               <td>
-                Plank {formatDuration(r.estimates.plank_s)}, Pham {formatDuration(r.estimates.pham_s)}
+                Plank {formatDuration(r.estimates.plank_s)}, Pham {formatDuration(r.estimates.pham_s)}{" "}
+                <span className="muted" data-testid="estimate-inputs">
+                  (closed-form, with the model&rsquo;s latent heat {(r.estimates.inputs.latent_J_kg / 1000).toFixed(0)} kJ/kg and sensible specific heats {(r.estimates.inputs.cFrozen_J_kgK / 1000).toFixed(2)} frozen, {(r.estimates.inputs.cUnfrozen_J_kgK / 1000).toFixed(2)} thawed kJ/(kg·K); why they differ is under Assumptions)
+                </span>
               </td>
             </tr>
           </tbody>
