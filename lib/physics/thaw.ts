@@ -444,6 +444,11 @@ export function runThawParsed(inp: ThawParsed): ThawResult {
     "Drip loss, packaging air pockets (unless given as packaging) and the shelf around the item are not modelled",
   ];
   assumptions.push(estimateSpread(main));
+  if (inp.product.initialFreezing_C === null || inp.product.initialFreezing_C === undefined) {
+    assumptions.push(
+      `The initial freezing point, ${item.food.Tf_C.toFixed(1)} °C, is estimated from the composition, and the end point follows it. Measured values can differ by a kelvin or more (chicken measures about −1.1 to −1.4 °C), which can lengthen or shorten a refrigerator thaw by a third: enter a measured or tabled value if you have one`,
+    );
+  }
   if (item.p.shape === "sphere") assumptions.push(`On a tray, a round item touches it over ${Math.round(ROUND_CONTACT_FRACTION * 100)} % of its projected area (our assumption)`);
   const advice = [
     "Once thawed, cook it or keep it refrigerated at or below the chill limit, and use it promptly.",
