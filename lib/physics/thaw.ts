@@ -352,7 +352,7 @@ function runMethod(item: Item, inp: ThawParsed, method: ThawMethod, endPoint_C: 
     estimates: { plank_s: closed.plank_s, pham_s: closed.pham_s, inputs: closed.inputs },
     h_W_m2K: hShown,
     startBy,
-    fridgeSpaceTime_m3h: inFridge && thawTime !== null ? (shape.volume_m3 * thawTime) / 3600 : null,
+    fridgeSpaceTime_m3h: inFridge && thawTime !== null ? ((shape.volume_m3 + (shape.hollow?.cavity_m3 ?? 0)) * thawTime) / 3600 : null,
     energyBalanceError: Math.abs(result.energyError_J) / Math.max(Math.abs(result.storedChange_J), 1e-30),
     steps: result.steps,
     series: seriesDown(result),

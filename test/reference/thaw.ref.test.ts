@@ -48,7 +48,8 @@ describe("USDA FSIS consumer thawing guidance (\"The Big Thaw — Safe Defrostin
       const guideWater = lb * 0.5;
       console.log(
         `USDA ${kg} kg (${lb.toFixed(1)} lb): refrigerator ${fridge_h.toFixed(1)} h vs ${guideFridge[0].toFixed(0)}–${guideFridge[1].toFixed(0)} h (ratio ${(fridge_h / guideFridge[1]).toFixed(2)}–${(fridge_h / guideFridge[0]).toFixed(2)}); ` +
-          `cold water ${water_h.toFixed(1)} h vs ${guideWater.toFixed(1)} h (ratio ${(water_h / guideWater).toFixed(2)})`,
+          `cold water ${water_h.toFixed(1)} h vs ${guideWater.toFixed(1)} h (ratio ${(water_h / guideWater).toFixed(2)}); ` +
+          `Plank/Pham ÷ numerical: refrigerator ${(f.estimates.plank_s! / f.thawTime_s!).toFixed(2)}/${(f.estimates.pham_s! / f.thawTime_s!).toFixed(2)}, water ${(w.estimates.plank_s! / w.thawTime_s!).toFixed(2)}/${(w.estimates.pham_s! / w.thawTime_s!).toFixed(2)}`,
       );
       expect(fridge_h / guideFridge[0]).toBeGreaterThan(0.3);
       expect(fridge_h / guideFridge[1]).toBeLessThan(1.25);
