@@ -24,6 +24,10 @@ describe("USDA FSIS consumer thawing guidance (\"The Big Thaw — Safe Defrostin
   // a household fridge (often 1–3 °C, a bagged bird on a tray), the model 4.4 °C air moving at 0.1 m/s on a bare
   // bird, and it sits well below the guidance; see the report for what remains.
   // Before (solid sphere of equal volume, 6 kg): refrigerator 49.4 h vs 63–79 h; cold water 13.4 h vs 6.6 h (2.03 ×).
+  // After (6 kg): refrigerator 34.8 h (0.44–0.55 ×), cold water 5.5 h (0.84 ×). What remains in the refrigerator is
+  // mostly the freezing point and the fridge: with chicken's measured −1.2 °C (DSC, UNCERTAIN) instead of Pham's
+  // estimate −2.5 °C the 6 kg bird takes 47.5 h; in a 2 °C fridge 48.2 h; both together 73.8 h (0.93–1.16 ×);
+  // cold water with −1.2 °C: 6.6 h (0.99 ×). Measured in this file's set-up when these bands were written.
   const bird = (kg: number) => {
     const s = Math.cbrt(kg / turkey.mass_kg);
     return { ...turkey, name: `Whole turkey, ${kg} kg`, mass_kg: kg, dimA_m: turkey.dimA_m * s, wallThickness_m: turkey.wallThickness_m! * s };
