@@ -194,9 +194,10 @@ export function runWarmup(raw: WarmupInput): WarmupResult {
     // Product solution (Incropera §5.8): a point on n faces at once takes the surface value of those n factors
     // and the centre value of the rest. Mid-face: the thinnest direction only; edge: the two thinnest; corner: all.
     const order = shape.factors.map((f, i) => ({ i, L: f.halfSize_m })).sort((x, y) => x.L - y.L).map((x) => x.i);
-    const thetaAt = (t: number, where: "center" | "surface" | "mean" | number) => {
+    // `where`: "center", "mean", or how many of the thinnest directions are at their surface (1 mid-face, 2 edge, 3 corner).
+    const thetaAt = (t: number, where: "center" | "mean" | number) => {
       let th = 1;
-      const atSurface = where === "center" ? 0 : where === "surface" ? 1 : typeof where === "number" ? where : 0;
+      const atSurface = typeof where === "number" ? where : 0;
       shape.factors.forEach((fct, i) => {
         const Bi = (h * fct.halfSize_m) / k;
         const Fo = (alpha * t) / (fct.halfSize_m * fct.halfSize_m);
