@@ -12,7 +12,7 @@ import { UnitInput } from "@/app/_components/UnitInput";
 import { useUnits } from "@/app/_components/units-context";
 import { useMounted } from "@/app/_components/useMounted";
 import { CautionBlock } from "@/app/_components/CautionBlock";
-import { NoResult, FactList, NamedSelect, FieldMessage, SavedNotice } from "@/app/_components/ResultParts";
+import { NoResult, FactList, NamedSelect, FieldMessage, SavedNotice, ComplianceList } from "@/app/_components/ResultParts";
 import { TemperatureChart } from "@/app/_components/TemperatureChart";
 import { downloadCsv } from "@/app/_components/csv";
 import { savePlanAction } from "@/app/plans/actions";
@@ -381,6 +381,7 @@ export function HoldPlanner(props: HoldPlannerProps) {
             );
           })}
         </ul>
+        <ComplianceList lines={r.compliance} title="Out of its band: against the rule set" />
         <FactList title="Assumptions" items={r.assumptions} testId="assumptions" />
         <FactList title="Warnings" items={r.warnings} warn />
       </>
