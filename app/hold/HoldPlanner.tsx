@@ -218,7 +218,7 @@ export function HoldPlanner(props: HoldPlannerProps) {
                   kind: "hold",
                   name: planName.trim() || `${values.shipper?.name} on ${values.route?.name}`,
                   input: JSON.parse(key),
-                  result: { holdTime_s: r.holdTime_s, margin_s: r.margin_s, failsFirst: r.failsFirst, band: r.band, heatGain_J: r.heatGain_J, energyBalanceError: r.energyBalanceError, warnings: r.warnings },
+                  result: { holdTime_s: r.holdTime_s, margin_s: r.margin_s, failsFirst: r.failsFirst, band: r.band, heatGain_J: r.heatGain_J, energyBalanceError: r.energyBalanceError, compliance: r.compliance, warnings: r.warnings },
                 });
                 if (res.ok) setSaved(res.id);
               }}

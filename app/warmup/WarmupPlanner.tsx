@@ -172,7 +172,7 @@ export function WarmupPlanner({ products, ruleSets, defaultRuleSet }: { products
                   kind: "warmup",
                   name: planName.trim() || `${input.product.name} from ${input.start_C} °C`,
                   input,
-                  result: { method: r.method, limit_C: r.limit_C, timeToLimit_s: r.timeToLimit_s, biot: r.biotLumped, h_W_m2K: r.h_W_m2K, warnings: r.warnings, assumptions: r.assumptions },
+                  result: { method: r.method, limit_C: r.limit_C, timeToLimit_s: r.timeToLimit_s, biot: r.biotLumped, h_W_m2K: r.h_W_m2K, compliance: r.compliance, warnings: r.warnings, assumptions: r.assumptions },
                 });
                 if (res.ok) setSaved({ id: res.id });
               }}
