@@ -290,7 +290,8 @@ export function holdCompliance(
 }
 
 /**
- * Warm-up / cool-down check: a cool-down from hot is judged against the two cooling stages (on the
+ * Warm-up / cool-down check: a cool-down from hot (to the hot-holding limit, or any other limit for
+ * food that starts above the stage-1 end and cools) is judged against the two cooling stages (on the
  * warmest point); food warming from chilled gets the cold-food time-as-a-control line (does the
  * warmest point stay below the ceiling for the allowance?).
  */
@@ -304,13 +305,14 @@ export function warmupCompliance(
 ): ComplianceLine[] {
   const t = series.map((p) => p.t_s);
   const out: ComplianceLine[] = [];
-  if (direction === "cooling") {
-    const warmest = extremeCurve(t, series.map((p) => p.center_C), series.map((p) => p.surface_C), true);
+  const warmest = extremeCurve(t, series.map((p) => p.center_C), series.map((p) => p.surface_C), true);
+  // Food that starts hot and cools is judged against the cooling stages, whichever limit was asked for.
+  const cools = warmest.T_C.length > 1 && warmest.T_C[warmest.T_C.length - 1] < warmest.T_C[0];
+  if (direction === "cooling" || (cools && rs.coolStage1To_C !== null && start_C > rs.coolStage1To_C)) {
     out.push(...coolingStageLines(rs, warmest, horizon_s));
     return out;
   }
   if (limit_C !== rs.chilledMax_C) return out;
-  const warmest = extremeCurve(t, series.map((p) => p.center_C), series.map((p) => p.surface_C), true);
   if (rs.outsideControlColdMax_s !== null && rs.outsideControlColdCeiling_C !== null) {
     const ceiling = rs.outsideControlColdCeiling_C;
     const allow = rs.outsideControlColdMax_s;

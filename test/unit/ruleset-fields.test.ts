@@ -177,3 +177,14 @@ describe("compliance: the judgements themselves", () => {
     expect(warmupCompliance({ ...r, outsideControlColdCeiling_C: 6, outsideControlColdMax_s: 6 * 3600 }, "warming", 5, 3, [0, 3600, 7 * 3600].map((t, i) => ({ t_s: t, center_C: 3 + i, surface_C: 3 + 2 * i })), 7 * 3600)[0].status).toBe("exceeds");
   });
 });
+
+describe("compliance: a cool-down is judged whichever limit the user picked", () => {
+  it("hot food cooling towards the chill limit still gets the cooling stages", () => {
+    const c = coolCurve(1.45 * 3600);
+    const series = c.t_s.map((t, i) => ({ t_s: t, center_C: c.T_C[i], surface_C: c.T_C[i] - 1 }));
+    expect(warmupCompliance(US, "warming", 5, 75, series, 12 * 3600).map((l) => l.rule)).toEqual([
+      "Cooling stage 1: 57 °C → 21 °C within 2.0 h",
+      "Cooling stage 2: to 5 °C within 6.0 h of the start, in all",
+    ]);
+  });
+});
