@@ -12,7 +12,7 @@ import { UnitInput } from "@/app/_components/UnitInput";
 import { useUnits } from "@/app/_components/units-context";
 import { useMounted } from "@/app/_components/useMounted";
 import { CautionBlock } from "@/app/_components/CautionBlock";
-import { NoResult, FactList, NamedSelect, FieldMessage, SavedNotice } from "@/app/_components/ResultParts";
+import { NoResult, FactList, NamedSelect, FieldMessage, SavedNotice, ComplianceList } from "@/app/_components/ResultParts";
 import { TemperatureChart } from "@/app/_components/TemperatureChart";
 import { downloadCsv } from "@/app/_components/csv";
 import { savePlanAction } from "@/app/plans/actions";
@@ -218,7 +218,7 @@ export function HoldPlanner(props: HoldPlannerProps) {
                   kind: "hold",
                   name: planName.trim() || `${values.shipper?.name} on ${values.route?.name}`,
                   input: JSON.parse(key),
-                  result: { holdTime_s: r.holdTime_s, margin_s: r.margin_s, failsFirst: r.failsFirst, band: r.band, heatGain_J: r.heatGain_J, energyBalanceError: r.energyBalanceError, warnings: r.warnings },
+                  result: { holdTime_s: r.holdTime_s, margin_s: r.margin_s, failsFirst: r.failsFirst, band: r.band, heatGain_J: r.heatGain_J, energyBalanceError: r.energyBalanceError, compliance: r.compliance, warnings: r.warnings },
                 });
                 if (res.ok) setSaved(res.id);
               }}
@@ -381,6 +381,7 @@ export function HoldPlanner(props: HoldPlannerProps) {
             );
           })}
         </ul>
+        <ComplianceList lines={r.compliance} title="Out of its band: against the rule set" />
         <FactList title="Assumptions" items={r.assumptions} testId="assumptions" />
         <FactList title="Warnings" items={r.warnings} warn />
       </>

@@ -12,7 +12,7 @@ import { UnitInput } from "@/app/_components/UnitInput";
 import { useUnits } from "@/app/_components/units-context";
 import { useMounted } from "@/app/_components/useMounted";
 import { CautionBlock } from "@/app/_components/CautionBlock";
-import { NoResult, FactList, NamedSelect, FieldMessage, SavedNotice } from "@/app/_components/ResultParts";
+import { NoResult, FactList, NamedSelect, FieldMessage, SavedNotice, ComplianceList } from "@/app/_components/ResultParts";
 import { TemperatureChart } from "@/app/_components/TemperatureChart";
 import { savePlanAction } from "@/app/plans/actions";
 
@@ -172,7 +172,7 @@ export function WarmupPlanner({ products, ruleSets, defaultRuleSet }: { products
                   kind: "warmup",
                   name: planName.trim() || `${input.product.name} from ${input.start_C} °C`,
                   input,
-                  result: { method: r.method, limit_C: r.limit_C, timeToLimit_s: r.timeToLimit_s, biot: r.biotLumped, h_W_m2K: r.h_W_m2K, warnings: r.warnings, assumptions: r.assumptions },
+                  result: { method: r.method, limit_C: r.limit_C, timeToLimit_s: r.timeToLimit_s, biot: r.biotLumped, h_W_m2K: r.h_W_m2K, compliance: r.compliance, warnings: r.warnings, assumptions: r.assumptions },
                 });
                 if (res.ok) setSaved({ id: res.id });
               }}
@@ -239,6 +239,7 @@ export function WarmupPlanner({ products, ruleSets, defaultRuleSet }: { products
             { key: "mean", label: "mass average", color: "#6b7378", dashed: true },
           ]}
         />
+        <ComplianceList lines={r.compliance} title="Against the rule set" />
         <h3>How this was worked out</h3>
         <p data-testid="method">
           <strong>Method: {r.method === "lumped" ? "lumped capacitance" : r.method === "series" ? "exact series" : "numerical enthalpy solver"}.</strong> {r.methodReason}.

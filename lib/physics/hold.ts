@@ -12,6 +12,7 @@ import { solAirTemperature, CP_AIR_J_KGK, P_ATM_PA, R_AIR_J_KGK } from "./surfac
 import { boxOuterCoefficient, radiationAt, runNetwork, type BodySpec, type WallLayerSpec } from "./shipper";
 import { KELVIN_OFFSET, PhysicsInputError } from "./validation";
 import type { EnthalpyMaterial } from "./solver1d";
+import { holdCompliance, type ComplianceLine } from "./compliance";
 
 /** CO₂ gas volume per kg of dry ice at 20 °C and 1 atm, ideal gas: 0.547 m³/kg (published-values.md §4.4, COMPUTED). */
 export const CO2_M3_PER_KG = 0.547;
@@ -70,6 +71,8 @@ export interface HoldResult extends HoldRun {
   outerH_W_m2K: number[];
   innerH_W_m2K: number;
   hasDryIce: boolean;
+  /** Rule-set lines for products that leave their band (time as a control, tolerance periods). */
+  compliance: ComplianceLine[];
   assumptions: string[];
   warnings: string[];
 }
@@ -527,6 +530,7 @@ export function runHoldParsed(inp: HoldParsed, opts: { resolution?: number } = {
     outerH_W_m2K: hOuter,
     innerH_W_m2K: P.innerH,
     hasDryIce: P.hasDryIce,
+    compliance: holdCompliance(inp.ruleSet, inp.products.map((l, j) => ({ name: l.product.name, start_C: l.start_C, mode: P.bands[j].mode })), central.series, route),
     assumptions,
     warnings,
   };

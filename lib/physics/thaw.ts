@@ -12,6 +12,7 @@ import { annularFinEfficiency, straightFinEfficiency } from "./fins";
 import { solve1D, type Boundary, type Solver1DResult } from "./solver1d";
 import { closedFormEstimates, type EstimateInputs } from "./phase-change";
 import { PhysicsInputError } from "./validation";
+import { thawTimeAboveLine, type ComplianceLine } from "./compliance";
 
 /** Share of a round item's projected area that actually touches a tray: a circle of half its radius (our assumption). */
 export const ROUND_CONTACT_FRACTION = 0.25;
@@ -21,11 +22,7 @@ export const BATH_TO_ROOM_W_M2K = 10;
 const WATER_RHO = 999;
 const WATER_C = 4186;
 
-export interface ComplianceLine {
-  rule: string;
-  status: "meets" | "exceeds" | "not approved" | "check locally";
-  detail: string;
-}
+export type { ComplianceLine };
 
 export interface ThawMethodResult {
   kind: ThawMethodKind;
@@ -338,7 +335,7 @@ function runMethod(item: Item, inp: ThawParsed, method: ThawMethod, endPoint_C: 
   // Second opinion: Plank and Pham's thawing form, with the same coefficient, medium, latent heat and sensible heats.
   const closed = closedFormEstimates({ food, shape, productShape: p.shape, h_W_m2K: Math.max(hShown, 0.01), start_C: inp.start_C, end_C: endPoint_C, medium_C });
 
-  const compliance = complianceFor(method, rs, above, chill);
+  const compliance = complianceFor(method, rs, above, chill, p.readyToEat);
   const startBy = inp.readyBy && thawTime !== null ? new Date(new Date(inp.readyBy).getTime() - thawTime * 1000).toISOString() : null;
   const inFridge = (method.kind === "fridge_air" || method.kind === "tray") && method.air_C <= chill;
   return {
@@ -371,9 +368,8 @@ function estimateSpread(r: ThawMethodResult): string {
   );
 }
 
-function complianceFor(method: ThawMethod, rs: RuleSet, above_s: number, chill: number): ComplianceLine[] {
+function complianceFor(method: ThawMethod, rs: RuleSet, above_s: number, chill: number, readyToEat: boolean): ComplianceLine[] {
   const out: ComplianceLine[] = [];
-  const h = (s: number) => `${(s / 3600).toFixed(1)} h`;
   if (method.kind === "fridge_air" || method.kind === "tray") {
     if (method.air_C <= chill) out.push({ rule: "Thawed under refrigeration", status: "meets", detail: `Air at ${method.air_C} °C, at or below the chill limit ${chill} °C` });
     else out.push({ rule: "Thawed under refrigeration", status: "not approved", detail: `Air at ${method.air_C} °C is warmer than the chill limit ${chill} °C: this is thawing in room air` });
@@ -387,16 +383,8 @@ function complianceFor(method: ThawMethod, rs: RuleSet, above_s: number, chill: 
   } else {
     out.push({ rule: "Room-air thawing", status: "not approved", detail: "Not an approved thawing method under most food codes" });
   }
-  const lim = rs.thawSurfaceAboveMax_s ?? rs.chillExcursionMax_s;
-  if (lim !== null && lim !== undefined) {
-    out.push({
-      rule: `Surface above ${chill} °C for at most ${h(lim)}`,
-      status: above_s <= lim ? "meets" : "exceeds",
-      detail: `Estimated ${h(above_s)} above ${chill} °C before the centre is thawed`,
-    });
-  } else {
-    out.push({ rule: `Time above ${chill} °C`, status: "check locally", detail: `Estimated ${h(above_s)}; "${rs.name}" sets no time limit for it` });
-  }
+  // Ready-to-eat food against its own limit (often none above the chill limit), raw food against the thawing time.
+  out.push(thawTimeAboveLine(rs, readyToEat, above_s, chill));
   return out;
 }
 

@@ -12,6 +12,7 @@ import { lumpedTheta, seriesMeanTheta, seriesTheta } from "./conduction";
 import { solve1D } from "./solver1d";
 import { closedFormEstimates } from "./phase-change";
 import { PhysicsInputError } from "./validation";
+import { warmupCompliance, type ComplianceLine } from "./compliance";
 
 export interface WarmupPoint {
   t_s: number;
@@ -50,6 +51,8 @@ export interface WarmupResult {
   estimates: { plank_s: number | null; pham_s: number | null } | null;
   energyBalanceError: number | null;
   series: WarmupPoint[];
+  /** Rule-set lines: two-stage cooling for a cool-down from hot, cold-food time as a control for a warm-up. */
+  compliance: ComplianceLine[];
   assumptions: string[];
   warnings: string[];
 }
@@ -318,6 +321,7 @@ export function runWarmup(raw: WarmupInput): WarmupResult {
     estimates,
     energyBalanceError,
     series,
+    compliance: warmupCompliance(inp.ruleSet, direction, limit_C, Ti, series, horizon),
     assumptions,
     warnings,
   };
