@@ -188,3 +188,31 @@ describe("compliance: a cool-down is judged whichever limit the user picked", ()
     ]);
   });
 });
+
+describe("migration 20261202090000_ruleset_fields on a database that already holds data", () => {
+  it("keeps existing rule sets and products, with the new columns empty or at their defaults", async () => {
+    const { mkdtempSync, mkdirSync, cpSync } = await import("node:fs");
+    const os = await import("node:os");
+    const path = await import("node:path");
+    const Database = (await import("better-sqlite3")).default;
+    const { migrateDatabase } = await import("../../lib/db/migrate");
+    const dir = mkdtempSync(path.join(os.tmpdir(), "holdline-rsf-"));
+    const firstOnly = path.join(dir, "migrations");
+    mkdirSync(firstOnly);
+    cpSync("prisma/migrations/20261201220000_initial", path.join(firstOnly, "20261201220000_initial"), { recursive: true });
+    const file = path.join(dir, "old.db");
+    migrateDatabase(file, firstOnly);
+    const db = new Database(file);
+    db.prepare(`INSERT INTO "RuleSet" (name, jurisdiction, chilledMax_C, frozenMax_C, hotHoldMin_C, source, reminder, updatedAt) VALUES ('Old', 'Here', 5, -18, 60, 's', 'r', CURRENT_TIMESTAMP)`).run();
+    db.close();
+    const res = migrateDatabase(file);
+    expect(res.applied).toContain("20261202090000_ruleset_fields");
+    const after = new Database(file, { readonly: true });
+    const row = after.prepare(`SELECT * FROM "RuleSet" WHERE name = 'Old'`).get() as Record<string, unknown>;
+    after.close();
+    expect(row.chilledMax_C).toBe(5);
+    expect(row.coolFrom_C).toBeNull();
+    expect(row.outsideControlColdMax_s).toBeNull();
+    expect(row.coolStage2Counted).toBe("in_all");
+  });
+});
