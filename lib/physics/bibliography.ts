@@ -218,6 +218,67 @@ export const BIBLIOGRAPHY = {
     where: "Numer. Heat Transfer B 17:155–169 (enthalpy formulation solved implicitly)",
     note: "from memory",
   },
+  brent1973: {
+    authors: "R. P. Brent",
+    title: "Algorithms for Minimization without Derivatives",
+    year: 1973,
+    edition: "Prentice-Hall",
+    where: "Ch. 4 (zero finding by inverse quadratic interpolation, secant and bisection with a guaranteed bracket)",
+  },
+  hylandWexler1983: {
+    authors: "R. W. Hyland, A. Wexler",
+    title: "Formulations for the thermodynamic properties of the saturated phases of H2O from 173.15 K to 473.15 K",
+    year: 1983,
+    where:
+      "ASHRAE Trans. 89(2A):500–519; as given in ASHRAE Handbook — Fundamentals (2009), Ch. 1, Eqs. 5–6: ln p_ws = C1/T + C2 + C3T + C4T² + C5T³ + C6T⁴ + C7 ln T over ice (−100…0 °C), ln p_ws = C8/T + C9 + C10T + C11T² + C12T³ + C13 ln T over water (0…200 °C), p in Pa, T in K",
+    note: "coefficients from memory; checked against the saturation pressures of the steam tables (test/reference/cooling.ref.test.ts)",
+  },
+  steamTables: {
+    authors: "Incropera et al. (after the steam tables of Liley)",
+    title: "Fundamentals of Heat and Mass Transfer, Table A.6 (saturated water)",
+    year: 2007,
+    edition: "6th ed.",
+    where: "p_sat: 2.339 kPa at 20 °C, 19.94 kPa at 60 °C, 101.3 kPa at 100 °C; h_fg: 2454 kJ/kg at 20 °C, 2383 at 50 °C, 2309 at 80 °C, 2257 at 100 °C",
+    note: "from memory",
+  },
+  chiltonColburn: {
+    authors: "Incropera et al. (after T. H. Chilton, A. P. Colburn 1934)",
+    title: "Fundamentals of Heat and Mass Transfer, §6.7.1 (the heat and mass transfer analogy)",
+    year: 2007,
+    edition: "6th ed.",
+    where: "Eq. 6.92: h/h_m = ρ c_p Le^(2/3), Le = α/D_AB, valid 0.6 < Pr < 60 and 0.6 < Sc < 3000 for laminar and turbulent flow, low mass-transfer rates; evaporative flux n'' = h_m (ρ_A,s − ρ_A,∞) (Eq. 6.8)",
+    note: "numbering from memory",
+  },
+  incroperaDiffusion: {
+    authors: "Incropera et al.",
+    title: "Fundamentals of Heat and Mass Transfer, Table A.8 (binary diffusion coefficients at 1 atm)",
+    year: 2007,
+    edition: "6th ed.",
+    where: "H2O–air: D_AB = 0.26×10⁻⁴ m²/s at 298 K; D_AB ∝ T^(3/2) at constant pressure (Eq. 14.? after Chapman–Enskog)",
+    note: "from memory",
+  },
+  gastronormEN631: {
+    authors: "CEN",
+    title: "EN 631-1: Materials and articles in contact with foodstuffs — Catering containers — Part 1: Specification for containers",
+    year: 1993,
+    where: "gastronorm sizes: GN 2/1 650×530, 1/1 530×325, 2/3 354×325, 1/2 325×265, 1/3 325×176, 1/4 265×162, 1/6 176×162, 1/9 176×108 mm; usual depths 20, 40, 65, 100, 150, 200 mm",
+    note: "sizes as used by the trade; standard not re-read (from memory)",
+  },
+  incroperaSolids: {
+    authors: "Incropera et al.",
+    title: "Fundamentals of Heat and Mass Transfer, Tables A.1 and A.3 (solid metallic and non-metallic materials at 300 K)",
+    year: 2007,
+    edition: "6th ed.",
+    where: "AISI 304 stainless: k 14.9 W/(m·K), ρ 7900 kg/m³, c 477 J/(kg·K); aluminium alloy 2024-T6: k 177, ρ 2770, c 875",
+    note: "stainless from memory; aluminium confirmed (see shared published-values §5.2)",
+  },
+  dhCookChill1989: {
+    authors: "UK Department of Health",
+    title: "Chilled and Frozen: Guidelines on Cook-Chill and Cook-Freeze Catering Systems",
+    year: 1989,
+    where: "HMSO: chilling to start within 30 min of cooking, food to reach 0–3 °C within 90 min; portions or layers not more than 50 mm deep",
+    note: "from memory",
+  },
 } as const satisfies Record<string, Reference>;
 
 export type SourceKey = keyof typeof BIBLIOGRAPHY;
