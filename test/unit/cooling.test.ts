@@ -204,3 +204,11 @@ describe("cooling input: field-level messages, nothing computed", () => {
     expect(p).toMatchObject({ horizon_s: 36000, compare: true, searchDepth: true, emissivity: 0.9 });
   });
 });
+
+describe("cooling input: JSON Schema", () => {
+  it("the zod schema converts (for `holdline schema cool` and /api/v1/schema/cool once wired) and lists the methods", async () => {
+    const { z } = await import("zod");
+    const js = JSON.stringify(z.toJSONSchema(coolInputSchema, { io: "input", unrepresentable: "any" }));
+    for (const k of ["walk_in", "blast_chiller", "ice_bath", "cold_plate", "ice_paddle", "relativeHumidity", "depth_m", "coolStage1Max_s"]) expect(js).toContain(k);
+  });
+});
