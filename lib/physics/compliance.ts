@@ -151,6 +151,7 @@ export function outOfBandLines(
   start_C: number,
   curve: Curve,
   routeEnd_s: number,
+  earliest_s: number | null = null,
 ): ComplianceLine[] {
   const chilled = mode === "chilled";
   const limit_C = chilled ? rs.chilledMax_C : rs.hotHoldMin_C;
@@ -159,7 +160,8 @@ export function outOfBandLines(
   const out: ComplianceLine[] = [];
   const span = routeEnd_s - ex.first_s;
   const where = chilled ? `above ${deg(limit_C)}` : `below ${deg(limit_C)}`;
-  const said = `${chilled ? "Above" : "Below"} ${deg(limit_C)} from ${hours(ex.first_s)} into the route, ${hours(span)} to its end (${hours(ex.total_s)} ${where} in all, ${ex.periods === 1 ? "one period" : `${ex.periods} periods`}; ${chilled ? "warmest" : "coldest"} point ${deg(ex.extreme_C)})`;
+  const sooner = earliest_s !== null && earliest_s < ex.first_s - 60 ? `; at the low end of the uncertainty band the load leaves its band at ${hours(earliest_s)}, which leaves more time out of control` : "";
+  const said = `Central estimate: ${where} from ${hours(ex.first_s)} into the route, ${hours(span)} to its end (${hours(ex.total_s)} ${where} in all, ${ex.periods === 1 ? "one period" : `${ex.periods} periods`}; ${chilled ? "warmest" : "coldest"} point ${deg(ex.extreme_C)})${sooner}`;
   if (rs.outsideControlMax_s !== null) {
     out.push({
       rule: `${name}: time as a control, at most ${hours(rs.outsideControlMax_s)} out of temperature control`,
@@ -308,6 +310,8 @@ export function holdCompliance(
   products: { name: string; start_C: number; mode: "chilled" | "frozen" | "hot" }[],
   series: { t_s: number; products: { center_C: number; surface_C: number }[] }[],
   routeLength_s: number,
+  /** The earliest hold time over the uncertainty sample, if any, to say when the band's low end fails sooner. */
+  earliest_s: number | null = null,
 ): ComplianceLine[] {
   const t = series.map((p) => p.t_s);
   const out: ComplianceLine[] = [];
@@ -315,7 +319,7 @@ export function holdCompliance(
     if (p.mode === "frozen") return;
     const chilled = p.mode === "chilled";
     const curve = extremeCurve(t, series.map((s) => s.products[j].center_C), series.map((s) => s.products[j].surface_C), chilled);
-    out.push(...outOfBandLines(rs, p.name, p.mode, p.start_C, curve, routeLength_s));
+    out.push(...outOfBandLines(rs, p.name, p.mode, p.start_C, curve, routeLength_s, earliest_s));
   });
   return out;
 }

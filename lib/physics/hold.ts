@@ -530,7 +530,7 @@ export function runHoldParsed(inp: HoldParsed, opts: { resolution?: number } = {
     outerH_W_m2K: hOuter,
     innerH_W_m2K: P.innerH,
     hasDryIce: P.hasDryIce,
-    compliance: holdCompliance(inp.ruleSet, inp.products.map((l, j) => ({ name: l.product.name, start_C: l.start_C, mode: P.bands[j].mode })), central.series, route),
+    compliance: holdCompliance(inp.ruleSet, inp.products.map((l, j) => ({ name: l.product.name, start_C: l.start_C, mode: P.bands[j].mode })), central.series, route, Number.isFinite(low) ? low : null),
     assumptions,
     warnings,
   };

@@ -162,6 +162,9 @@ describe("compliance: the judgements themselves", () => {
     expect(hot[0].rule).toMatch(/at most 2.0 h below 63 °C/);
     expect(hot[0].status).toBe("meets");
     expect(outOfBandLines({ ...UK, hotExcursionMax_s: 3600 }, "Rice", "hot", 70, coolingHot, 10800)[0].status).toBe("exceeds");
+    // The uncertainty band's earlier failure is named beside the central estimate.
+    expect(outOfBandLines(US, "Tray", "chilled", 3, warming, 4 * 3600, 600)[0].detail).toMatch(/low end of the uncertainty band the load leaves its band at 0.2 h/);
+    expect(outOfBandLines(US, "Tray", "chilled", 3, warming, 4 * 3600, null)[0].detail).not.toMatch(/uncertainty/);
     // Inside the band: nothing to say.
     expect(outOfBandLines(US, "Tray", "chilled", 3, { t_s: [0, 1], T_C: [3, 4] }, 1)).toEqual([]);
   });
