@@ -513,7 +513,20 @@ export function runCoolParsed(inp: CoolParsed): CoolResult {
   const rs = inp.ruleSet;
   if (!hasCoolingStages(rs)) warnings.push(`"${rs.name}" sets no two-stage cooling limit: the stages are not judged; check your food code`);
   if (method.kind === "walk_in") warnings.push("The refrigerator air is taken to stay at its set temperature: hot pans warm a loaded walk-in, which then cools them more slowly than estimated here");
-  if (method.kind === "blast_chiller" && method.air_C < P.food.Tf_C) warnings.push(`Chiller air at ${method.air_C} °C is below the food's initial freezing point (${P.food.Tf_C.toFixed(1)} °C): the surface may freeze; the model includes it`);
+  const coldest = Math.min(...run.surface_C, ...run.bottom_C);
+  if (coldest < P.food.Tf_C) warnings.push(`The food's surface falls below its initial freezing point (${P.food.Tf_C.toFixed(1)} °C, to ${coldest.toFixed(1)} °C) within the ${(inp.horizon_s / 3600).toFixed(0)} h looked at: it starts to freeze there (included in the model); a chiller's cycle usually ends before that`);
+  // A slowest point that levels off above the stage-2 end temperature never gets there: say where it settles.
+  const s2 = stages.find((x) => x.stage === 2);
+  if (hasCoolingStages(rs) && stages.length > 0 && (!s2 || s2.reached_s === null)) {
+    const c = run.curve;
+    const tl = c.t_s[c.t_s.length - 1];
+    const drop = at(c, tl - 3600) - at(c, tl);
+    if (tl >= 2 * 3600 && drop < 0.2) {
+      warnings.push(
+        `The slowest point levels off near ${at(c, tl).toFixed(1)} °C, above ${rs.coolStage2To_C} °C: ${P.kind === "pan" && method.kind !== "walk_in" && method.kind !== "blast_chiller" ? `the open top faces air at ${method.air_C} °C; cover it or move the pan to a refrigerator` : "the air is not cold enough to finish stage 2"}`,
+      );
+    }
+  }
 
   // Evaporation over the run: the water lost and its share of the heat through the top.
   let water = 0;

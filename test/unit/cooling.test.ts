@@ -164,6 +164,12 @@ describe("cooling planner: answers", () => {
     expect(JSON.stringify(r)).not.toMatch(/NaN|null,"surface_C"/);
     expect(r.compliance.length).toBe(2);
   });
+  it("a cold plate under warm room air: stage 2 missed, and the warning says where the slowest point settles", () => {
+    const r = runCool(base({ method: { kind: "cold_plate" } }));
+    expect(stage(r, 1).meets).toBe(true);
+    expect(stage(r, 2).meets).toBe(false);
+    expect(r.warnings.join(" ")).toMatch(/levels off near 1\d\.\d °C.*cover it or move the pan/);
+  });
   it("a rule set without two-stage limits: nothing judged, a warning, no search", () => {
     const r = runCool(base({ ruleSet: england, searchDepth: true }));
     expect(r.stages).toEqual([]);
