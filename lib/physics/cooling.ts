@@ -587,3 +587,57 @@ export function runCoolParsed(inp: CoolParsed): CoolResult {
 }
 
 export type { CoolMethodKind };
+
+export interface CoolingRecordRow {
+  /** Time since the food went into the cooling, s. */
+  t_s: number;
+  label: string;
+  /** The model's slowest-point temperature then (°C), for comparison with the probe. */
+  expected_C: number;
+  /** The rule set's limit that falls due at this row, if any. */
+  limit_C: number | null;
+}
+
+export interface CoolingRecord {
+  title: string;
+  /** What the kitchen fills in on each row. */
+  blanks: string[];
+  rows: CoolingRecordRow[];
+  /** The stage lines, as judged on the model. */
+  stages: CoolStageResult[];
+}
+
+/**
+ * The cooling record a kitchen keeps, laid out from a plan: a row at the start, every `every_s`
+ * (default hourly) and at each stage deadline, each with the model's slowest-point temperature and the
+ * limit due, and blanks for the probe reading, the clock time and the initials. Deadlines are placed where
+ * the model puts the stage clocks (the food reaching `coolFrom_C`); on the day they start when the probe
+ * reads that temperature, as the rule says.
+ */
+export function coolingRecord(inp: CoolParsed, r: CoolResult, every_s = 3600): CoolingRecord {
+  const rs = inp.ruleSet;
+  const curve: Curve = { t_s: r.series.map((p) => p.t_s), T_C: r.series.map((p) => p.slowest_C) };
+  const rows: CoolingRecordRow[] = [];
+  const due: { t: number; label: string; limit: number }[] = [];
+  const s1 = r.stages.find((s) => s.stage === 1);
+  if (hasCoolingStages(rs) && s1) {
+    const t0 = inp.start_C <= rs.coolFrom_C! ? 0 : reaches(curve, rs.coolFrom_C!, true);
+    if (t0 !== null) {
+      due.push({ t: t0 + rs.coolStage1Max_s!, label: `Stage 1 due: at or below ${rs.coolStage1To_C} °C`, limit: rs.coolStage1To_C! });
+      const base = rs.coolStage2Counted === "in_all" ? t0 : s1.reached_s !== null ? t0 + s1.reached_s : null;
+      if (base !== null) due.push({ t: base + rs.coolStage2Max_s!, label: `Stage 2 due: at or below ${rs.coolStage2To_C} °C`, limit: rs.coolStage2To_C! });
+      if (t0 > 0) rows.push({ t_s: t0, label: `Expected at ${rs.coolFrom_C} °C: the stage clock starts`, expected_C: at(curve, t0), limit_C: null });
+    }
+  }
+  const end = Math.min(inp.horizon_s, Math.max(...due.map((d) => d.t), every_s));
+  for (let t = 0; t <= end + 1e-9; t += every_s) rows.push({ t_s: t, label: t === 0 ? "Into the cooling" : `Check after ${(t / 3600).toFixed(1)} h`, expected_C: at(curve, t), limit_C: null });
+  for (const d of due) if (d.t <= inp.horizon_s) rows.push({ t_s: d.t, label: d.label, expected_C: at(curve, d.t), limit_C: d.limit });
+  rows.sort((a, b) => a.t_s - b.t_s);
+  const what = inp.setup.kind === "pan" ? `${inp.product.name}, ${(inp.setup.depth_m * 1000).toFixed(0)} mm in a ${inp.setup.size} pan${inp.setup.lid ? " with its lid" : ""}` : `${inp.product.name}, whole`;
+  return {
+    title: `Cooling record: ${what}, ${COOL_METHOD_LABELS[inp.method.kind].toLowerCase()}, from ${inp.start_C} °C (${rs.name})`,
+    blanks: ["Clock time", "Probe reading (°C)", "Initials", "Action if over the limit"],
+    rows,
+    stages: r.stages,
+  };
+}

@@ -1,5 +1,5 @@
 import { describe, it, expect } from "vitest";
-import { runCool, runCoolParsed } from "../../lib/physics/cooling";
+import { runCool, runCoolParsed, coolingRecord } from "../../lib/physics/cooling";
 import { coolInputSchema, ICE_PADDLE_REFUSAL, type CoolInput } from "../../lib/schemas/cool";
 import { runValidated } from "../../lib/schemas/run";
 import { brent } from "../../lib/physics/numerics";
@@ -216,5 +216,23 @@ describe("cooling input: JSON Schema", () => {
     const { z } = await import("zod");
     const js = JSON.stringify(z.toJSONSchema(coolInputSchema, { io: "input", unrepresentable: "any" }));
     for (const k of ["walk_in", "blast_chiller", "ice_bath", "cold_plate", "ice_paddle", "relativeHumidity", "depth_m", "coolStage1Max_s"]) expect(js).toContain(k);
+  });
+});
+
+describe("the cooling record (the sheet a kitchen fills in)", () => {
+  it("has the start, hourly checks and both deadlines, the model's value beside each, and blanks for probe and initials", () => {
+    for (const rs of [fda, fsanz]) {
+      const inp = coolInputSchema.parse(base({ ruleSet: rs, setup: { kind: "pan", size: "1/1", height_m: 0.065, depth_m: 0.04 } }));
+      const r = runCoolParsed(inp);
+      const rec = coolingRecord(inp, r);
+      expect(rec.blanks).toEqual(expect.arrayContaining(["Probe reading (°C)", "Initials"]));
+      const due = rec.rows.filter((x) => x.limit_C !== null);
+      expect(due.map((x) => x.limit_C)).toEqual([rs.coolStage1To_C, rs.coolStage2To_C]);
+      // The model meets a stage exactly when its value at the deadline is within the limit.
+      expect(due[0].expected_C <= rs.coolStage1To_C! + 0.05).toBe(stage(r, 1).meets);
+      expect(due[1].expected_C <= rs.coolStage2To_C! + 0.05).toBe(stage(r, 2).meets);
+      expect(rec.rows[0]).toMatchObject({ t_s: 0, expected_C: 74 });
+      for (let i = 1; i < rec.rows.length; i++) expect(rec.rows[i].t_s).toBeGreaterThanOrEqual(rec.rows[i - 1].t_s);
+    }
   });
 });
