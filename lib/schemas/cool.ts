@@ -146,7 +146,8 @@ export type CoolMethod = z.output<typeof coolMethodSchema>;
 export const coolInputSchema = z
   .object({
     product: productSchema,
-    start_C: temp("Starting temperature"),
+    /** Where the food starts, °C: at most 100 °C (water in the food boils above). */
+    start_C: temp("Starting temperature").max(100, { error: "Starting temperature above 100 °C: the water in the food would boil; the model starts at 100 °C or below" }),
     setup: coolSetupSchema,
     method: coolMethodSchema,
     ruleSet: ruleSetSchema,

@@ -236,3 +236,37 @@ describe("the cooling record (the sheet a kitchen fills in)", () => {
     }
   });
 });
+
+describe("cooling planner on random valid inputs (fast-check)", () => {
+  it("never returns NaN or throws anything but a field error", async () => {
+    const fc = await import("fast-check");
+    const methods = [
+      fc.record({ kind: fc.constant("walk_in" as const), air_C: fc.double({ min: -5, max: 15, noNaN: true }), speed_m_s: fc.double({ min: 0, max: 5, noNaN: true }), relativeHumidity: fc.double({ min: 0, max: 1, noNaN: true }), support: fc.constantFrom("rack" as const, "shelf" as const) }),
+      fc.record({ kind: fc.constant("blast_chiller" as const), air_C: fc.double({ min: -35, max: 5, noNaN: true }), speed_m_s: fc.double({ min: 0, max: 10, noNaN: true }) }),
+      fc.record({ kind: fc.constant("ice_bath" as const), water_C: fc.double({ min: -2, max: 10, noNaN: true }), level_m: fc.option(fc.double({ min: 0.001, max: 0.1, noNaN: true }), { nil: null }) }),
+      fc.record({ kind: fc.constant("cold_plate" as const), plate_C: fc.double({ min: -20, max: 5, noNaN: true }) }),
+    ];
+    await fc.assert(
+      fc.asyncProperty(
+        fc.oneof(...methods),
+        fc.double({ min: 0.002, max: 0.1, noNaN: true }),
+        fc.constantFrom("1/1", "1/3", "1/9", "2/1"),
+        fc.constantFrom("stainless", "aluminium", "plastic"),
+        fc.boolean(),
+        fc.double({ min: 30, max: 100, noNaN: true }),
+        async (method, depth, size, material, lid, start) => {
+          const input = { product: rice, start_C: start, setup: { kind: "pan", size, height_m: 0.1, depth_m: depth, material, lid }, method, ruleSet: fda, compare: false, searchDepth: false, horizon_s: 4 * 3600 };
+          const r = runValidated(coolInputSchema, input, runCoolParsed);
+          if (!r.ok) {
+            expect(Object.keys(r.fieldErrors).length).toBeGreaterThan(0);
+            return;
+          }
+          expect(JSON.stringify(r.result)).not.toMatch(/NaN|Infinity/);
+          // The series is rounded to 0.01 K.
+          for (const p of r.result.series) expect(p.slowest_C).toBeLessThanOrEqual(start + 0.006);
+        },
+      ),
+      { numRuns: 25, seed: 14 },
+    );
+  });
+});
