@@ -29,7 +29,7 @@ import { productThermal, warnPropertyRange, type FoodThermal } from "./propertie
 import { itemShape } from "./geometry";
 import { forcedFlatPlate, itemSurfaceCoefficient, mixedConvection, naturalHorizontalPlate, naturalVerticalPlate, radiationCoefficient, airProps, type Fluid } from "./surfaces";
 import { evaporation } from "./psychrometrics";
-import { solve1D, type Boundary, type Solver1DResult } from "./solver1d";
+import { solve1D, solverScale, type Boundary, type Solver1DResult } from "./solver1d";
 import { seriesTheta } from "./conduction";
 import { coolingStages, hasCoolingStages, reaches, type ComplianceLine, type Curve } from "./compliance";
 import { brent } from "./numerics";
@@ -79,7 +79,7 @@ export interface CoolResult {
   maxDepth: { limitedBy: "pan" | "stages" | "none" | "not searched"; evaluations: number; detail: string };
   /** Water evaporated from the open top over the time looked at, kg. */
   waterEvaporated_kg: number;
-  /** Share of the heat removed through the top that left by evaporation. */
+  /** Share of the heat the food lost over the time looked at that left by evaporation from the open top. */
   evaporationShare: number;
   mass_kg: number;
   energyBalanceError: number;
@@ -152,7 +152,7 @@ interface Prepared {
   /** Lateral correction: the side coefficient and medium, constant properties. */
   lateral: ((depth_m: number) => { U_W_m2K: number; T_C: number }) | null;
   footprint: { length_m: number; width_m: number } | null;
-  piece: { shape: "slab" | "cylinder" | "sphere"; halfSize_m: number; innerRadius_m: number; volume_m3: number } | null;
+  piece: { shape: "slab" | "cylinder" | "sphere"; halfSize_m: number; innerRadius_m: number; volume_m3: number; area_m2: number } | null;
   kConst_W_mK: number;
   alphaConst_m2_s: number;
   /** Medium the slowest point cools towards (for the time scale). */
@@ -212,7 +212,7 @@ function prepare(inp: CoolParsed, method: RunnableMethod): Prepared {
       faces: () => ({ top, bottom: undefined, topConvection: o.topH_W_m2K !== null ? null : (Ts) => open * hc(Ts) }),
       lateral: null,
       footprint: null,
-      piece: { shape: oneD.shape, halfSize_m: oneD.halfSize_m, innerRadius_m: oneD.innerRadius_m, volume_m3: shape.volume_m3 },
+      piece: { shape: oneD.shape, halfSize_m: oneD.halfSize_m, innerRadius_m: oneD.innerRadius_m, volume_m3: shape.volume_m3, area_m2: shape.area_m2 },
       kConst_W_mK: k,
       alphaConst_m2_s: alpha,
       coolant_C,
@@ -310,7 +310,7 @@ function prepare(inp: CoolParsed, method: RunnableMethod): Prepared {
     o.topH_W_m2K !== null
       ? `Top coefficient given: ${o.topH_W_m2K} W/(m²·K), used as given (no separate radiation or evaporation)`
       : s.lid
-        ? `Lid on: no evaporation (vapour condensing under the lid is taken to drip back, and the heat it carries across the headspace is neglected, which errs slow); the headspace by still-air conduction and radiation, then the lid and its outside`
+        ? `Lid on: no evaporation (vapour condensing under the lid is taken to drip back, and the heat it carries across the headspace is neglected); the headspace by still-air conduction and radiation, without the natural convection of air heated from below, then the lid and its outside. Both neglected paths would speed the cooling, so with a lid the estimate errs slow`
         : `Open top: convection (horizontal plate${air.speed_m_s >= 0.05 ? ", blended with forced flow along the pan's length" : ""}), radiation (ε = ${eps}) to surroundings at the air temperature, and evaporation of water from the wet surface (surface water activity 1) by the Chilton–Colburn analogy, air at ${air.T_C} °C and ${Math.round(air.rh * 100)} % relative humidity. The mass lost by evaporation is not taken off the layer`,
     o.bottomH_W_m2K !== null
       ? `Base coefficient given: ${o.bottomH_W_m2K} W/(m²·K) to ${coolant_C} °C, used as given`
@@ -531,29 +531,22 @@ export function runCoolParsed(inp: CoolParsed): CoolResult {
   // Evaporation over the run: the water lost and its share of the heat through the top.
   let water = 0;
   let evapHeat = 0;
-  let topHeat = 0;
   const f = P.faces(depthOf(inp));
   const air = airOf(method);
   const area = P.topArea_m2;
   const scratch: string[] = [];
-  const topFlux = (Ts: number) => {
-    const h = f.top.h_W_m2K(0, Ts);
-    let q = h * (Ts - air.T_C);
-    if (f.top.emissivity) q += radiationCoefficient(f.top.emissivity, Ts, air.T_C) * (Ts - air.T_C);
-    const e = f.topConvection ? evaporation(f.topConvection(Ts), Ts, air.T_C, air.rh, 1, scratch) : null;
-    if (e) q += e.heat_W_m2;
-    return { q, e };
-  };
+  const evap = (Ts: number) => (f.topConvection ? evaporation(f.topConvection(Ts), Ts, air.T_C, air.rh, 1, scratch) : null);
   for (let i = 1; i < run.curve.t_s.length; i++) {
     const dt = run.curve.t_s[i] - run.curve.t_s[i - 1];
-    const a = topFlux(run.surface_C[i - 1]);
-    const b = topFlux(run.surface_C[i]);
-    topHeat += 0.5 * (a.q + b.q) * dt * area;
-    if (a.e && b.e) {
-      water += 0.5 * (a.e.flux_kg_m2s + b.e.flux_kg_m2s) * dt * area;
-      evapHeat += 0.5 * (a.e.heat_W_m2 + b.e.heat_W_m2) * dt * area;
+    const a = evap(run.surface_C[i - 1]);
+    const b = evap(run.surface_C[i]);
+    if (a && b) {
+      water += 0.5 * (a.flux_kg_m2s + b.flux_kg_m2s) * dt * area;
+      evapHeat += 0.5 * (a.heat_W_m2 + b.heat_W_m2) * dt * area;
     }
   }
+  // Heat the food lost: the solver's stored change per unit measure, scaled to the pan's footprint or the piece.
+  const heatLost = -run.solver.storedChange_J * (P.piece ? solverScale(P.piece.shape, P.piece.area_m2, P.piece.halfSize_m) : area);
   const mass = P.piece ? P.food.rho_kg_m3 * P.piece.volume_m3 : P.food.rho_kg_m3 * area * depthOf(inp);
   if (water > 0.05 * mass) warnings.push(`About ${((water / mass) * 100).toFixed(0)} % of the food's mass evaporates in the ${(inp.horizon_s / 3600).toFixed(0)} h looked at; the model keeps the mass and the properties as they were`);
 
@@ -575,7 +568,7 @@ export function runCoolParsed(inp: CoolParsed): CoolResult {
     maxDepth_m: depth.value,
     maxDepth: { limitedBy: depth.limitedBy, evaluations: depth.evaluations, detail: depth.detail },
     waterEvaporated_kg: water,
-    evaporationShare: topHeat > 0 ? evapHeat / topHeat : 0,
+    evaporationShare: heatLost > 0 ? Math.min(1, Math.max(0, evapHeat / heatLost)) : 0,
     mass_kg: mass,
     energyBalanceError: Math.abs(run.solver.energyError_J) / Math.max(Math.abs(run.solver.storedChange_J), 1e-30),
     warnings: [...new Set(warnings)],
