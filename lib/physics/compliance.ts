@@ -205,14 +205,32 @@ export function hasCoolingStages(rs: RuleSet): boolean {
   return rs.coolFrom_C !== null && rs.coolStage1To_C !== null && rs.coolStage1Max_s !== null && rs.coolStage2To_C !== null && rs.coolStage2Max_s !== null;
 }
 
+/** One cooling stage judged on a curve: the times are counted from the stage's own start (`countedFrom_s`). */
+export interface CoolingStage {
+  stage: 1 | 2;
+  /** The temperature the stage's clock starts from: `coolFrom_C`, or for stage 2 counted after stage 1, `coolStage1To_C`. */
+  from_C: number;
+  to_C: number;
+  /** Time allowed, s. */
+  limit_s: number;
+  /** Time the curve takes from the stage's start to `to_C`, s; null if not within the curve. */
+  reached_s: number | null;
+  /** Whether it is within the limit; null when the curve is too short to tell or the stage does not apply. */
+  meets: boolean | null;
+  /** When the stage's clock starts on the curve, s; null if it never starts. */
+  countedFrom_s: number | null;
+  line: ComplianceLine;
+}
+
 /**
  * Judges a cool-down from hot against the rule set's two stages, on the warmest point's curve.
  * The clock starts when the warmest point falls to `coolFrom_C` (at once if it starts below).
  * Stage 1 ends when it reaches `coolStage1To_C`; stage 2 when it reaches `coolStage2To_C`, whose
  * deadline is counted from the start ("in all", FDA Food Code 2022 §3-501.14(A)) or from the end of
  * stage 1 ("a further …", FSANZ Standard 3.2.2 cl. 7(3)). `horizon_s` is how far the curve runs.
+ * Returns the stages with their numbers (empty when the rule set has no two-stage limit).
  */
-export function coolingStageLines(rs: RuleSet, warmest: Curve, horizon_s: number): ComplianceLine[] {
+export function coolingStages(rs: RuleSet, warmest: Curve, horizon_s: number): CoolingStage[] {
   if (!hasCoolingStages(rs)) return [];
   const from = rs.coolFrom_C!;
   const to1 = rs.coolStage1To_C!;
@@ -223,44 +241,57 @@ export function coolingStageLines(rs: RuleSet, warmest: Curve, horizon_s: number
   const T0 = warmest.T_C[0];
   const r1 = `Cooling stage 1: ${deg(from)} → ${deg(to1)} within ${hours(max1)}`;
   const r2 = `Cooling stage 2: to ${deg(to2)} within ${hours(max2)} ${inAll ? "of the start, in all" : "more after stage 1"}`;
+  const s1 = (reached_s: number | null, meets: boolean | null, countedFrom_s: number | null, line: ComplianceLine): CoolingStage => ({ stage: 1, from_C: from, to_C: to1, limit_s: max1, reached_s, meets, countedFrom_s, line });
+  const s2 = (reached_s: number | null, meets: boolean | null, countedFrom_s: number | null, line: ComplianceLine): CoolingStage => ({ stage: 2, from_C: inAll ? from : to1, to_C: to2, limit_s: max2, reached_s, meets, countedFrom_s, line });
   if (T0 <= to1) {
-    return [{ rule: r1, status: "check locally", detail: `Starts at ${deg(T0)}, already at or below ${deg(to1)}: the two-stage limit is for cooked food cooling from hot; check the rule for food cooled from room temperature` }];
+    return [s1(null, null, null, { rule: r1, status: "check locally", detail: `Starts at ${deg(T0)}, already at or below ${deg(to1)}: the two-stage limit is for cooked food cooling from hot; check the rule for food cooled from room temperature` })];
   }
   const t0 = T0 > from ? reaches(warmest, from, true) : 0;
   if (t0 === null) {
-    return [{ rule: r1, status: "check locally", detail: `The warmest point does not fall to ${deg(from)} within the ${hours(horizon_s)} looked at` }];
+    return [s1(null, null, null, { rule: r1, status: "check locally", detail: `The warmest point does not fall to ${deg(from)} within the ${hours(horizon_s)} looked at` })];
   }
   const startSaid = t0 > 0 ? `the clock starts when the warmest point falls to ${deg(from)}, ${hours(t0)} in` : `the clock starts at once (it starts at ${deg(T0)})`;
-  const out: ComplianceLine[] = [];
+  const out: CoolingStage[] = [];
   const t1 = reaches(warmest, to1, true, t0);
   if (t1 === null) {
     const seen = horizon_s - t0;
-    out.push({
-      rule: r1,
-      status: seen >= max1 ? "exceeds" : "check locally",
-      detail: seen >= max1 ? `Not at ${deg(to1)} within ${hours(seen)} (${startSaid})` : `Not at ${deg(to1)} within the ${hours(seen)} looked at: look further ahead (${startSaid})`,
-    });
+    out.push(
+      s1(null, seen >= max1 ? false : null, t0, {
+        rule: r1,
+        status: seen >= max1 ? "exceeds" : "check locally",
+        detail: seen >= max1 ? `Not at ${deg(to1)} within ${hours(seen)} (${startSaid})` : `Not at ${deg(to1)} within the ${hours(seen)} looked at: look further ahead (${startSaid})`,
+      }),
+    );
     return out;
   }
   const d1 = t1 - t0;
-  out.push({ rule: r1, status: d1 <= max1 ? "meets" : "exceeds", detail: `Estimated ${hours(d1)} to ${deg(to1)} at the warmest point (${startSaid})` });
+  out.push(s1(d1, d1 <= max1, t0, { rule: r1, status: d1 <= max1 ? "meets" : "exceeds", detail: `Estimated ${hours(d1)} to ${deg(to1)} at the warmest point (${startSaid})` }));
   const base = inAll ? t0 : t1;
   const deadline = base + max2;
   const t2 = reaches(warmest, to2, true, t1);
   if (t2 === null) {
-    out.push({
-      rule: r2,
-      status: horizon_s >= deadline ? "exceeds" : "check locally",
-      detail: horizon_s >= deadline ? `Not at ${deg(to2)} within ${hours(horizon_s - t0)} of the start` : `Not at ${deg(to2)} within the ${hours(horizon_s)} looked at: look further ahead`,
-    });
+    out.push(
+      s2(null, horizon_s >= deadline ? false : null, base, {
+        rule: r2,
+        status: horizon_s >= deadline ? "exceeds" : "check locally",
+        detail: horizon_s >= deadline ? `Not at ${deg(to2)} within ${hours(horizon_s - t0)} of the start` : `Not at ${deg(to2)} within the ${hours(horizon_s)} looked at: look further ahead`,
+      }),
+    );
     return out;
   }
-  out.push({
-    rule: r2,
-    status: t2 <= deadline ? "meets" : "exceeds",
-    detail: `Estimated ${hours(t2 - t0)} from the start to ${deg(to2)} at the warmest point (${hours(t2 - t1)} after stage 1)`,
-  });
+  out.push(
+    s2(t2 - base, t2 <= deadline, base, {
+      rule: r2,
+      status: t2 <= deadline ? "meets" : "exceeds",
+      detail: `Estimated ${hours(t2 - t0)} from the start to ${deg(to2)} at the warmest point (${hours(t2 - t1)} after stage 1)`,
+    }),
+  );
   return out;
+}
+
+/** The compliance lines of `coolingStages`. */
+export function coolingStageLines(rs: RuleSet, warmest: Curve, horizon_s: number): ComplianceLine[] {
+  return coolingStages(rs, warmest, horizon_s).map((s) => s.line);
 }
 
 // ---------------------------------------------------------------- the planners' hooks

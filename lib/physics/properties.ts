@@ -23,6 +23,8 @@
  * Explicit overrides from the product template always win.
  */
 import { PhysicsInputError, requireFraction, requirePositive, requireTemperature, warnRange } from "./validation";
+import type { Product } from "../schemas/templates";
+import type { ItemShape } from "./geometry";
 
 export interface Composition {
   water: number;
@@ -435,4 +437,35 @@ export function simpleMaterial(p: {
       return p.kSolid_W_mK + f * (p.kLiquid_W_mK - p.kSolid_W_mK);
     },
   };
+}
+
+/** Names and categories for which Pham's meat formula for the initial freezing point suits (meat, poultry, fish). */
+export const MEAT_LIKE = /meat|poultry|fish|beef|pork|lamb|chicken|turkey|cod|salmon/i;
+
+/**
+ * A product template's thermal properties: its composition and overrides, its bulk density from the
+ * template's mass over its shape's volume (porosity), and whether Pham's meat formula suits it. The one
+ * place a planner turns a product into a `FoodThermal` (the cooling planner uses it; the hold, thaw and
+ * warm-up planners still build the same input themselves).
+ */
+export function productThermal(
+  p: Pick<Product, "name" | "category" | "composition" | "initialFreezing_C" | "density_kg_m3" | "cpUnfrozen_J_kgK" | "cpFrozen_J_kgK" | "kUnfrozen_W_mK" | "kFrozen_W_mK" | "latentHeat_J_kg" | "mass_kg">,
+  shape: Pick<ItemShape, "volume_m3" | "hollow">,
+): FoodThermal {
+  return foodThermal({
+    composition: p.composition,
+    initialFreezing_C: p.initialFreezing_C,
+    overrides: {
+      density_kg_m3: p.density_kg_m3,
+      cpUnfrozen_J_kgK: p.cpUnfrozen_J_kgK,
+      cpFrozen_J_kgK: p.cpFrozen_J_kgK,
+      kUnfrozen_W_mK: p.kUnfrozen_W_mK,
+      kFrozen_W_mK: p.kFrozen_W_mK,
+      latentHeat_J_kg: p.latentHeat_J_kg,
+    },
+    mass_kg: p.mass_kg,
+    volume_m3: shape.volume_m3,
+    isMeatLike: MEAT_LIKE.test(p.category + " " + p.name),
+    hollow: shape.hollow !== null,
+  });
 }
