@@ -172,7 +172,15 @@ function prepare(inp: HoldParsed): Prepared {
     const p = line.pack;
     contentsVolume += p.length_m * p.width_m * p.thickness_m * line.count;
     if (p.kind === "dry_ice") hasDryIce = true;
-    if (line.conditioning_C > p.phaseChange_C) warnings.push(`${p.name} is conditioned at ${line.conditioning_C} °C, above its ${p.kind === "dry_ice" ? "sublimation" : "melt"} point (${p.phaseChange_C} °C): it starts melted and gives sensible cooling only`);
+    const w = packMeltBand_K(p);
+    if (p.kind === "dry_ice" && line.conditioning_C > p.phaseChange_C) {
+      warnings.push(`${p.name} is given at ${line.conditioning_C} °C, above its sublimation point (${p.phaseChange_C} °C), where dry ice cannot exist at atmospheric pressure: it is modelled as solid at ${p.phaseChange_C} °C`);
+    } else if (line.conditioning_C > p.phaseChange_C + w) {
+      warnings.push(`${p.name} is conditioned at ${line.conditioning_C} °C, above its melt point (${p.phaseChange_C} °C): it starts melted and gives sensible cooling only`);
+    } else if (line.conditioning_C > p.phaseChange_C) {
+      const f = (line.conditioning_C - p.phaseChange_C) / w;
+      warnings.push(`${p.name} is conditioned at ${line.conditioning_C} °C, just above its melt point (${p.phaseChange_C} °C): it is modelled as ${Math.round(f * 100)} % melted when packed. Condition it at or below ${p.phaseChange_C} °C to start it frozen`);
+    }
   });
   if (contentsVolume > innerVolume) {
     throw new PhysicsInputError("products", `the contents (${(contentsVolume * 1000).toFixed(1)} L) are larger than the box's inner volume (${(innerVolume * 1000).toFixed(1)} L)`);
@@ -241,6 +249,11 @@ function prepare(inp: HoldParsed): Prepared {
   assumptions.push(`Lid openings replace inside air at ${inp.overrides.lidOpenAirChangesPerMinute} air changes per minute while open; moisture and frost are ignored`);
   assumptions.push("Products and packs are each modelled in one dimension with their real volume and surface; packs touch products only where a contact is set");
   assumptions.push(`The box and inside air start at ${inp.boxStart_C ?? inp.route.segments[0].airTemp_C} °C`);
+  if (inp.packs.length) {
+    assumptions.push(
+      "A pack conditioned at or below its melt (or sublimation) point starts fully frozen: the model spreads its latent heat over a band just above that point (0.5 K; 0.2 K for dry ice). A conditioning temperature inside that band starts the pack partly melted in proportion, and above it fully melted. The conditioning uncertainty moves a frozen pack's starting temperature but never melts it",
+    );
+  }
   if (hasDryIce) assumptions.push("Dry ice stays at −78.5 °C while any is left; the CO₂ gas leaves the box. Temperatures next to dry ice can fall below −78.5 °C in real shippers (published measurements show −93 °C); not modelled");
 
   return { inp, warnings, assumptions, bands, productMats, routeLength_s, segments, openings, finish, wallLayers, lidLayers, inner, outer, edgeG, innerH, airVolume_m3, kScaleForUA, hasDryIce };
@@ -264,21 +277,47 @@ export function steadyUA(
   return { walls_W_K: walls, lid_W_K: lid, edges_W_K: edges, total_W_K: walls + lid + edges };
 }
 
-/** A coolant pack as an enthalpy material (melt or sublimation over a narrow band). */
+/**
+ * Width of a pack's modelled melting (or sublimation) band, K. The latent heat is released over
+ * [phaseChange_C, phaseChange_C + w], just above the phase-change point, so a pack at or below that
+ * point is fully solid: conditioned "at its melt point" means frozen, as the user means it.
+ */
+export function packMeltBand_K(p: Pick<Pack, "kind">): number {
+  return p.kind === "dry_ice" ? 0.2 : 0.5;
+}
+
+/** A coolant pack as an enthalpy material (melt or sublimation over a narrow band just above its phase-change point). */
 export function packMaterial(p: Pack): EnthalpyMaterial & { Tf_C: number } {
   const [ks, kl] = PACK_K[p.kind];
   const rho = p.mass_kg / (p.length_m * p.width_m * p.thickness_m);
-  return simpleMaterial({
+  const w = packMeltBand_K(p);
+  const m = simpleMaterial({
     rho_kg_m3: rho,
     cSolid_J_kgK: p.cpSolid_J_kgK,
     // Sublimated CO₂ leaves the box: what is left of a dry-ice pack after it has gone has almost no capacity.
     cLiquid_J_kgK: p.kind === "dry_ice" ? 1 : p.cpLiquid_J_kgK,
     kSolid_W_mK: ks,
     kLiquid_W_mK: kl,
-    melt_C: p.phaseChange_C,
+    melt_C: p.phaseChange_C + w / 2,
     latent_J_kg: p.latentHeat_J_kg,
-    mushy_K: p.kind === "dry_ice" ? 0.2 : 0.5,
-  }) as EnthalpyMaterial & { Tf_C: number };
+    mushy_K: w,
+  });
+  return { ...m, Tf_C: p.phaseChange_C } as EnthalpyMaterial & { Tf_C: number };
+}
+
+/**
+ * The temperature a pack line starts at in the model, with the conditioning shift of an uncertainty corner.
+ * - Conditioned at or below the phase-change point: fully solid; the shift moves its temperature but never
+ *   melts it (the warm corner is capped at the phase-change point).
+ * - Conditioned inside the melting band (T_pc, T_pc + w]: that fraction (T − T_pc)/w starts melted.
+ * - Above the band: fully melted (sensible cooling only).
+ * - Dry ice exists only at or below −78.5 °C at 1 atm: it always starts solid, at the lower of its
+ *   conditioning and sublimation temperatures, and takes no conditioning shift.
+ */
+export function packStart_C(p: Pack, conditioning_C: number, shift_K: number): number {
+  if (p.kind === "dry_ice") return Math.min(conditioning_C, p.phaseChange_C);
+  if (conditioning_C <= p.phaseChange_C) return Math.min(conditioning_C + shift_K, p.phaseChange_C);
+  return conditioning_C + shift_K;
 }
 
 function runOnce(P: Prepared, v: Variant): HoldRun {
@@ -332,8 +371,7 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
       area_m2: A,
       count: line.count,
       nodes: p.kind === "dry_ice" ? 1 : 5 * (v.resolution ?? 1),
-      // Dry ice cannot be conditioned warmer or colder than its sublimation point.
-      start_C: p.kind === "dry_ice" ? line.conditioning_C : line.conditioning_C + v.conditioningShift_K,
+      start_C: packStart_C(p, line.conditioning_C, v.conditioningShift_K),
     });
   });
   const nPacks = bodies.length;
@@ -363,8 +401,7 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
   let dryIceGone: number | null = null;
   const packLatent = inp.packs.map((line) => {
     const m = bodies[inp.packs.indexOf(line)].material;
-    const w = line.pack.kind === "dry_ice" ? 0.2 : 0.5;
-    return { Htop: m.H_J_kg(line.pack.phaseChange_C + w / 2), L: line.pack.latentHeat_J_kg };
+    return { Htop: m.H_J_kg(line.pack.phaseChange_C + packMeltBand_K(line.pack)), L: line.pack.latentHeat_J_kg };
   });
   const net = runNetwork({
     innerArea: { walls_m2: Aw, lid_m2: Al },
