@@ -414,7 +414,7 @@ export function SizePlanner(props: { products: Product[]; shippers: Shipper[]; p
         <h3>How it was judged</h3>
         <ul className="facts">
           <li>
-            Every candidate is run through the hold model at the {result!.inp.judgeBy === "low" ? "worst corner of the uncertainty band (outer coefficient, insulation conductivity and conditioning at their least favourable), which the model's monotone behaviour makes the low end" : "central estimate"}.
+            Every candidate is run through the hold model at the {result!.inp.judgeBy === "low" ? "low end of the uncertainty band: the shortest hold over the central run and every corner of the outer coefficient, insulation conductivity and conditioning spreads, the same runs as the hold planner's range (with sun no single corner is always the worst)" : "central estimate"}.
           </li>
           <li>The Pareto front keeps each candidate that no other beats on packed mass, cost and outer volume at once.</li>
           <li>Open a candidate as a plan to see its full curves and uncertainty band.</li>

@@ -92,6 +92,8 @@ interface Variant {
   insulationKScale: number;
   conditioningShift_K: number;
   keepSeries: boolean;
+  /** Stop the run at this time (s) if nothing has failed by then: the run is only asked whether it fails earlier. */
+  stopAt_s?: number;
 }
 
 interface Prepared {
@@ -175,10 +177,10 @@ function prepare(inp: HoldParsed): Prepared {
     const w = packMeltBand_K(p);
     if (p.kind === "dry_ice" && line.conditioning_C > p.phaseChange_C) {
       warnings.push(`${p.name} is given at ${line.conditioning_C} °C, above its sublimation point (${p.phaseChange_C} °C), where dry ice cannot exist at atmospheric pressure: it is modelled as solid at ${p.phaseChange_C} °C`);
-    } else if (line.conditioning_C > p.phaseChange_C + w) {
+    } else if (line.conditioning_C >= p.phaseChange_C + w / 2) {
       warnings.push(`${p.name} is conditioned at ${line.conditioning_C} °C, above its melt point (${p.phaseChange_C} °C): it starts melted and gives sensible cooling only`);
     } else if (line.conditioning_C > p.phaseChange_C) {
-      const f = (line.conditioning_C - p.phaseChange_C) / w;
+      const f = (line.conditioning_C - p.phaseChange_C) / (w / 2);
       warnings.push(`${p.name} is conditioned at ${line.conditioning_C} °C, just above its melt point (${p.phaseChange_C} °C): it is modelled as ${Math.round(f * 100)} % melted when packed. Condition it at or below ${p.phaseChange_C} °C to start it frozen`);
     }
   });
@@ -251,7 +253,7 @@ function prepare(inp: HoldParsed): Prepared {
   assumptions.push(`The box and inside air start at ${inp.boxStart_C ?? inp.route.segments[0].airTemp_C} °C`);
   if (inp.packs.length) {
     assumptions.push(
-      "A pack conditioned at or below its melt (or sublimation) point starts fully frozen: the model spreads its latent heat over a band just above that point (0.5 K; 0.2 K for dry ice). A conditioning temperature inside that band starts the pack partly melted in proportion, and above it fully melted. The conditioning uncertainty moves a frozen pack's starting temperature but never melts it",
+      "A pack conditioned at or below its melt (or sublimation) point starts fully frozen. The model melts it over a narrow band centred on that point (0.5 K; 0.2 K for dry ice); a conditioning temperature in the upper half of that band, just above the melt point, starts the pack partly melted in proportion, and anything warmer fully melted. The conditioning uncertainty moves a frozen pack's starting temperature but never melts it; dry ice always starts solid",
     );
   }
   if (hasDryIce) assumptions.push("Dry ice stays at −78.5 °C while any is left; the CO₂ gas leaves the box. Temperatures next to dry ice can fall below −78.5 °C in real shippers (published measurements show −93 °C); not modelled");
@@ -278,46 +280,50 @@ export function steadyUA(
 }
 
 /**
- * Width of a pack's modelled melting (or sublimation) band, K. The latent heat is released over
- * [phaseChange_C, phaseChange_C + w], just above the phase-change point, so a pack at or below that
- * point is fully solid: conditioned "at its melt point" means frozen, as the user means it.
+ * Width of a pack's modelled melting (or sublimation) band, K: the latent heat is spread over
+ * [T_pc − w/2, T_pc + w/2], centred on the phase-change point T_pc so the pack melts at its own temperature.
  */
 export function packMeltBand_K(p: Pick<Pack, "kind">): number {
   return p.kind === "dry_ice" ? 0.2 : 0.5;
 }
 
-/** A coolant pack as an enthalpy material (melt or sublimation over a narrow band just above its phase-change point). */
+/** A coolant pack as an enthalpy material (melt or sublimation over a narrow band centred on its phase-change point). */
 export function packMaterial(p: Pack): EnthalpyMaterial & { Tf_C: number } {
   const [ks, kl] = PACK_K[p.kind];
   const rho = p.mass_kg / (p.length_m * p.width_m * p.thickness_m);
-  const w = packMeltBand_K(p);
-  const m = simpleMaterial({
+  return simpleMaterial({
     rho_kg_m3: rho,
     cSolid_J_kgK: p.cpSolid_J_kgK,
     // Sublimated CO₂ leaves the box: what is left of a dry-ice pack after it has gone has almost no capacity.
     cLiquid_J_kgK: p.kind === "dry_ice" ? 1 : p.cpLiquid_J_kgK,
     kSolid_W_mK: ks,
     kLiquid_W_mK: kl,
-    melt_C: p.phaseChange_C + w / 2,
+    melt_C: p.phaseChange_C,
     latent_J_kg: p.latentHeat_J_kg,
-    mushy_K: w,
-  });
-  return { ...m, Tf_C: p.phaseChange_C } as EnthalpyMaterial & { Tf_C: number };
+    mushy_K: packMeltBand_K(p),
+  }) as EnthalpyMaterial & { Tf_C: number };
 }
 
 /**
- * The temperature a pack line starts at in the model, with the conditioning shift of an uncertainty corner.
- * - Conditioned at or below the phase-change point: fully solid; the shift moves its temperature but never
- *   melts it (the warm corner is capped at the phase-change point).
- * - Conditioned inside the melting band (T_pc, T_pc + w]: that fraction (T − T_pc)/w starts melted.
- * - Above the band: fully melted (sensible cooling only).
- * - Dry ice exists only at or below −78.5 °C at 1 atm: it always starts solid, at the lower of its
- *   conditioning and sublimation temperatures, and takes no conditioning shift.
+ * The model temperature a pack line starts at, for a conditioning temperature (plus the shift of an
+ * uncertainty corner), so that it starts in the state the user means:
+ * - at or below the phase-change point T_pc: fully solid, just below the modelled band (at most
+ *   T_pc − w/2; the sensible heat of that w/2 is under 0.2 % of the latent heat). The conditioning shift
+ *   moves its temperature but never melts it.
+ * - between T_pc and T_pc + w/2: melted in proportion, (T − T_pc)/(w/2);
+ * - above: fully melted (sensible cooling only).
+ * - Dry ice exists only at or below its sublimation point at 1 atm: it always starts solid, and takes no shift.
  */
 export function packStart_C(p: Pack, conditioning_C: number, shift_K: number): number {
-  if (p.kind === "dry_ice") return Math.min(conditioning_C, p.phaseChange_C);
-  if (conditioning_C <= p.phaseChange_C) return Math.min(conditioning_C + shift_K, p.phaseChange_C);
-  return conditioning_C + shift_K;
+  const Tm = p.phaseChange_C;
+  const half = packMeltBand_K(p) / 2;
+  const solidTop = Tm - half;
+  if (p.kind === "dry_ice") return Math.min(conditioning_C, solidTop);
+  if (conditioning_C <= Tm) return Math.min(conditioning_C + shift_K, solidTop);
+  const x = conditioning_C + shift_K;
+  if (x <= Tm) return Math.min(x, solidTop);
+  if (x < Tm + half) return solidTop + 2 * (x - Tm);
+  return x;
 }
 
 function runOnce(P: Prepared, v: Variant): HoldRun {
@@ -401,7 +407,7 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
   let dryIceGone: number | null = null;
   const packLatent = inp.packs.map((line) => {
     const m = bodies[inp.packs.indexOf(line)].material;
-    return { Htop: m.H_J_kg(line.pack.phaseChange_C + packMeltBand_K(line.pack)), L: line.pack.latentHeat_J_kg };
+    return { Htop: m.H_J_kg(line.pack.phaseChange_C + packMeltBand_K(line.pack) / 2), L: line.pack.latentHeat_J_kg };
   });
   const net = runNetwork({
     innerArea: { walls_m2: Aw, lid_m2: Al },
@@ -458,7 +464,7 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
         });
       }
       // Past the end of the route, stop as soon as the band is left (the margin is known then).
-      return holdTime !== null && !v.keepSeries;
+      return (holdTime !== null && !v.keepSeries) || (v.stopAt_s !== undefined && t >= v.stopAt_s);
     },
   });
   const dryIceSublimated = inp.packs.reduce((a, line, k) => {
@@ -506,31 +512,45 @@ export interface HoldCorner {
 }
 
 /**
- * Only the hold runs asked for, without curves, each stopping at its first failure: what the pack-out
- * sizer needs. Throws PhysicsInputError for contents that do not fit or a product with no band.
+ * The uncertainty sample, shared by the hold planner's band and the sizer's judging (one list): the central
+ * run first, then every corner of (outer h ± f, insulation k ± f, conditioning ± K), a spread of zero giving
+ * one value instead of two. No corner is assumed the worst: with sun, a higher outer coefficient lowers the
+ * sol-air excess αI/h_o and can lengthen the hold [ashraeSolAir], so the low end is the minimum over all.
  */
-export function holdRuns(inp: HoldParsed, corners: HoldCorner[]): { runs: HoldRun[]; routeLength_s: number; hasLowerLimit: boolean } {
+export function uncertaintyCorners(u: HoldParsed["uncertainty"]): HoldCorner[] {
+  const out: HoldCorner[] = [{ outerHScale: 1, insulationKScale: 1, conditioningShift_K: 0 }];
+  const signs = (x: number) => (x === 0 ? [0] : [-1, 1]);
+  for (const sh of signs(u.outerH_frac)) for (const sk of signs(u.insulationK_frac)) for (const sc of signs(u.conditioning_K)) {
+    if (sh === 0 && sk === 0 && sc === 0) continue;
+    out.push({ outerHScale: 1 + sh * u.outerH_frac, insulationKScale: 1 + sk * u.insulationK_frac, conditioningShift_K: sc * u.conditioning_K });
+  }
+  return out;
+}
+
+/**
+ * Runs the corners asked for, without curves, each stopping at its first failure: what the pack-out sizer
+ * needs. With `lowOnly`, each run after the first also stops at the earliest failure found so far (it can
+ * only lower the minimum before then), so the minimum hold over the corners is exact and found sooner.
+ * Throws PhysicsInputError for contents that do not fit or a product with no band.
+ */
+export function holdRuns(inp: HoldParsed, corners: HoldCorner[], opts: { lowOnly?: boolean } = {}): { runs: HoldRun[]; routeLength_s: number; hasLowerLimit: boolean } {
   const P = prepare(inp);
-  return {
-    runs: corners.map((c) => runOnce(P, { ...c, keepSeries: false })),
-    routeLength_s: P.routeLength_s,
-    hasLowerLimit: P.bands.some((b) => b.lower_C !== null),
-  };
+  const runs: HoldRun[] = [];
+  let low = Infinity;
+  for (const c of corners) {
+    const r = runOnce(P, { ...c, keepSeries: false, stopAt_s: opts.lowOnly && Number.isFinite(low) ? low : undefined });
+    runs.push(r);
+    if (r.holdTime_s !== null && r.holdTime_s < low) low = r.holdTime_s;
+  }
+  return { runs, routeLength_s: P.routeLength_s, hasLowerLimit: P.bands.some((b) => b.lower_C !== null) };
 }
 
 export function runHoldParsed(inp: HoldParsed, opts: { resolution?: number } = {}): HoldResult {
   const P = prepare(inp);
   const central = runOnce(P, { resolution: opts.resolution, outerHScale: 1, insulationKScale: 1, conditioningShift_K: 0, keepSeries: true });
-  // Uncertainty: all eight corners of (outer h ± f, insulation k ± f, conditioning ± K).
-  const u = inp.uncertainty;
+  // Uncertainty: the central run and every corner of the shared sample.
   const holds: (number | null)[] = [central.holdTime_s];
-  for (const sh of [-1, 1]) for (const sk of [-1, 1]) for (const sc of [-1, 1]) {
-    if (u.outerH_frac === 0 && sh === 1) continue;
-    if (u.insulationK_frac === 0 && sk === 1) continue;
-    if (u.conditioning_K === 0 && sc === 1) continue;
-    const r = runOnce(P, { resolution: opts.resolution, outerHScale: 1 + sh * u.outerH_frac, insulationKScale: 1 + sk * u.insulationK_frac, conditioningShift_K: sc * u.conditioning_K, keepSeries: false });
-    holds.push(r.holdTime_s);
-  }
+  for (const c of uncertaintyCorners(inp.uncertainty).slice(1)) holds.push(runOnce(P, { ...c, resolution: opts.resolution, keepSeries: false }).holdTime_s);
   const asNumber = (x: number | null) => (x === null ? Infinity : x);
   const low = Math.min(...holds.map(asNumber));
   const high = Math.max(...holds.map(asNumber));
@@ -543,7 +563,7 @@ export function runHoldParsed(inp: HoldParsed, opts: { resolution?: number } = {
   const ua = steadyUA(P.wallLayers, P.lidLayers, P.inner, hOuter[0], P.innerH, P.kScaleForUA, P.edgeG);
   const assumptions = [...P.assumptions];
   assumptions.push(
-    `Uncertainty band: the lowest and highest hold over 8 runs with outer coefficient ±${Math.round(inp.uncertainty.outerH_frac * 100)} %, insulation conductivity ±${Math.round(inp.uncertainty.insulationK_frac * 100)} % and pack conditioning ±${inp.uncertainty.conditioning_K} K`,
+    `Uncertainty band: the lowest and highest hold over the central run and every corner of outer coefficient ±${Math.round(inp.uncertainty.outerH_frac * 100)} %, insulation conductivity ±${Math.round(inp.uncertainty.insulationK_frac * 100)} % and pack conditioning ±${inp.uncertainty.conditioning_K} K`,
   );
   assumptions.push(`After the route ends, the last segment's conditions are continued for ${Math.round(inp.extendFraction * 100)} % of the route length to measure the margin`);
   return {

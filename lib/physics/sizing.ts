@@ -4,21 +4,26 @@
  * holds for the route plus the margin, its Pareto front over packed mass, cost and outer volume, and
  * the near misses with the reason each fails.
  *
- * Judging by the low end of the uncertainty band: the model is monotone in the outer coefficient,
- * the insulation conductivity and the conditioning temperature, so the earliest upper-limit failure
- * is at the corner (h +f, k +f, conditioning +K) and the earliest lower-limit failure at the opposite
- * corner. The sizer runs those corners (one, or two when a product has a lower limit) instead of all
- * eight; the full band is computed when a candidate is opened as a plan.
+ * Judging by the low end of the uncertainty band: every candidate runs the hold planner's own sample
+ * (uncertaintyCorners: the central run and every corner), and its judged hold is the minimum, exactly the
+ * hold planner's band.low for that pack-out. No corner is assumed the worst: with sun a higher outer
+ * coefficient can lengthen the hold (sol-air), and a lower limit fails at other corners than an upper one.
+ * Each corner after the first stops at the earliest failure found so far, which keeps the minimum exact.
  *
- * Pruning: with no lower limit in play, more of the same pack never shortens the hold, so a count
- * vector that is componentwise at least one that holds (same box, same conditioning) holds too, and
- * is never on the Pareto front (it only adds mass and cost). Such candidates are marked without a run.
+ * Pruning: with no lower limit in play, more of the same pack at the same conditioning never shortens the
+ * hold at any corner: the box network is a cooperative (monotone) system — every coupling moves heat from
+ * warm to cold, so adding a colder body, or covering more of a face with one, can only lower every
+ * temperature (Kamke's comparison theorem for cooperative systems, e.g. Smith 1995) — and sun only changes
+ * the outside driving temperature, which more packs do not touch. So a count vector that is componentwise
+ * at least one that holds (same box, same conditioning) holds too, and is never on the Pareto front (it only
+ * adds mass and cost). Such candidates are marked without a run; the tests check that pruning gives the
+ * same answer as brute force, on shaded and sunny routes.
  */
 import type { SizeParsed } from "../schemas/size";
 import { MAX_CANDIDATES } from "../schemas/size";
 import type { HoldParsed } from "../schemas/hold";
 import type { Shipper, Material } from "../schemas/templates";
-import { holdRuns, type HoldCorner } from "./hold";
+import { holdRuns, uncertaintyCorners } from "./hold";
 import { PhysicsInputError } from "./validation";
 
 export interface Candidate {
@@ -186,7 +191,7 @@ export function candidateHoldInput(inp: SizeParsed, c: Candidate, extendFraction
     ruleSet: inp.ruleSet,
     boxStart_C: inp.boxStart_C,
     overrides: { outerH_W_m2K: null, innerH_W_m2K: null, wallUA_W_K: null, sunShareSides: 0.25, lidOpenAirChangesPerMinute: 6 },
-    uncertainty: { outerH_frac: 0, insulationK_frac: 0, conditioning_K: 0 },
+    uncertainty: inp.uncertainty,
     extendFraction,
   };
 }
@@ -194,16 +199,11 @@ export function candidateHoldInput(inp: SizeParsed, c: Candidate, extendFraction
 /** Runs one candidate through the hold model at the judging corner(s). Pure: safe to call in a worker. */
 export function evaluateCandidate(inp: SizeParsed, c: Candidate, required_s: number, routeLength_s: number): CandidateResult {
   const extend = Math.max(0.05, required_s / routeLength_s - 1 + 0.02);
-  const u = inp.uncertainty;
-  const hot: HoldCorner = { outerHScale: 1 + u.outerH_frac, insulationKScale: 1 + u.insulationK_frac, conditioningShift_K: u.conditioning_K };
-  const cold: HoldCorner = { outerHScale: 1 - u.outerH_frac, insulationKScale: 1 - u.insulationK_frac, conditioningShift_K: -u.conditioning_K };
-  const central: HoldCorner = { outerHScale: 1, insulationKScale: 1, conditioningShift_K: 0 };
   let out;
   try {
     const hold = candidateHoldInput(inp, c, extend);
-    // The central run tells whether a lower limit is in play; the low end adds the worst corners.
-    out = holdRuns(hold, inp.judgeBy === "central" ? [central] : [hot]);
-    if (inp.judgeBy === "low" && out.hasLowerLimit) out.runs.push(holdRuns(hold, [cold]).runs[0]);
+    // The low end: the minimum over the hold planner's own uncertainty sample (central run first).
+    out = holdRuns(hold, inp.judgeBy === "central" ? uncertaintyCorners({ outerH_frac: 0, insulationK_frac: 0, conditioning_K: 0 }) : uncertaintyCorners(inp.uncertainty), { lowOnly: true });
   } catch (e) {
     if (e instanceof PhysicsInputError && /larger than the box/.test(e.message)) {
       return { index: c.index, verdict: "does not fit", hold_s: null, central_s: null, reason: "the contents do not fit", failsFirst: null, dryIceGone_s: null, pruned: false };
@@ -225,7 +225,7 @@ export function evaluateCandidate(inp: SizeParsed, c: Candidate, required_s: num
     index: c.index,
     verdict: holds ? "holds" : "fails",
     hold_s: hold,
-    central_s: inp.judgeBy === "central" ? hold : null,
+    central_s: out.runs[0].holdTime_s,
     reason,
     failsFirst: worst.failsFirst ? { product: worst.failsFirst.product, point: worst.failsFirst.point, limit: worst.failsFirst.limit } : null,
     dryIceGone_s: worst.dryIceGone_s,

@@ -36,6 +36,18 @@ describe("pack-out sizer", () => {
     expect(pruned.pareto.length).toBeGreaterThan(0);
   });
 
+  it("pruning stays identical to brute force on a sunny route, judged at the low end over every corner", async () => {
+    const sunny = { ...f(D.routes, "Overnight"), segments: f(D.routes, "Overnight").segments.map((s) => ({ ...s, sun_W_m2: 800, duration_s: s.duration_s / 3 })) };
+    const x: SizeInput = { ...base, route: sunny, boxes: [{ shipper: f(D.shippers, "Quillfield thin"), thicknessVariants_m: [] }], packs: [{ pack: f(D.packs, "Gel"), minCount: 0, maxCount: 8, conditioning_C: [-18] }] };
+    const pruned = await run({ ...x, prune: true });
+    const brute = await run({ ...x, prune: false });
+    expect(pruned.pruned).toBeGreaterThan(0);
+    expect(summary(pruned)).toEqual(summary(brute));
+    // The monotone claim pruning rests on: with sun too, more packs never shorten the judged hold.
+    const holds = brute.candidates.map((c) => c.hold_s ?? Infinity);
+    for (let i = 1; i < holds.length; i++) expect(holds[i]).toBeGreaterThanOrEqual(holds[i - 1]);
+  });
+
   it("never prunes when a product could freeze (lower limit), and still agrees with brute force", async () => {
     const salad = { ...base, products: [{ product: f(D.products, "Mixed salad"), count: 1, start_C: 3 }], packs: [{ pack: f(D.packs, "Eutectic"), minCount: 0, maxCount: 4, conditioning_C: [-30] }] };
     const a = await run({ ...salad, prune: true });
