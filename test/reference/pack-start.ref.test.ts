@@ -46,7 +46,7 @@ describe("packs conditioned at their phase-change point start solid: t = m·L / 
       packs: [{ pack: dry, count: 1, conditioning_C: dry.conditioning_C }],
       route: constantRoute(Tamb, 48),
       ruleSet: D.rulesets[0],
-      overrides: { outerH_W_m2K: 10, innerH_W_m2K: hI, wallUA_W_K: UAbox, sunShareSides: 0.25, lidOpenAirChangesPerMinute: 6 },
+      overrides: { outerH_W_m2K: 10, innerH_W_m2K: hI, wallUA_W_K: UAbox, sunShareSides: 0.25, lidOpenAirChangesPerMinute: 6, wellMixedInside: true },
       uncertainty: noBand,
       extendFraction: 0,
     });
@@ -75,7 +75,7 @@ describe("packs conditioned at their phase-change point start solid: t = m·L / 
       route: constantRoute(Tamb, 72),
       ruleSet: D.rulesets[0],
       boxStart_C: Tamb,
-      overrides: { outerH_W_m2K: hO, innerH_W_m2K: hI, wallUA_W_K: null, sunShareSides: 0.25, lidOpenAirChangesPerMinute: 6 },
+      overrides: { outerH_W_m2K: hO, innerH_W_m2K: hI, wallUA_W_K: null, sunShareSides: 0.25, lidOpenAirChangesPerMinute: 6, wellMixedInside: true },
       uncertainty: noBand,
       extendFraction: 0,
     });

@@ -54,7 +54,7 @@ describe("hold planner: results", () => {
     expect(r.band.low!).toBeLessThanOrEqual(r.band.central!);
     expect(r.band.high!).toBeGreaterThanOrEqual(r.band.central!);
     const g = r.heatGain_J;
-    expect(g.walls + g.lid + g.edgesAndCorners + g.sun + g.lidOpenings).toBeGreaterThan(0);
+    expect(g.sides + g.base + g.lid + g.edgesAndCorners + g.lidOpenings).toBeGreaterThan(0);
     expect(g.lidOpenings).toBeGreaterThan(0);
     expect(r.series[0].products[0].center_C).toBeCloseTo(1, 6);
     expect(r.series.length).toBeGreaterThan(20);
