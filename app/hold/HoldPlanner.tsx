@@ -368,7 +368,7 @@ export function HoldPlanner(props: HoldPlannerProps) {
           </tbody>
         </table>
         <p className="muted">
-          Each face&rsquo;s figure is the net heat through it from outside (air, sun and sky together; negative where the face lost heat). Of these, sun and sky account for {(r.sunAndSky_J / WH).toFixed(1)} Wh.
+          Each face&rsquo;s figure is the net heat through it from outside: air, sun and sky together (negative where the face lost heat).
         </p>
         <p className="muted">
           Energy balance:{" "}

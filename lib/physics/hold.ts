@@ -56,8 +56,6 @@ export interface HoldRun {
   endTime_s: number;
   /** Net heat that entered the box during the route through each path (J): each face's outer film, sun and sky together. */
   heatGain_J: { sides: number; base: number; lid: number; edgesAndCorners: number; lidOpenings: number };
-  /** Of the face totals, the part driven by sun and sky (sol-air excess over the outside air), J. */
-  sunAndSky_J: number;
   /** Relative energy-balance error; null when almost no heat moved (less than would warm the contents by 1 mK), where a ratio means nothing. */
   energyBalanceError: number | null;
   energyBalanceError_J: number;
@@ -595,7 +593,6 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
     failsFirst,
     endTime_s: net.t_end_s,
     heatGain_J: { sides: g.faces.sidesLower + g.faces.sidesUpper, base: g.faces.base, lid: g.faces.lid, edgesAndCorners: g.edges, lidOpenings: g.openings },
-    sunAndSky_J: g.sunPart,
     energyBalanceError: meaningful ? Math.abs(net.energyError_J) / Math.max(moved, Math.abs(net.storedChange_J)) : null,
     energyBalanceError_J: net.energyError_J,
     steps: net.steps,

@@ -94,8 +94,6 @@ export interface Gains {
   faces: Record<FaceKind, number>;
   edges: number;
   openings: number;
-  /** Of the face totals, the part driven by sun and sky (sol-air excess over the air), J: informative only. */
-  sunPart: number;
 }
 
 export interface NetworkState {
@@ -286,7 +284,7 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
   const E0 = energy();
   let heatCapacity = Cair.reduce((a, c) => a + c, 0);
   for (const ch of chains) for (let i = 0; i < ch.n; i++) heatCapacity += ch.mat ? ch.mass[i] * ch.mat.c_J_kgK(ch.T[i]) : ch.mass[i];
-  const gains: Gains = { faces: { base: 0, sidesLower: 0, sidesUpper: 0, lid: 0 }, edges: 0, openings: 0, sunPart: 0 };
+  const gains: Gains = { faces: { base: 0, sidesLower: 0, sidesUpper: 0, lid: 0 }, edges: 0, openings: 0 };
   const state: NetworkState = {
     air_C: Tair[0],
     zone_C: [...Tair],
@@ -515,7 +513,6 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
       const G = outerG[ci];
       const Te = amb.solAir_C[faceParts[ci].kind];
       gains.faces[faceParts[ci].kind] += G * (Te - ch.T[0]) * h;
-      gains.sunPart += G * (Te - amb.air_C) * h;
     }
     for (let z = 0; z < nZ; z++) {
       gains.edges += Gedge * edgeShare[z] * (amb.air_C - Tair[z]) * h;

@@ -103,19 +103,29 @@ function outerDims(s: Shipper) {
   return { L: s.innerLength_m + 2 * tw, W: s.innerWidth_m + 2 * tw, H: s.innerHeight_m + tw + tl };
 }
 
-/** Box mass: the template's empty mass, plus or minus the varied layer's material. */
-function boxMass(base: Shipper, variant: Shipper, materials: Material[]): number {
-  const shell = (s: Shipper) => {
+/**
+ * Mass and cost of a candidate box. A thickness variant changes the shell by ΔV = V_outer(variant) −
+ * V_outer(box) (the inner size is kept): the varied insulation's density × ΔV is added to the empty mass,
+ * and ΔV × the insulation's cost per m³ to the cost. That cost is the box's own figure when given
+ * (`extraInsulationCost_per_m3`), else the box's price spread over its shell volume — as if the box's
+ * price were all insulation, stated with the answer.
+ */
+export function boxMassAndCost(b: SizeParsed["boxes"][number], variant: Shipper, materials: Material[]): { mass_kg: number; cost: number; costPerM3: number } {
+  const base = b.shipper;
+  const vol = (s: Shipper) => {
     const o = outerDims(s);
-    let m = 0;
-    const layerMass = (layers: { material: string; thickness_m: number }[], area: number) => {
-      for (const l of layers) m += (materials.find((x) => x.name === l.material)?.density_kg_m3 ?? 0) * l.thickness_m * area;
-    };
-    layerMass(s.wallLayers, 2 * (o.L + o.W) * o.H + o.L * o.W);
-    layerMass(s.lidLayers ?? s.wallLayers, o.L * o.W);
-    return m;
+    return o.L * o.W * o.H;
   };
-  return Math.max(0, base.emptyMass_kg + shell(variant) - shell(base));
+  const inner = base.innerLength_m * base.innerWidth_m * base.innerHeight_m;
+  const shell = Math.max(vol(base) - inner, 1e-9);
+  const costPerM3 = b.extraInsulationCost_per_m3 ?? base.cost / shell;
+  if (variant === base) return { mass_kg: base.emptyMass_kg, cost: base.cost, costPerM3 };
+  const dV = vol(variant) - vol(base);
+  // The varied layer's material: the thickest insulation layer of the walls (as boxVariant chooses it).
+  const ins = materials.filter((m) => m.category === "insulation");
+  const layer = [...base.wallLayers].filter((l) => ins.some((m) => m.name === l.material)).sort((x, y) => y.thickness_m - x.thickness_m)[0];
+  const rho = ins.find((m) => m.name === layer?.material)?.density_kg_m3 ?? 0;
+  return { mass_kg: Math.max(0, base.emptyMass_kg + rho * dV), cost: Math.max(0, base.cost + costPerM3 * dV), costPerM3 };
 }
 
 export function requiredHold(inp: SizeParsed, routeLength_s: number): number {
@@ -295,6 +305,7 @@ export async function runSizing(
     if (!r) continue;
     const b = inp.boxes[c.box];
     const s = boxVariant(b.shipper, inp.materials, c.variant_m);
+    const box = boxMassAndCost(b, s, inp.materials);
     const o = outerDims(s);
     const inner = s.innerLength_m * s.innerWidth_m * s.innerHeight_m;
     const contents =
@@ -307,8 +318,8 @@ export async function runSizing(
       verdict,
       boxName: s.name,
       packs: inp.packs.map((p, i) => ({ name: p.pack.name, count: c.counts[i], conditioning_C: c.conditioning_C[i] })).filter((p) => p.count > 0),
-      mass_kg: boxMass(b.shipper, s, inp.materials) + inp.packs.reduce((a, p, i) => a + p.pack.mass_kg * c.counts[i], 0) + inp.products.reduce((a, l) => a + l.product.mass_kg * l.count, 0),
-      cost: b.shipper.cost + inp.packs.reduce((a, p, i) => a + p.unitCost * c.counts[i], 0),
+      mass_kg: box.mass_kg + inp.packs.reduce((a, p, i) => a + p.pack.mass_kg * c.counts[i], 0) + inp.products.reduce((a, l) => a + l.product.mass_kg * l.count, 0),
+      cost: box.cost + inp.packs.reduce((a, p, i) => a + p.unitCost * c.counts[i], 0),
       outerVolume_m3: o.L * o.W * o.H,
       holds: verdict === "holds",
     });

@@ -14,6 +14,8 @@ export const sizeBoxSchema = z.object({
   shipper: shipperSchema,
   /** Extra variants: the box's thickest insulation layer (walls and lid) at these thicknesses. */
   thicknessVariants_m: z.array(z.number().positive({ error: "A wall thickness must be greater than zero" }).max(0.3, { error: "Wall thickness above 300 mm is not a box" })).max(10).default([]),
+  /** What a cubic metre more (or less) of its insulation costs in a thickness variant; null: the box's price over its shell volume. */
+  extraInsulationCost_per_m3: z.number({ error: "Insulation cost: enter a number" }).min(0, { error: "Insulation cost cannot be negative" }).max(1e6).nullable().default(null),
 });
 
 export const sizePackSchema = z

@@ -112,3 +112,33 @@ describe("the sizer's pick agrees with the hold planner's band, sunny and shaded
     });
   }
 });
+
+/**
+ * Hand calculation: a thickness variant of the thin cooler (25 mm EPS 16 kg/m³ → 40 mm on walls, base and
+ * lid, inner size kept) adds the foam shell ΔV = (L+2t')(W+2t')(H+2t') − (L+2t)(W+2t)(H+2t): its mass
+ * 16 kg/m³ × ΔV, and its cost at the box's price per m³ of shell (cost ÷ (V_outer − V_inner)).
+ */
+describe("a wall-thickness variant adds its foam's mass and cost", () => {
+  it("thin cooler 25 → 40 mm", async () => {
+    const box = D.shippers.find((s) => s.name.startsWith("Quillfield thin"))!;
+    const eps = D.materials.find((m) => m.name === box.wallLayers[0].material)!;
+    const inp = sizeInputSchema.parse({
+      products: [{ product: D.products.find((p) => p.name.startsWith("Roast chicken"))!, count: 1, start_C: 2 }],
+      route: D.routes[0],
+      ruleSet: D.rulesets[1],
+      materials: D.materials,
+      boxes: [{ shipper: box, thicknessVariants_m: [0.04] }],
+      packs: [{ pack: D.packs.find((p) => p.name.startsWith("Gel"))!, minCount: 2, maxCount: 2, conditioning_C: [-18] }],
+    });
+    const r = await runSizing(inp, evaluateHere(inp));
+    const [a, b] = [r.candidates.find((c) => c.boxName === box.name)!, r.candidates.find((c) => c.boxName.endsWith("(40 mm)"))!];
+    const V = (t: number) => (box.innerLength_m + 2 * t) * (box.innerWidth_m + 2 * t) * (box.innerHeight_m + 2 * t);
+    const t0 = box.wallLayers[0].thickness_m;
+    const dV = V(0.04) - V(t0);
+    const perM3 = box.cost / (V(t0) - box.innerLength_m * box.innerWidth_m * box.innerHeight_m);
+    console.log(`thickness variant: +${(dV * 1000).toFixed(2)} L of foam, +${(b.mass_kg - a.mass_kg).toFixed(3)} kg, +${(b.cost - a.cost).toFixed(2)} in cost`);
+    expect(b.mass_kg - a.mass_kg).toBeCloseTo(eps.density_kg_m3 * dV, 9);
+    expect(b.cost - a.cost).toBeCloseTo(perM3 * dV, 9);
+    expect(b.cost).toBeGreaterThan(a.cost);
+  });
+});
