@@ -414,9 +414,11 @@ export function SizePlanner(props: { products: Product[]; shippers: Shipper[]; p
         <h3>How it was judged</h3>
         <ul className="facts">
           <li>
-            Every candidate is run through the hold model at the {result!.inp.judgeBy === "low" ? "low end of the uncertainty band: the shortest hold over the central run and every corner of the outer coefficient, insulation conductivity and conditioning spreads, the same runs as the hold planner's range (with sun no single corner is always the worst)" : "central estimate"}.
+            Every candidate is run through the hold model at the {result!.inp.judgeBy === "low" ? "low end of the uncertainty band: the shortest hold over the central run and every corner of the outer coefficient, insulation conductivity and conditioning spreads, the same runs as the hold planner's range (with sun no single corner is always the worst; only the conditioning side that provably cannot fail first is skipped)" : "central estimate"}.
           </li>
           <li>The Pareto front keeps each candidate that no other beats on packed mass, cost and outer volume at once.</li>
+          <li>A wall-thickness variant adds (or saves) its insulation&rsquo;s mass, and its cost at the box&rsquo;s own insulation cost per m³ where given, else at the box&rsquo;s price spread over its shell volume (as if the price were all insulation).</li>
+          <li>Packs are placed as each line says (&ldquo;around&rdquo; shares them over top, underneath and sides) and touch the load, as in the hold planner.</li>
           <li>Open a candidate as a plan to see its full curves and uncertainty band.</li>
         </ul>
       </>

@@ -1,22 +1,26 @@
 /**
  * The insulated-box network model, solved implicitly (backward Euler) by Newton iterations.
  *
- * Nodes: wall and lid layer nodes (constant properties), one inside-air node, each coolant pack
- * (enthalpy, distributed across its half-thickness, or one node for dry ice) and each product
- * (enthalpy, distributed, its own shape). Chains couple to the air node at one end only, so each
- * Newton step is solved exactly by eliminating every chain's tridiagonal system towards the air node
- * and solving a scalar equation for the air (a Schur complement on an "arrow" matrix).
+ * Nodes: wall and lid layer nodes (constant properties) for each face part, one or two inside-air zones
+ * (lower and upper half), each coolant pack group (enthalpy, distributed across its half-thickness, or one
+ * node for dry ice) and each product (enthalpy, distributed, its own shape). Chains couple to the zones at
+ * their end node; the end nodes of chains in surface contact (pack–load, pack–face, load–base) join the
+ * zones in a small dense system, and every other chain is eliminated onto the zones (a Schur complement
+ * on an "arrow" matrix), so each Newton step is solved exactly and contacts are implicit.
  *
  * - Outer faces: combined film h_o (convection by the core's correlations + radiation), driven by the
  *   sol-air temperature t_e = t_o + αI/h_o − εΔR/h_o [ashraeSolAir]: the lid sees all the sun and the sky
- *   correction (outdoors only, when sun > 0), the sides a share of the sun, the base none.
+ *   correction (outdoors only, when sun > 0), the sides a share of the sun, the base none. The heat booked
+ *   per face is the net heat through its outer film (air, sun and sky together).
  * - Walls: layers in series, at least one node per layer with its heat capacity; areas are the inner
  *   faces. Edges and corners add conduction shape factors S = 0.54 D per edge and S = 0.15 L per corner,
  *   with the wall's overall thickness L and effective conductivity [incropera6, Table 4.1, cases 8–9,
- *   from memory], acting between outside air and inside air.
- * - Inside: every inner surface exchanges with the air node through a combined coefficient h_i
- *   (natural convection ≈ 2–5 W/(m²·K) in closed coolers, from memory, plus linearised radiation),
- *   so the air node stands for the mixed air-and-radiant inside temperature.
+ *   from memory], acting between outside air and the inside zones.
+ * - Inside: an open inner surface exchanges with its zone through a combined coefficient h_i (natural
+ *   convection ≈ 2–5 W/(m²·K) in closed coolers, from memory, plus linearised radiation), so a zone node
+ *   stands for the mixed air-and-radiant temperature of its half; a covered part of a face exchanges with
+ *   the body lying on it through a contact coefficient instead. The zones exchange through a conductance
+ *   the caller gives (hold.ts: natural convection when colder above, conduction when stable, plus radiation).
  * - Lid openings: during each opening the inside air exchanges with outside air at a set number of
  *   air changes per minute; moisture and condensation are ignored.
  * - Dry ice: one node at the sublimation point while solid remains; sublimated CO₂ leaves the box.
