@@ -265,7 +265,7 @@ function prepare(inp: HoldParsed): Prepared {
   assumptions.push(`Sun: the lid takes all of it, the sides ${Math.round(inp.overrides.sunShareSides * 100)} %, the base none, through the sol-air temperature with the finish "${finish.name}" (α = ${finish.solarAbsorptivity}, ε = ${finish.emissivity})`);
   assumptions.push(`Lid openings replace inside air at ${inp.overrides.lidOpenAirChangesPerMinute} air changes per minute while open; moisture and frost are ignored`);
   assumptions.push(
-    "Products and packs are each modelled in one dimension with their real volume and surface. The load rests on the base; packs underneath lie on the base under it, packs on top lie on it under the lid, packs at the sides stand between it and the side walls, and \"around\" shares a line's packs over the three (the remainder on top first, then underneath). Packs cover the part of the face they lie against — that part exchanges heat with the packs directly, not with the inside air — and touch the load's face towards them (the whole load by area, or the one product a line names), all through the line's contact coefficient; the rest of their surface faces the air. The product surface where a pack touches it is estimated from the product's surface layer and the pack's surface in series and checked against any lower limit",
+    "Products and packs are each modelled in one dimension with their real volume and surface. The load rests on the base; packs underneath lie on the base under it, packs on top lie on it under the lid, packs at the sides stand between it and the side walls, and \"around\" shares a line's packs over the three (the remainder on top first, then underneath). Packs cover the part of the face they lie against — that part exchanges heat with the packs directly, not with the inside air — and touch the load's face towards them (the whole load by area, or the one product a line names), all through the line's contact coefficient; the rest of their surface faces the air. The product's surface layer where a pack touches it (one node spacing deep, with its own heat capacity and latent heat) is followed between the product's interior and the coldest touching pack, and checked against any lower limit",
   );
   assumptions.push(`The box and inside air start at ${inp.boxStart_C ?? inp.route.segments[0].airTemp_C} °C`);
   if (inp.packs.length) {
@@ -472,20 +472,25 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
   L.products.forEach((pr, j) => add("base", wallLayers, pr.onBase_m2, { body: nGroups + j, h_W_m2K: DEFAULT_CONTACT_W_M2K }));
   void half;
 
-  // Freeze check next to packs: the product surface where a pack touches it, from the node under the
-  // surface and the coldest touching pack through the contact (quasi-steady: k/Δr in series with h_c).
+  // Freeze check next to packs: the product's surface layer where a pack touches it (depth Δr, one node
+  // spacing) as its own small node, coupled to the node under it (k/Δr) and to the coldest touching pack's
+  // surface (the contact coefficient), with its own heat capacity including latent heat, integrated
+  // implicitly with the model's steps. It starts at the product's packing temperature.
   const touching = inp.products.map((_, j) => L.groups.map((g, k) => ({ k, hc: inp.packs[g.line].contact_W_m2K, a: g.load_m2[j] })).filter((x) => x.a > 0));
-  const contactPoint = (j: number, st: { bodySurface_C: Float64Array; bodySub_C: Float64Array }) => {
+  const patch = inp.products.map((l) => l.start_C);
+  const contactPoint = (j: number, st: { bodySurface_C: Float64Array; bodySub_C: Float64Array }, dt: number) => {
     const pm = P.productMats[j];
     const sub = st.bodySub_C[nGroups + j];
     const dr = pm.R / Math.max(1, 9 * (v.resolution ?? 1) - 1);
-    const kIn = pm.mat.k_W_mK(st.bodySurface_C[nGroups + j]) / dr;
+    const T0 = patch[j];
+    const K = pm.mat.k_W_mK(T0) / dr;
+    const C = (pm.mat.rho_kg_m3 * pm.mat.c_J_kgK(T0) * dr) / dt;
     let coldest = Infinity;
     for (const x of touching[j]) {
-      const Tp = st.bodySurface_C[x.k];
-      const T = (kIn * sub + x.hc * Tp) / (kIn + x.hc);
+      const T = (C * T0 + K * sub + x.hc * st.bodySurface_C[x.k]) / (C + K + x.hc);
       if (T < coldest) coldest = T;
     }
+    patch[j] = coldest;
     return coldest;
   };
 
@@ -556,9 +561,11 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
         check(j, "centre", c, prevC[j], "upper", b.upper_C);
         check(j, "centre", c, prevC[j], "lower", b.lower_C);
         if (b.lower_C !== null && touching[j].length) {
-          const x = contactPoint(j, st);
-          check(j, "next to a pack", x, t === 0 ? x : prevX[j], "lower", b.lower_C);
-          prevX[j] = x;
+          if (t > 0) {
+            const x = contactPoint(j, st, t - prevT);
+            check(j, "next to a pack", x, prevX[j], "lower", b.lower_C);
+            prevX[j] = x;
+          } else prevX[j] = patch[j];
         }
         prevC[j] = c;
         prevS[j] = s;
