@@ -194,6 +194,8 @@ function prepare(inp: HoldParsed): Prepared {
       warnings.push(`${p.name} is given at ${line.conditioning_C} °C, above its sublimation point (${p.phaseChange_C} °C), where dry ice cannot exist at atmospheric pressure: it is modelled as solid at ${p.phaseChange_C} °C`);
     } else if (line.conditioning_C >= p.phaseChange_C + w / 2) {
       warnings.push(`${p.name} is conditioned at ${line.conditioning_C} °C, above its melt point (${p.phaseChange_C} °C): it starts melted and gives sensible cooling only`);
+    } else if (p.kind !== "dry_ice" && line.conditioning_C <= p.phaseChange_C && line.conditioning_C >= p.phaseChange_C - w / 2) {
+      warnings.push(`${p.name} is conditioned at ${line.conditioning_C} °C, at its melt point: modelled as fully frozen, as meant — a cabinet that warm cannot freeze it through, so it must have been frozen colder first`);
     } else if (line.conditioning_C > p.phaseChange_C) {
       const f = (line.conditioning_C - p.phaseChange_C) / (w / 2);
       warnings.push(`${p.name} is conditioned at ${line.conditioning_C} °C, just above its melt point (${p.phaseChange_C} °C): it is modelled as ${Math.round(f * 100)} % melted when packed. Condition it at or below ${p.phaseChange_C} °C to start it frozen`);

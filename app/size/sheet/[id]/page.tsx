@@ -4,7 +4,7 @@ import { currentUnits } from "@/app/_server/units";
 import { getPlan } from "@/lib/db/plans";
 import { holdInputSchema } from "@/lib/schemas/hold";
 import { runHoldParsed } from "@/lib/physics/hold";
-import { conditioningTime_s, CABINET_H_W_M2K, PACK_START_C } from "@/lib/physics/conditioning";
+import { conditioningTime_s, canFreezeAt, CABINET_H_W_M2K, PACK_START_C } from "@/lib/physics/conditioning";
 import { formatQuantity } from "@/lib/units";
 import { formatDuration } from "@/lib/format";
 import { LayerDiagram } from "@/app/_components/LayerDiagram";
@@ -69,7 +69,7 @@ export default async function PackOutSheet({ params }: { params: Promise<{ id: s
                   <td>{p.pack.name}</td>
                   <td>{p.count}</td>
                   <td>{p.pack.kind === "dry_ice" ? "as delivered" : formatQuantity("temperature", p.conditioning_C, units, 3)}</td>
-                  <td>{p.pack.kind === "dry_ice" ? "—" : t === null ? "over 14 days: check the cabinet" : formatDuration(t)}</td>
+                  <td>{p.pack.kind === "dry_ice" ? "—" : p.conditioning_C <= p.pack.phaseChange_C && !canFreezeAt(p.pack, p.conditioning_C) ? "a cabinet this warm cannot freeze it through: use a colder one" : t === null ? "over 14 days: check the cabinet" : formatDuration(t)}</td>
                   <td>{placedAs(p.placement, p.count)}</td>
                 </tr>
               );
