@@ -653,9 +653,15 @@ export function uncertaintyCorners(u: HoldParsed["uncertainty"]): HoldCorner[] {
  * Runs the corners asked for, without curves, each stopping at its first failure: what the pack-out sizer
  * needs. With `lowOnly`, each run after the first also stops at the earliest failure found so far (it can
  * only lower the minimum before then), so the minimum hold over the corners is exact and found sooner.
+ * With `stopBelow_s`, the corners stop once the minimum is below it (`complete: false`: the minimum
+ * found is then an upper bound of the low end).
  * Throws PhysicsInputError for contents that do not fit or a product with no band.
  */
-export function holdRuns(inp: HoldParsed, corners: HoldCorner[], opts: { lowOnly?: boolean } = {}): { runs: HoldRun[]; routeLength_s: number; hasLowerLimit: boolean } {
+export function holdRuns(
+  inp: HoldParsed,
+  corners: HoldCorner[],
+  opts: { lowOnly?: boolean; stopBelow_s?: number } = {},
+): { runs: HoldRun[]; routeLength_s: number; hasLowerLimit: boolean; complete: boolean } {
   const P = prepare(inp);
   const runs: HoldRun[] = [];
   let low = Infinity;
@@ -671,8 +677,12 @@ export function holdRuns(inp: HoldParsed, corners: HoldCorner[], opts: { lowOnly
     const r = runOnce(P, { ...c, keepSeries: false, stopAt_s: opts.lowOnly && Number.isFinite(low) ? low : undefined });
     runs.push(r);
     if (r.holdTime_s !== null && r.holdTime_s < low) low = r.holdTime_s;
+    // Asked only for the minimum down to a threshold: once below it, the rest cannot change the verdict.
+    if (opts.stopBelow_s !== undefined && low < opts.stopBelow_s && runs.length < list.length) {
+      return { runs, routeLength_s: P.routeLength_s, hasLowerLimit: hasLower, complete: false };
+    }
   }
-  return { runs, routeLength_s: P.routeLength_s, hasLowerLimit: P.bands.some((b) => b.lower_C !== null) };
+  return { runs, routeLength_s: P.routeLength_s, hasLowerLimit: hasLower, complete: true };
 }
 
 export function runHoldParsed(inp: HoldParsed, opts: { resolution?: number } = {}): HoldResult {

@@ -46,6 +46,8 @@ export interface CandidateResult {
   hold_s: number | null;
   /** Hold at the other judging points, when run. */
   central_s: number | null;
+  /** True when the corners stopped early, the candidate already far short: hold_s is then "at most". */
+  holdIsUpperBound: boolean;
   reason: string | null;
   failsFirst: { product: string; point: string; limit: "upper" | "lower" } | null;
   dryIceGone_s: number | null;
@@ -127,6 +129,9 @@ export function boxMassAndCost(b: SizeParsed["boxes"][number], variant: Shipper,
   const rho = ins.find((m) => m.name === layer?.material)?.density_kg_m3 ?? 0;
   return { mass_kg: Math.max(0, base.emptyMass_kg + rho * dV), cost: Math.max(0, base.cost + costPerM3 * dV), costPerM3 };
 }
+
+/** A failing candidate that reaches at least this fraction of the required hold is a near miss. */
+export const NEAR_MISS_FRACTION = 0.75;
 
 export function requiredHold(inp: SizeParsed, routeLength_s: number): number {
   return inp.margin.kind === "percent" ? routeLength_s * (1 + inp.margin.value / 100) : routeLength_s + inp.margin.value * 3600;
@@ -213,10 +218,14 @@ export function evaluateCandidate(inp: SizeParsed, c: Candidate, required_s: num
   try {
     const hold = candidateHoldInput(inp, c, extend);
     // The low end: the minimum over the hold planner's own uncertainty sample (central run first).
-    out = holdRuns(hold, inp.judgeBy === "central" ? uncertaintyCorners({ outerH_frac: 0, insulationK_frac: 0, conditioning_K: 0 }) : uncertaintyCorners(inp.uncertainty), { lowOnly: true });
+    // A candidate already below 75 % of the required hold is no near miss: its remaining corners are skipped.
+    out = holdRuns(hold, inp.judgeBy === "central" ? uncertaintyCorners({ outerH_frac: 0, insulationK_frac: 0, conditioning_K: 0 }) : uncertaintyCorners(inp.uncertainty), {
+      lowOnly: true,
+      stopBelow_s: NEAR_MISS_FRACTION * required_s,
+    });
   } catch (e) {
     if (e instanceof PhysicsInputError && /larger than the box/.test(e.message)) {
-      return { index: c.index, verdict: "does not fit", hold_s: null, central_s: null, reason: "the contents do not fit", failsFirst: null, dryIceGone_s: null, pruned: false };
+      return { index: c.index, verdict: "does not fit", hold_s: null, central_s: null, holdIsUpperBound: false, reason: "the contents do not fit", failsFirst: null, dryIceGone_s: null, pruned: false };
     }
     throw e;
   }
@@ -236,6 +245,7 @@ export function evaluateCandidate(inp: SizeParsed, c: Candidate, required_s: num
     verdict: holds ? "holds" : "fails",
     hold_s: hold,
     central_s: out.runs[0].holdTime_s,
+    holdIsUpperBound: !out.complete,
     reason,
     failsFirst: worst.failsFirst ? { product: worst.failsFirst.product, point: worst.failsFirst.point, limit: worst.failsFirst.limit } : null,
     dryIceGone_s: worst.dryIceGone_s,
@@ -277,7 +287,7 @@ export async function runSizing(
       const c = plan.candidates[i];
       const holding = holdingByGroup.get(c.group);
       if (prune && holding && holding.some((h) => h.every((n, k) => c.counts[k] >= n))) {
-        results[i] = { index: i, verdict: "holds", hold_s: null, central_s: null, reason: null, failsFirst: null, dryIceGone_s: null, pruned: true };
+        results[i] = { index: i, verdict: "holds", hold_s: null, central_s: null, holdIsUpperBound: false, reason: null, failsFirst: null, dryIceGone_s: null, pruned: true };
         pruned++;
         done++;
       } else toRun.push(i);
@@ -330,7 +340,7 @@ export async function runSizing(
     .map((r) => r.index)
     .sort((x, y) => x - y);
   const nearMisses = rows
-    .filter((r) => r.verdict === "fails" && r.hold_s !== null && r.hold_s >= 0.75 * plan.required_s)
+    .filter((r) => r.verdict === "fails" && r.hold_s !== null && r.hold_s >= NEAR_MISS_FRACTION * plan.required_s)
     .sort((a, b) => (b.hold_s ?? 0) - (a.hold_s ?? 0))
     .slice(0, 12)
     .map((r) => ({ index: r.index, reason: r.reason ?? "fails", hold_s: r.hold_s }));

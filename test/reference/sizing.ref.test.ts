@@ -108,7 +108,9 @@ describe("the sizer's pick agrees with the hold planner's band, sunny and shaded
       const bf = band(fewer.index);
       expect(bf.low).not.toBeNull();
       expect(bf.low!).toBeLessThan(r.required_s);
-      expect(Math.abs(fewer.hold_s! / bf.low! - 1)).toBeLessThan(1e-6);
+      // Exact where the sizer ran every corner; an upper bound of it where it stopped, far short.
+      if (fewer.holdIsUpperBound) expect(bf.low!).toBeLessThanOrEqual(fewer.hold_s! * (1 + 1e-9));
+      else expect(Math.abs(fewer.hold_s! / bf.low! - 1)).toBeLessThan(1e-6);
     });
   }
 });
