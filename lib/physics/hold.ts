@@ -454,7 +454,6 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
   L.groups.forEach((g, k) => g.load_m2.forEach((a, j) => a > 0 && contacts.push({ a: k, b: nGroups + j, conductance_W_K: inp.packs[g.line].contact_W_m2K * a })));
   // Faces: the open part of each exchanges with its half of the inside air; covered parts touch packs or the load.
   const faces: FaceSpec[] = [];
-  const half = (P.inner.L + P.inner.W) * P.inner.H;
   const add = (kind: FaceSpec["kind"], layers: WallLayerSpec[], area: number, inner: FaceSpec["inner"]) => {
     if (area > 1e-9) faces.push({ kind, layers, area_m2: area, inner });
   };
@@ -472,7 +471,6 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
     }
   });
   L.products.forEach((pr, j) => add("base", wallLayers, pr.onBase_m2, { body: nGroups + j, h_W_m2K: DEFAULT_CONTACT_W_M2K }));
-  void half;
 
   // Freeze check next to packs: the product's surface layer where a pack touches it (depth Δr, one node
   // spacing) as its own small node, coupled to the node under it (k/Δr) and to the coldest touching pack's
