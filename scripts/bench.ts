@@ -128,7 +128,7 @@ let lastHold = runHoldParsed(single);
 const h1 = time(() => (lastHold = runHoldParsed(single)), 40, 40);
 const h9 = time(() => runHoldParsed(withBand), 15, 5);
 console.log("\nHold planner — 48 h route, 6 segments, 1 box, 4 pack lines, 3 product lines");
-console.log(`  one plan: median ${median(h1).toFixed(2)} ms (${lastHold.steps} implicit steps, ${lastHold.newtonIterations} Newton iterations, energy balance ${lastHold.energyBalanceError.toExponential(1)})`);
+console.log(`  one plan: median ${median(h1).toFixed(2)} ms (${lastHold.steps} implicit steps, ${lastHold.newtonIterations} Newton iterations, energy balance ${lastHold.energyBalanceError?.toExponential(1) ?? "not meaningful"})`);
 console.log(`  with the uncertainty band (central + 8 runs): median ${median(h9).toFixed(2)} ms (${(median(h9) / median(h1)).toFixed(1)}× one plan)`);
 // 5. Thaw planner.
 const codThaw = thawInputSchema.parse({ product: find(D.products, "Cod fillets"), start_C: -18, ruleSet: D.rulesets[0], method: { kind: "fridge_air", air_C: 4, speed_m_s: 0.3 } });

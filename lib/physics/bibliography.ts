@@ -279,6 +279,29 @@ export const BIBLIOGRAPHY = {
     where: "Numer. Heat Transfer B 17:155–169 (enthalpy formulation solved implicitly)",
     note: "from memory",
   },
+  smith1995Monotone: {
+    authors: "H. L. Smith",
+    title: "Monotone Dynamical Systems: An Introduction to the Theory of Competitive and Cooperative Systems",
+    year: 1995,
+    edition: "AMS Mathematical Surveys and Monographs 41",
+    where: "Ch. 3 (cooperative systems of ODEs; Kamke's comparison theorem)",
+    note: "from memory",
+  },
+  globeDropkin1959: {
+    authors: "S. Globe, D. Dropkin",
+    title: "Natural-convection heat transfer in liquids confined by two horizontal plates and heated from below",
+    year: 1959,
+    where: "J. Heat Transfer 81:24–28; Nu = 0.069 Ra^(1/3) Pr^0.074 for 3×10⁵ < Ra < 7×10⁹ (as Incropera et al. 6th ed. Eq. 9.49)",
+    note: "from memory",
+  },
+  incroperaEnclosure: {
+    authors: "Incropera et al.",
+    title: "Fundamentals of Heat and Mass Transfer",
+    year: 2007,
+    edition: "6th ed.",
+    where: "§9.8 (horizontal cavities: heated from below, convection sets in above Ra = 1708; heated from above, or cooled from below, the layer is stable and heat crosses by conduction, Nu = 1)",
+    note: "numbering from memory",
+  },
 } as const satisfies Record<string, Reference>;
 
 export type SourceKey = keyof typeof BIBLIOGRAPHY;

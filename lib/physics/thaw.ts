@@ -43,6 +43,8 @@ export interface ThawMethodResult {
 }
 
 export interface ThawResult extends ThawMethodResult {
+  /** Whether the "start by" time has already passed (null when there is none). */
+  startByPassed: boolean | null;
   endPoint_C: number;
   chillLimit_C: number;
   comparison: ThawMethodResult[] | null;
@@ -394,7 +396,8 @@ export function runThaw(raw: ThawInput): ThawResult {
   return runThawParsed(parsed.data);
 }
 
-export function runThawParsed(inp: ThawParsed): ThawResult {
+/** `now_ms`: the time a "start by" is judged against (default: the clock). */
+export function runThawParsed(inp: ThawParsed, opts: { now_ms?: number } = {}): ThawResult {
   const item = makeItem(inp.product);
   const warnings: string[] = [...item.food.warnings];
   const endPoint_C = inp.endPoint_C ?? item.food.Tf_C + inp.endMargin_K;
@@ -403,6 +406,9 @@ export function runThawParsed(inp: ThawParsed): ThawResult {
   }
   if (endPoint_C <= inp.start_C) throw new PhysicsInputError("endPoint_C", "the end point must be warmer than the starting temperature");
   const main = runMethod(item, inp, inp.method, endPoint_C, warnings);
+  // A "start by" already in the past cannot be met: flag it rather than print it as a plan.
+  const startByPassed = main.startBy === null ? null : new Date(main.startBy).getTime() < (opts.now_ms ?? Date.now());
+  if (startByPassed) warnings.push(`Start by ${main.startBy} has already passed: by this method the item will not be thawed by ${inp.readyBy}. Choose a later service time or another approved method`);
   if (main.thawTime_s === null) warnings.push(`The centre does not reach ${endPoint_C.toFixed(1)} °C within ${(inp.horizon_s / 86400).toFixed(0)} days`);
   if ((inp.method.kind === "running_water" || inp.method.kind === "still_water") && inp.ruleSet.thawWaterMax_C !== null && inp.method.water_C > inp.ruleSet.thawWaterMax_C) {
     warnings.push(`Water at ${inp.method.water_C} °C is above the rule set's maximum of ${inp.ruleSet.thawWaterMax_C} °C: computed, but not allowed`);
@@ -443,5 +449,5 @@ export function runThawParsed(inp: ThawParsed): ThawResult {
     "Food thawed in water or in a microwave is normally cooked straight away.",
     "Follow your local rules on refreezing thawed food.",
   ];
-  return { ...main, endPoint_C, chillLimit_C: inp.ruleSet.chilledMax_C, comparison, assumptions, warnings, advice };
+  return { ...main, startByPassed, endPoint_C, chillLimit_C: inp.ruleSet.chilledMax_C, comparison, assumptions, warnings, advice };
 }

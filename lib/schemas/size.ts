@@ -14,6 +14,8 @@ export const sizeBoxSchema = z.object({
   shipper: shipperSchema,
   /** Extra variants: the box's thickest insulation layer (walls and lid) at these thicknesses. */
   thicknessVariants_m: z.array(z.number().positive({ error: "A wall thickness must be greater than zero" }).max(0.3, { error: "Wall thickness above 300 mm is not a box" })).max(10).default([]),
+  /** What a cubic metre more (or less) of its insulation costs in a thickness variant; null: the box's price over its shell volume. */
+  extraInsulationCost_per_m3: z.number({ error: "Insulation cost: enter a number" }).min(0, { error: "Insulation cost cannot be negative" }).max(1e6).nullable().default(null),
 });
 
 export const sizePackSchema = z
@@ -23,6 +25,8 @@ export const sizePackSchema = z
     maxCount: z.number().int({ error: "Most: a whole number" }).min(0, { error: "Most cannot be negative" }).max(100, { error: "Most: at most 100" }),
     conditioning_C: z.array(temp("Conditioning")).min(1, { error: "Give at least one conditioning temperature" }).max(6),
     placement: z.enum(PLACEMENTS).default("around"),
+    /** Whether the packs touch the load (false: kept apart from it, e.g. in their own compartment). */
+    touchesLoad: z.boolean().default(true),
     unitCost: z.number().min(0, { error: "Cost cannot be negative" }).default(0),
   })
   .superRefine((p, ctx) => {
@@ -42,6 +46,8 @@ export const sizeInputSchema = z
     uncertainty: uncertaintySchema.default({ outerH_frac: 0.3, insulationK_frac: 0.1, conditioning_K: 2 }),
     boxStart_C: temp("Box temperature when packed").nullable().default(null),
     maxCandidates: z.number().int().min(1).max(MAX_CANDIDATES).default(5000),
+    /** Treat the inside air of every candidate as one well-mixed volume (no stratification), as hand formulas do. */
+    wellMixedInside: z.boolean().default(false),
     /** Skip candidates that monotone physics already decides (never where a lower limit could be crossed). */
     prune: z.boolean().default(true),
   });
