@@ -3,7 +3,7 @@
 // through scripts/bundle.mjs). In a source checkout it rebuilds the bundle first when cli/ or lib/
 // changed since it was built, so `npx holdline` never runs stale code; where that is impossible
 // (no esbuild, a read-only install) it runs the bundle it has.
-import { existsSync, readFileSync } from "node:fs";
+import { existsSync } from "node:fs";
 import { fileURLToPath } from "node:url";
 import path from "node:path";
 
@@ -12,10 +12,8 @@ const entry = path.join(root, "dist", "cli", "holdline.mjs");
 
 async function rebuildIfStale() {
   if (!existsSync(path.join(root, "cli", "holdline.ts"))) return;
-  const { sourceStamp, CLI_SOURCES } = await import("../scripts/source-stamp.mjs");
-  const stampFile = path.join(root, "dist", "cli.stamp");
-  const built = existsSync(stampFile) ? readFileSync(stampFile, "utf8").trim() : "";
-  if (existsSync(entry) && built === sourceStamp(root, CLI_SOURCES)) return;
+  const { cliBundleIsStale } = await import("../scripts/source-stamp.mjs");
+  if (!cliBundleIsStale(root)) return;
   try {
     const { bundle } = await import("../scripts/bundle.mjs");
     await bundle({ quiet: true });

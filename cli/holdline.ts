@@ -27,6 +27,20 @@ import { runWarmup } from "../lib/physics/warmup";
 import { CliError } from "./errors";
 
 const SCHEMA_NAMES = Object.keys(NAMED_SCHEMAS);
+/** The schema names for the help text, wrapped under its description column. */
+const schemaNameLines = (): string => {
+  const lines: string[] = [];
+  let line = "";
+  for (const n of SCHEMA_NAMES) {
+    const next = line ? `${line}, ${n}` : n;
+    if (next.length > 44 && line) {
+      lines.push(line + ",");
+      line = n;
+    } else line = next;
+  }
+  lines.push(line);
+  return lines.map((l, i) => " ".repeat(38) + (i === 0 ? "(" : " ") + l + (i === lines.length - 1 ? ")" : "")).join("\n");
+};
 
 const HELP = `holdline — hold, thaw and pack-out planning from transient heat transfer
 
@@ -47,7 +61,7 @@ Usage:
   holdline plans show ID [--json]     one saved plan; with --json its input, as a file that
                                       holdline KIND FILE accepts
   holdline schema NAME                print the JSON Schema of an input
-                                      (${SCHEMA_NAMES.join(", ")})
+${schemaNameLines()}
   holdline --help                     this text
 
 Options:
@@ -63,8 +77,10 @@ export interface CliIo {
   err: (s: string) => void;
   /** Standard input, for "-" (default: file descriptor 0). */
   stdin?: () => string;
+  /** Whether err is a terminal, where the sizer's progress line is redrawn in place. */
+  errIsTTY?: boolean;
 }
-const STDIO: CliIo = { out: (s) => void process.stdout.write(s), err: (s) => void process.stderr.write(s) };
+const STDIO: CliIo = { out: (s) => void process.stdout.write(s), err: (s) => void process.stderr.write(s), errIsTTY: process.stderr.isTTY };
 
 
 /** Reads JSON from a file or standard input ("-"). A leading byte-order mark is ignored. */
@@ -175,8 +191,12 @@ async function run(argv: string[], io: CliIo): Promise<number> {
   }
   const emit = (value: unknown) => {
     const text = toJson(value, io, command);
-    if (values.out) writeFileSync(values.out, text);
-    else io.out(text);
+    if (!values.out) return io.out(text);
+    try {
+      writeFileSync(values.out, text);
+    } catch (e) {
+      throw new CliError(`holdline ${command}: cannot write ${values.out}: ${(e as Error).message}`);
+    }
   };
 
   if (command === "schema") {
@@ -285,8 +305,8 @@ async function size(resolved: Awaited<ReturnType<Resolver>>, io: CliIo, emit: (v
   const { nodePool } = await import("./size-pool");
   const pool = nodePool(parsed.data);
   try {
-    const r = await runSizing(parsed.data, pool.evaluate, { onProgress: (d, t) => io.err(`\rholdline size: ${d} of ${t} candidates`) });
-    io.err("\n");
+    const r = await runSizing(parsed.data, pool.evaluate, { onProgress: io.errIsTTY ? (d, t) => io.err(`\rholdline size: ${d} of ${t} candidates`) : undefined });
+    io.err(`${io.errIsTTY ? "\r" : ""}holdline size: ${r.evaluated} candidates run, ${r.pruned} decided by monotonicity\n`);
     if (r.message) io.err(`holdline size: ${r.message}\n`);
     emit(r);
     return 0;

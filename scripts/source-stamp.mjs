@@ -2,7 +2,7 @@
 // modification time (no file is read). Used to decide whether a build is stale: the CLI bundle
 // (bin/holdline.mjs, scripts/bundle.mjs) and the Next build (scripts/build-if-changed.mjs).
 import { createHash } from "node:crypto";
-import { existsSync, readdirSync, statSync } from "node:fs";
+import { existsSync, readdirSync, readFileSync, statSync } from "node:fs";
 import path from "node:path";
 
 /** What the CLI bundle is built from. */
@@ -35,4 +35,11 @@ export function sourceStamp(root, items) {
     else lines.push(`${item}\tabsent`);
   }
   return createHash("sha256").update(lines.join("\n")).digest("hex");
+}
+
+/** True when the CLI bundle under root/dist is missing or was built from other sources than those now present. */
+export function cliBundleIsStale(root) {
+  const stampFile = path.join(root, "dist", "cli.stamp");
+  if (!existsSync(path.join(root, "dist", "cli", "holdline.mjs")) || !existsSync(stampFile)) return true;
+  return readFileSync(stampFile, "utf8").trim() !== sourceStamp(root, CLI_SOURCES);
 }
