@@ -11,27 +11,18 @@ import { readFileSync, writeFileSync } from "node:fs";
 import type { z } from "zod";
 import type { Db } from "../lib/db/client";
 import { resolveDatabasePath } from "../lib/db/path";
-import { jsonSchemaOf, NAMED_SCHEMAS } from "../lib/schemas/json-schema";
-import { resolveHoldRefs, resolveSizeRefs, resolveTemplateRefs, resolveThawRefs } from "../lib/db/resolve";
-import { sizeInputSchema } from "../lib/schemas/size";
+import type { SizeParsed } from "../lib/schemas/size";
 import { fieldErrorsOf, type FieldErrors } from "../lib/schemas/errors";
-import { runSizing } from "../lib/physics/sizing";
 import { PhysicsInputError } from "../lib/physics/validation";
-import { thawInputSchema } from "../lib/schemas/thaw";
-import { runThawParsed } from "../lib/physics/thaw";
-import { holdInputSchema } from "../lib/schemas/hold";
-import { runHoldParsed } from "../lib/physics/hold";
-import { warmupInputSchema } from "../lib/schemas/warmup";
 import { runValidated } from "../lib/schemas/run";
-import { runWarmup } from "../lib/physics/warmup";
 import { CliError } from "./errors";
 
-const SCHEMA_NAMES = Object.keys(NAMED_SCHEMAS);
+const schemaNames = async () => Object.keys((await import("../lib/schemas/json-schema")).NAMED_SCHEMAS);
 /** The schema names for the help text, wrapped under its description column. */
-const schemaNameLines = (): string => {
+const schemaNameLines = (names: string[]): string => {
   const lines: string[] = [];
   let line = "";
-  for (const n of SCHEMA_NAMES) {
+  for (const n of names) {
     const next = line ? `${line}, ${n}` : n;
     if (next.length > 44 && line) {
       lines.push(line + ",");
@@ -42,7 +33,7 @@ const schemaNameLines = (): string => {
   return lines.map((l, i) => " ".repeat(38) + (i === 0 ? "(" : " ") + l + (i === lines.length - 1 ? ")" : "")).join("\n");
 };
 
-const HELP = `holdline — hold, thaw and pack-out planning from transient heat transfer
+const help = async () => `holdline — hold, thaw and pack-out planning from transient heat transfer
 
 Usage:
   holdline export [--out FILE]        write every template (and the units setting) as JSON
@@ -61,7 +52,7 @@ Usage:
   holdline plans show ID [--json]     one saved plan; with --json its input, as a file that
                                       holdline KIND FILE accepts
   holdline schema NAME                print the JSON Schema of an input
-${schemaNameLines()}
+${schemaNameLines(await schemaNames())}
   holdline --help                     this text
 
 Options:
@@ -139,12 +130,37 @@ function lazyDb(open: () => Promise<Db>): { db: Db; close: () => Promise<void> }
   };
 }
 
-type Resolver = (db: Db, body: unknown) => Promise<{ ok: true; value: unknown } | { ok: false; fieldErrors: FieldErrors }>;
-const CALCULATIONS: Record<string, { resolve: Resolver; schema: z.ZodType }> = {
-  warmup: { resolve: (db, body) => resolveTemplateRefs(db, body, { product: "products", ruleSet: "rulesets" }), schema: warmupInputSchema },
-  hold: { resolve: resolveHoldRefs, schema: holdInputSchema },
-  thaw: { resolve: resolveThawRefs, schema: thawInputSchema },
-  size: { resolve: resolveSizeRefs, schema: sizeInputSchema },
+type Resolved = { ok: true; value: unknown } | { ok: false; fieldErrors: FieldErrors };
+type Resolver = (db: Db, body: unknown) => Promise<Resolved>;
+interface Calculation {
+  resolve: Resolver;
+  schema: z.ZodType;
+  /** Validates and computes; null for the sizer, which runs on threads (see size()). */
+  run: ((input: unknown) => ReturnType<typeof runValidated>) | null;
+}
+const calculation = <S extends z.ZodType>(resolve: Resolver, schema: S, compute: ((parsed: z.output<S>) => unknown) | null): Calculation => ({
+  resolve,
+  schema,
+  run: compute && ((input) => runValidated(schema, input, compute)),
+});
+/** Each calculation's name resolver, schema and model, imported only when its command runs. */
+const CALCULATIONS: Record<string, () => Promise<Calculation>> = {
+  warmup: async () => {
+    const [{ resolveTemplateRefs }, { warmupInputSchema }, { runWarmup }] = await Promise.all([import("../lib/db/resolve"), import("../lib/schemas/warmup"), import("../lib/physics/warmup")]);
+    return calculation((db, body) => resolveTemplateRefs(db, body, { product: "products", ruleSet: "rulesets" }), warmupInputSchema, runWarmup);
+  },
+  hold: async () => {
+    const [{ resolveHoldRefs }, { holdInputSchema }, { runHoldParsed }] = await Promise.all([import("../lib/db/resolve"), import("../lib/schemas/hold"), import("../lib/physics/hold")]);
+    return calculation(resolveHoldRefs, holdInputSchema, (input) => runHoldParsed(input));
+  },
+  thaw: async () => {
+    const [{ resolveThawRefs }, { thawInputSchema }, { runThawParsed }] = await Promise.all([import("../lib/db/resolve"), import("../lib/schemas/thaw"), import("../lib/physics/thaw")]);
+    return calculation(resolveThawRefs, thawInputSchema, (input) => runThawParsed(input));
+  },
+  size: async () => {
+    const [{ resolveSizeRefs }, { sizeInputSchema }] = await Promise.all([import("../lib/db/resolve"), import("../lib/schemas/size")]);
+    return calculation(resolveSizeRefs, sizeInputSchema, null);
+  },
 };
 
 export async function main(argv: string[], io: CliIo = STDIO): Promise<number> {
@@ -176,17 +192,17 @@ async function run(argv: string[], io: CliIo): Promise<number> {
       },
     });
   } catch (e) {
-    io.err(`holdline: ${(e as Error).message}\n\n${HELP}\n`);
+    io.err(`holdline: ${(e as Error).message}\n\n${await help()}\n`);
     return 2;
   }
   const { values, positionals } = parsed;
   const [command, ...rest] = positionals;
   if (values.help || command === "help") {
-    io.out(HELP + "\n");
+    io.out((await help()) + "\n");
     return 0;
   }
   if (!command) {
-    io.err(HELP + "\n");
+    io.err((await help()) + "\n");
     return 2;
   }
   const emit = (value: unknown) => {
@@ -201,8 +217,9 @@ async function run(argv: string[], io: CliIo): Promise<number> {
 
   if (command === "schema") {
     const name = rest[0];
+    const { jsonSchemaOf, NAMED_SCHEMAS } = await import("../lib/schemas/json-schema");
     const schema = name && Object.hasOwn(NAMED_SCHEMAS, name) ? jsonSchemaOf(name) : null;
-    if (!schema) throw new CliError(`holdline schema: ${name ? `no input named "${name}"; ` : ""}name one of ${SCHEMA_NAMES.join(", ")}`, 2);
+    if (!schema) throw new CliError(`holdline schema: ${name ? `no input named "${name}"; ` : ""}name one of ${Object.keys(NAMED_SCHEMAS).join(", ")}`, 2);
     emit(schema);
     return 0;
   }
@@ -261,12 +278,12 @@ async function run(argv: string[], io: CliIo): Promise<number> {
     return 0;
   }
 
-  const calc = CALCULATIONS[command];
-  if (calc && Object.hasOwn(CALCULATIONS, command)) {
+  if (Object.hasOwn(CALCULATIONS, command)) {
     const file = rest[0];
     if (!file) throw new CliError(`holdline ${command}: give an input file, or - for standard input (see holdline schema ${command})`, 2);
     const data = readJsonInput(file, command, io);
-    let resolved: Awaited<ReturnType<Resolver>>;
+    const calc = await CALCULATIONS[command]();
+    let resolved: Resolved;
     try {
       resolved = await withDb((db) => calc.resolve(db, data));
     } catch (e) {
@@ -275,14 +292,8 @@ async function run(argv: string[], io: CliIo): Promise<number> {
       if (shape.success || e instanceof CliError) throw e;
       resolved = { ok: false, fieldErrors: fieldErrorsOf(shape.error) };
     }
-    if (command === "size") return size(resolved, io, emit);
-    const r = !resolved.ok
-      ? resolved
-      : command === "hold"
-        ? runValidated(holdInputSchema, resolved.value, (input) => runHoldParsed(input))
-        : command === "thaw"
-          ? runValidated(thawInputSchema, resolved.value, (input) => runThawParsed(input))
-          : runValidated(warmupInputSchema, resolved.value, (input) => runWarmup(input));
+    if (!calc.run) return size(resolved, calc.schema, io, emit);
+    const r = resolved.ok ? calc.run(resolved.value) : resolved;
     if (!r.ok) {
       io.err(`holdline ${command}: the input has problems; nothing was computed:\n${problemLines(r.fieldErrors)}\n`);
       return 1;
@@ -291,18 +302,18 @@ async function run(argv: string[], io: CliIo): Promise<number> {
     return 0;
   }
 
-  io.err(`holdline: unknown command "${command}"\n\n${HELP}\n`);
+  io.err(`holdline: unknown command "${command}"\n\n${await help()}\n`);
   return 2;
 }
 
-async function size(resolved: Awaited<ReturnType<Resolver>>, io: CliIo, emit: (v: unknown) => void): Promise<number> {
-  const parsed = resolved.ok ? sizeInputSchema.safeParse(resolved.value) : null;
+async function size(resolved: Resolved, schema: z.ZodType, io: CliIo, emit: (v: unknown) => void): Promise<number> {
+  const parsed = resolved.ok ? (schema.safeParse(resolved.value) as z.ZodSafeParseResult<SizeParsed>) : null;
   const problems = !resolved.ok ? resolved.fieldErrors : parsed && !parsed.success ? fieldErrorsOf(parsed.error) : null;
   if (problems || !parsed?.success) {
     io.err(`holdline size: the input has problems; nothing was computed:\n${problemLines(problems ?? {})}\n`);
     return 1;
   }
-  const { nodePool } = await import("./size-pool");
+  const [{ nodePool }, { runSizing }] = await Promise.all([import("./size-pool"), import("../lib/physics/sizing")]);
   const pool = nodePool(parsed.data);
   try {
     const r = await runSizing(parsed.data, pool.evaluate, { onProgress: io.errIsTTY ? (d, t) => io.err(`\rholdline size: ${d} of ${t} candidates`) : undefined });

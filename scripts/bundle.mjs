@@ -19,6 +19,25 @@ const entries = [
   { in: "cli/size-worker-main.ts", out: "dist/cli/size-worker.mjs" },
 ];
 
+/**
+ * zod re-exports all of its ~60 message translations as `z.locales`; Holdline speaks English only and
+ * never reads `z.locales`, so the bundle carries just the English one (zod installs it by default).
+ * This halves the zod code that every command has to load.
+ */
+const englishOnlyZod = {
+  name: "zod-english-only",
+  setup(build) {
+    build.onResolve({ filter: /^\.\.\/locales\/index\.js$/ }, (args) =>
+      /[\\/]zod[\\/]/.test(args.importer) ? { path: "zod-locales-en", namespace: "holdline" } : undefined,
+    );
+    build.onLoad({ filter: /^zod-locales-en$/, namespace: "holdline" }, () => ({
+      contents: 'export { default as en } from "zod/v4/locales/en.js";',
+      resolveDir: root,
+      loader: "js",
+    }));
+  },
+};
+
 const external = ["better-sqlite3", "@prisma/adapter-better-sqlite3", "@prisma/client", "@prisma/client/*"];
 
 /** Builds every entry; returns the output paths. Throws on a build error (esbuild prints it). */
@@ -40,6 +59,8 @@ export async function bundle({ quiet = false } = {}) {
       platform: "node",
       target: "node20",
       external,
+      plugins: [englishOnlyZod],
+      minify: true,
       // CommonJS dependencies bundled into ESM call require() for node built-ins.
       banner: { js: 'import { createRequire as __holdlineCreateRequire } from "node:module"; const require = __holdlineCreateRequire(import.meta.url);' },
       sourcemap: false,
