@@ -1,8 +1,8 @@
 #!/usr/bin/env node
 // The holdline command. Runs the prebuilt bundle (dist/cli/holdline.mjs, made by `npm install`
-// through scripts/bundle.mjs). In a source checkout it rebuilds the bundle first when cli/ or lib/
-// changed since it was built, so `npx holdline` never runs stale code; where that is impossible
-// (no esbuild, a read-only install) it runs the bundle it has.
+// through scripts/bundle.mjs). In a git checkout it rebuilds the bundle first when cli/ or lib/
+// changed since it was built, so `npx holdline` never runs stale code; where that fails (no esbuild)
+// it runs the bundle it has. An installed package (no .git) runs its bundle as it is.
 import { existsSync } from "node:fs";
 import { fileURLToPath } from "node:url";
 import path from "node:path";
@@ -11,7 +11,7 @@ const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
 const entry = path.join(root, "dist", "cli", "holdline.mjs");
 
 async function rebuildIfStale() {
-  if (!existsSync(path.join(root, "cli", "holdline.ts"))) return;
+  if (!existsSync(path.join(root, ".git")) && existsSync(entry)) return;
   const { cliBundleIsStale } = await import("../scripts/source-stamp.mjs");
   if (!cliBundleIsStale(root)) return;
   try {
