@@ -224,6 +224,7 @@ async function run(argv: string[], io: CliIo): Promise<number> {
     return 0;
   }
 
+  if (values.db !== undefined && !values.db.trim()) throw new CliError(`holdline ${command}: --db needs the path of a database file`, 2);
   const dbPath = values.db ? resolveDatabasePath({ ...process.env, DATABASE_URL: values.db }) : resolveDatabasePath();
   const library = () => import("./library");
   /** Runs fn on the library; the database is opened only if fn queries it. */

@@ -216,6 +216,9 @@ describe("holdline CLI", () => {
       expect(c.err).toMatch(/Usage:/);
       expect(c.err).not.toMatch(STACK_TRACE);
     }
+    const emptyDb = capture();
+    expect(await main(["export", "--db", ""], emptyDb.io)).toBe(2);
+    expect(emptyDb.err).toMatch(/--db needs the path of a database file/);
     const sub = capture();
     expect(await main(["plans", "delete", "1", "--db", seeded], sub.io)).toBe(2);
     expect(sub.err).toMatch(/^holdline plans: unknown sub-command "delete"/);
