@@ -73,7 +73,6 @@ export interface CliIo {
 }
 const STDIO: CliIo = { out: (s) => void process.stdout.write(s), err: (s) => void process.stderr.write(s), errIsTTY: process.stderr.isTTY };
 
-
 /** Reads JSON from a file or standard input ("-"). A leading byte-order mark is ignored. */
 function readJsonInput(file: string, command: string, io: CliIo): unknown {
   let text: string;
