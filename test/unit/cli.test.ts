@@ -5,6 +5,7 @@ import path from "node:path";
 import { main } from "../../cli/holdline";
 import { STACK_TRACE, ROOT } from "../helpers/cli-run";
 import { openLibrary } from "../../cli/library";
+import { sizeWorkerFile } from "../../cli/paths";
 import { savePlan } from "../../lib/db/plans";
 import { resolveHoldRefs } from "../../lib/db/resolve";
 
@@ -207,6 +208,16 @@ describe("holdline CLI", () => {
     const missing = capture();
     expect(await main(["plans", "show", "9999", "--db", seeded], missing.io)).toBe(1);
     expect(missing.err).toMatch(/no saved plan with id 9999/);
+  });
+
+  it("the sizer's threads run the prebuilt JavaScript worker, with no TypeScript loader", async () => {
+    const worker = readFileSync(sizeWorkerFile(), "utf8");
+    expect(sizeWorkerFile()).toMatch(/dist[\\/]cli[\\/]size-worker\.mjs$/);
+    expect(worker).not.toMatch(/tsx|\.ts"/);
+    const c = capture();
+    expect(await main(["size", example("size.json"), "--db", seeded], c.io)).toBe(0);
+    expect(JSON.parse(c.out).candidates.length).toBeGreaterThan(1);
+    expect(c.err).toMatch(/holdline size: \d+ candidates run, \d+ decided by monotonicity/);
   });
 
   it("an unknown command or option exits 2 with the usage", async () => {
