@@ -175,7 +175,7 @@ describe("holdline CLI", () => {
     const never = path.join(dir, "never", "created.db");
     const c = capture();
     expect(await main(["hold", f, "--db", never], c.io)).toBe(0);
-    expect(JSON.parse(c.out).holdTime_s).toBeGreaterThan(3600);
+    expect(JSON.parse(c.out).band.central).toBeGreaterThan(3600);
     expect(existsSync(path.dirname(never))).toBe(false);
   });
 
@@ -196,7 +196,7 @@ describe("holdline CLI", () => {
     writeFileSync(f, show.out);
     const rerun = capture();
     expect(await main(["hold", f, "--db", path.join(dir, "unused", "x.db")], rerun.io)).toBe(0);
-    expect(JSON.parse(rerun.out).holdTime_s).toBeGreaterThan(3600);
+    expect(JSON.parse(rerun.out).band.central).toBeGreaterThan(3600);
     const human = capture();
     expect(await main(["plans", "show", String(id), "--db", seeded], human.io)).toBe(0);
     expect(human.out).toMatch(/rerun: holdline plans show \d+ --json > plan.json && holdline hold plan.json/);
