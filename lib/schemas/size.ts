@@ -29,14 +29,17 @@ export const sizePackSchema = z
     if (p.maxCount < p.minCount) ctx.addIssue({ code: "custom", path: ["maxCount"], message: "Most must be at least Fewest" });
   });
 
+/** List lengths of one sizing input (also checked before any template look-up). */
+export const MAX_SIZE_LINES = { products: 12, boxes: 20, packs: 6 } as const;
+
 export const sizeInputSchema = z
   .object({
-    products: z.array(holdProductLineSchema).min(1, { error: "Add at least one product to size for" }).max(12),
+    products: z.array(holdProductLineSchema).min(1, { error: "Add at least one product to size for" }).max(MAX_SIZE_LINES.products, { error: `At most ${MAX_SIZE_LINES.products} product lines` }),
     route: routeSchema,
     ruleSet: ruleSetSchema,
     materials: z.array(materialSchema).min(1, { error: "The boxes' materials are needed" }),
-    boxes: z.array(sizeBoxSchema).min(1, { error: "Choose at least one candidate box" }).max(20),
-    packs: z.array(sizePackSchema).min(1, { error: "Choose at least one candidate pack" }).max(6),
+    boxes: z.array(sizeBoxSchema).min(1, { error: "Choose at least one candidate box" }).max(MAX_SIZE_LINES.boxes, { error: `At most ${MAX_SIZE_LINES.boxes} candidate boxes` }),
+    packs: z.array(sizePackSchema).min(1, { error: "Choose at least one candidate pack" }).max(MAX_SIZE_LINES.packs, { error: `At most ${MAX_SIZE_LINES.packs} candidate packs` }),
     margin: z.object({ kind: z.enum(["percent", "hours"]), value: z.number().min(0, { error: "Margin cannot be negative" }).max(1000) }).default({ kind: "percent", value: 20 }),
     judgeBy: z.enum(["low", "central"], { error: "Judge by the low end of the band or the central value" }).default("low"),
     uncertainty: uncertaintySchema.default({ outerH_frac: 0.3, insulationK_frac: 0.1, conditioning_K: 2 }),
