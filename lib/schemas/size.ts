@@ -29,6 +29,19 @@ export const sizePackSchema = z
     if (p.maxCount < p.minCount) ctx.addIssue({ code: "custom", path: ["maxCount"], message: "Most must be at least Fewest" });
   });
 
+/**
+ * Without pruning every candidate runs the hold model (about 1 ms to 1 s each, depending on the route);
+ * this many is a few seconds on a plain route.
+ */
+export const MAX_UNPRUNED_CANDIDATES = 5_000;
+
+/** How many candidates a search has: box variants × pack count ranges × conditioning temperatures. */
+export function candidateCount(inp: { boxes: { thicknessVariants_m: number[] }[]; packs: { minCount: number; maxCount: number; conditioning_C: number[] }[] }): number {
+  let size = inp.boxes.reduce((a, b) => a + 1 + b.thicknessVariants_m.length, 0);
+  for (const p of inp.packs) size *= (p.maxCount - p.minCount + 1) * p.conditioning_C.length;
+  return size;
+}
+
 /** List lengths of one sizing input (also checked before any template look-up). */
 export const MAX_SIZE_LINES = { products: 12, boxes: 20, packs: 6 } as const;
 
@@ -47,6 +60,17 @@ export const sizeInputSchema = z
     maxCandidates: z.number().int().min(1).max(MAX_CANDIDATES).default(5000),
     /** Skip candidates that monotone physics already decides (never where a lower limit could be crossed). */
     prune: z.boolean().default(true),
+  })
+  .superRefine((s, ctx) => {
+    if (s.prune) return;
+    const n = candidateCount(s);
+    if (n > MAX_UNPRUNED_CANDIDATES) {
+      ctx.addIssue({
+        code: "custom",
+        path: ["prune"],
+        message: `Without pruning at most ${MAX_UNPRUNED_CANDIDATES.toLocaleString("en")} candidates are run (this search has ${n.toLocaleString("en")}): turn pruning on (prune: true), or narrow the count ranges, conditioning temperatures or boxes`,
+      });
+    }
   });
 export type SizeInput = z.input<typeof sizeInputSchema>;
 export type SizeParsed = z.output<typeof sizeInputSchema>;

@@ -1,0 +1,184 @@
+/**
+ * Issue 10's reproductions, through the route handlers (after the proxy's guard) with a seeded temporary
+ * database and the real worker pool. Each failed on the code before this change (noted beside it).
+ */
+import { describe, it, expect, beforeAll, afterAll, vi } from "vitest";
+import { startApi, JSON_HEADERS, type ApiHarness } from "../helpers/api";
+import { parseId } from "../../lib/schemas/id";
+import { getTemplate } from "../../lib/db/templates";
+import { getPlan } from "../../lib/db/plans";
+
+vi.mock("server-only", () => ({}));
+
+let api: ApiHarness;
+beforeAll(async () => {
+  api = await startApi();
+}, 60_000);
+afterAll(async () => {
+  await api?.dispose();
+});
+
+const holdByName = {
+  products: [{ product: "Cod fillets, frozen block", count: 1, start_C: -22 }],
+  shipper: "Quillfield lined carton",
+  packs: [{ pack: "Dry ice slab, 2.5 kg", count: 1 }],
+  route: "Overnight courier, Millbrook depot",
+};
+
+const bodyOf = async (r: Response) => JSON.parse(await r.text());
+
+describe("1. the still-water loop answers (before: no answer at all)", () => {
+  it("POST /api/v1/thaw with 100.1 s changes and a 300.3 s horizon answers 200", async () => {
+    const r = await api.call("POST", "/api/v1/thaw", { product: "Whole turkey, 6 kg", method: { kind: "still_water", water_C: 4, bath_m3: 0.5, changeEvery_s: 100.1 }, horizon_s: 300.3 });
+    expect(r.status).toBe(200);
+    const b = await bodyOf(r);
+    expect(b.series[b.series.length - 1].t_s).toBeCloseTo(300.3, 6);
+  });
+});
+
+describe("2. heavy requests are bounded before they run (before: 104 s, 33 s, 7 s, 18 s, 61 MB accepted)", () => {
+  it("a route of 100 segments × 1000 lid openings is refused with what to change", async () => {
+    const segments = Array.from({ length: 100 }, () => ({ duration_s: 3600, airTemp_C: 25, airSpeed_m_s: 1, sun_W_m2: 0, lidOpenings: 1000, lidOpenDuration_s: 1 }));
+    const r = await api.call("POST", "/api/v1/hold", { ...holdByName, route: { name: "Many stops", segments } });
+    expect(r.status).toBe(422);
+    const b = await bodyOf(r);
+    expect(JSON.stringify(b.fieldErrors)).toMatch(/lid openings/i);
+  });
+  it("still water changed every second is refused, naming the shortest interval", async () => {
+    const r = await api.call("POST", "/api/v1/thaw", { product: "Whole turkey, 6 kg", method: { kind: "still_water", water_C: 4, bath_m3: 0.5, changeEvery_s: 1 } });
+    expect(r.status).toBe(422);
+    expect((await bodyOf(r)).fieldErrors["method.changeEvery_s"].join(" ")).toMatch(/at least/i);
+  });
+  it("a sizing of 20,000 candidates without pruning is refused, saying to turn pruning on", async () => {
+    const r = await api.call("POST", "/api/v1/size", {
+      products: [{ product: "Roast chicken thighs, half tray", count: 1, start_C: 2 }],
+      route: "Overnight courier, Millbrook depot",
+      boxes: [{ shipper: "Quillfield thin foam cooler", thicknessVariants_m: [0.03, 0.04, 0.05, 0.06, 0.07, 0.08, 0.09, 0.1, 0.11] }],
+      packs: [
+        { pack: "Gel pack, 600 g", maxCount: 99, conditioning_C: [-18, -10] },
+        { pack: "Water ice brick, 1 kg", maxCount: 9, conditioning_C: [-18] },
+      ],
+      prune: false,
+      maxCandidates: 20000,
+    });
+    expect(r.status).toBe(422);
+    expect(JSON.stringify((await bodyOf(r)).fieldErrors)).toMatch(/prun/i);
+  });
+  it("1e5 named product lines are refused on the count, before any template look-up", async () => {
+    const spy = vi.spyOn(api.db.product, "findUnique");
+    const products = Array.from({ length: 100_000 }, (_, i) => ({ product: `No such product ${i}`, count: 1, start_C: 2 }));
+    const text = JSON.stringify({ ...holdByName, products });
+    expect(text.length).toBeLessThan(1024 * 1024 * 8);
+    // Under the body limit? It is not (≈ 6 MB): trim to what fits, still far more than 12 lines.
+    const fits = { ...holdByName, products: products.slice(0, 10_000) };
+    const r = await api.call("POST", "/api/v1/hold", fits);
+    expect(r.status).toBe(422);
+    expect((await bodyOf(r)).fieldErrors.products.join(" ")).toMatch(/At most 12 product lines/);
+    spy.mockRestore();
+  });
+  it("a body over 1 MiB gets 413, with or without a Content-Length", async () => {
+    const big = JSON.stringify({ ...holdByName, notes: "x".repeat(2 * 1024 * 1024) });
+    expect((await api.call("POST", "/api/v1/hold", big)).status).toBe(413);
+    const stream = new ReadableStream({
+      start(c) {
+        for (let i = 0; i < 40; i++) c.enqueue(new TextEncoder().encode("x".repeat(64 * 1024)));
+        c.close();
+      },
+    });
+    expect((await api.call("POST", "/api/v1/rulesets", stream)).status).toBe(413);
+  });
+});
+
+describe("3. cross-site and rebinding (before: 201 and a 20 °C chill limit became the default)", () => {
+  const evilRuleSet = {
+    name: "Friendly rules",
+    jurisdiction: "Nowhere",
+    chilledMax_C: 20,
+    isDefault: true,
+  };
+  it("text/plain from another origin is refused and changes nothing", async () => {
+    const before = await api.snapshot();
+    const r = await api.call("POST", "/api/v1/rulesets", JSON.stringify(evilRuleSet), { "content-type": "text/plain", origin: "http://evil.example", host: "127.0.0.1:3104" });
+    expect(r.status).toBe(403);
+    const r2 = await api.call("POST", "/api/v1/rulesets", JSON.stringify(evilRuleSet), { "content-type": "text/plain", host: "127.0.0.1:3104", "sec-fetch-site": "same-origin" });
+    expect(r2.status).toBe(415);
+    const r3 = await api.call("POST", "/api/v1/rulesets", JSON.stringify(evilRuleSet), { "content-type": "application/json", host: "127.0.0.1:3104" });
+    expect(r3.status).toBe(403); // neither Origin nor Sec-Fetch-Site
+    expect(await api.snapshot()).toBe(before);
+  });
+  it("a rebound host name is refused, even for a read", async () => {
+    const r = await api.call("GET", "/api/v1/rulesets", undefined, { host: "evil.example:3104" });
+    expect(r.status).toBe(403);
+  });
+  it("a same-origin JSON request still works", async () => {
+    const r = await api.call("GET", "/api/v1/rulesets", undefined, { host: "localhost:3104" });
+    expect(r.status).toBe(200);
+  });
+});
+
+describe("4. a refused update changes nothing (before: 409, yet the default lost its flag)", () => {
+  it("stale version with isDefault: true on another rule set", async () => {
+    const list = await bodyOf(await api.call("GET", "/api/v1/rulesets", undefined, JSON_HEADERS));
+    const def = list.find((r: { isDefault: boolean }) => r.isDefault);
+    const other = list.find((r: { isDefault: boolean }) => !r.isDefault);
+    expect(def && other).toBeTruthy();
+    const before = await api.snapshot();
+    const { id, version, ...data } = other;
+    const r = await api.call("PUT", `/api/v1/rulesets/${id}`, { ...data, isDefault: true, version: version + 5 });
+    expect(r.status).toBe(409);
+    expect(await api.snapshot()).toBe(before);
+  });
+});
+
+describe("5. strict ids (before: /1.5, /0x1 and /%201 reached row 1; a missing id was 409)", () => {
+  it("parseId takes plain positive whole numbers in range only", () => {
+    for (const ok of ["1", "12", "2147483647"]) expect(parseId(ok)).toBe(Number(ok));
+    for (const bad of ["0", "01", "1.5", "0x1", " 1", "1 ", "+1", "-1", "1e3", "2147483648", "9".repeat(30), "", "abc", "\u0000"]) expect(parseId(bad)).toBeNull();
+  });
+  it("DELETE with a loose id is 404 and leaves row 1; DELETE of a missing row is 404", async () => {
+    const before = await api.snapshot();
+    for (const id of ["1.5", "0x1", "%201", "1e0", "01"]) expect((await api.call("DELETE", `/api/v1/products/${id}`)).status).toBe(404);
+    expect(await api.snapshot()).toBe(before);
+    expect((await api.call("DELETE", "/api/v1/products/999999")).status).toBe(404);
+  });
+});
+
+describe("6. no 500s (before: 500 for each)", () => {
+  it("PUT/DELETE with ids that are not ids", async () => {
+    for (const id of ["abc", "%00", "9".repeat(30)]) {
+      expect((await api.call("DELETE", `/api/v1/products/${id}`)).status).toBe(404);
+      expect((await api.call("PUT", `/api/v1/products/${id}`, { version: 1, name: "x" })).status).toBe(404);
+      expect((await api.call("GET", `/api/v1/products/${id}`)).status).toBe(404);
+    }
+  });
+  it("schema names that are Object.prototype members", async () => {
+    for (const n of ["constructor", "__proto__", "toString", "hasOwnProperty"]) expect((await api.call("GET", `/api/v1/schema/${n}`)).status).toBe(404);
+    expect((await api.call("GET", "/api/v1/schema/hold")).status).toBe(200);
+  });
+  it("malformed boxes on hold and size get 422 with field errors", async () => {
+    const boxes: unknown[] = [
+      { wallLayers: 5 },
+      { wallLayers: [5] },
+      { wallLayers: [{ material: 5 }] },
+      { wallLayers: "EPS" },
+      { wallLayers: [null], lidLayers: 7 },
+      { lidLayers: [{}], finishMaterial: 3 },
+      { wallLayers: [{ material: "EPS foam, 16 kg/m³", thickness_m: "thick" }] },
+      [],
+      null,
+      7,
+    ];
+    for (const shipper of boxes) {
+      const h = await api.call("POST", "/api/v1/hold", { ...holdByName, shipper });
+      expect(h.status, JSON.stringify(shipper)).toBe(422);
+      expect(Object.keys((await bodyOf(h)).fieldErrors).length).toBeGreaterThan(0);
+      const s = await api.call("POST", "/api/v1/size", { products: holdByName.products, route: holdByName.route, boxes: [{ shipper }], packs: [{ pack: "Gel pack, 600 g", maxCount: 2, conditioning_C: [-18] }] });
+      expect(s.status, JSON.stringify(shipper)).toBe(422);
+    }
+  });
+  it("pages' look-ups of 30-digit ids find nothing (the pages answer 404)", async () => {
+    expect(await getTemplate(api.db, "products", "9".repeat(30))).toBeNull();
+    expect(await getPlan(api.db, "9".repeat(30))).toBeNull();
+    expect(await getTemplate(api.db, "products", Number("9".repeat(30)))).toBeNull();
+  });
+});
