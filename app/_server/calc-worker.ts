@@ -24,7 +24,8 @@ export interface CalcJob {
 }
 
 export type CalcAnswer =
-  | { ok: true; result: unknown }
+  /** The result as JSON text: serialised here, so the request thread only passes a string on. */
+  | { ok: true; json: string }
   | { ok: false; status: 422; message: string; fieldErrors: FieldErrors }
   | { ok: false; status: 500; message: string; fieldErrors: FieldErrors };
 
@@ -42,7 +43,7 @@ async function checked<P, T>(schema: { safeParse(x: unknown): { success: true; d
     const result = await compute(parsed.data);
     const bad = nonFinitePath(result);
     if (bad !== null) return { ok: false, status: 500, message: `The model produced a number that is not finite (at ${bad || "the top"}); this is a defect, please report it with the input`, fieldErrors: {} };
-    return { ok: true, result };
+    return { ok: true, json: JSON.stringify(result) };
   } catch (e) {
     if (e instanceof PhysicsInputError) return { ok: false, status: 422, message: e.message, fieldErrors: { [e.field]: [e.message] } };
     throw e;

@@ -72,7 +72,7 @@ export function calculationRoute(
     const resolved = await resolve(await getDb(), body.body);
     if (!resolved.ok) return unprocessable("Some fields are not valid", resolved.fieldErrors);
     const r = await runCalculation(kind, resolved.value);
-    if (r.ok) return NextResponse.json(r.result);
+    if (r.ok) return new NextResponse(r.json, { headers: { "content-type": "application/json" } });
     const headers: Record<string, string> = "retryAfter_s" in r ? { "Retry-After": String(r.retryAfter_s) } : {};
     return NextResponse.json({ error: r.message, fieldErrors: r.fieldErrors }, { status: r.status, headers });
   };
