@@ -35,14 +35,15 @@ interface PoolState {
 }
 const g = globalThis as unknown as { __holdlineCalcPool?: PoolState };
 
+/** The bundle's path, found at run time (the build must not trace it: it is not part of Next's output). */
 export function workerFile(): string {
-  return path.resolve(process.env.HOLDLINE_WORKER_FILE ?? path.join(process.cwd(), "dist", "calc-worker.mjs"));
+  return path.resolve(/*turbopackIgnore: true*/ process.env.HOLDLINE_WORKER_FILE ?? path.join(/*turbopackIgnore: true*/ process.cwd(), "dist", "calc-worker.mjs"));
 }
 
 function state(): PoolState {
   if (!g.__holdlineCalcPool) {
     const filename = workerFile();
-    if (!existsSync(filename)) throw new Error(`The calculation worker ${filename} is missing: run \`npm run bundle\` (npm install and npm run build do it)`);
+    if (!existsSync(/*turbopackIgnore: true*/ filename)) throw new Error(`The calculation worker ${filename} is missing: run \`npm run bundle\` (npm install and npm run build do it)`);
     const threads = Math.max(2, availableParallelism());
     g.__holdlineCalcPool = {
       // niceIncrement lowers the worker threads' CPU priority (Linux, through the optional @napi-rs/nice),
