@@ -46,9 +46,9 @@ function state(): PoolState {
     if (!existsSync(/*turbopackIgnore: true*/ filename)) throw new Error(`The calculation worker ${filename} is missing: run \`npm run bundle\` (npm install and npm run build do it)`);
     const threads = Math.max(2, availableParallelism());
     g.__holdlineCalcPool = {
-      // niceIncrement lowers the worker threads' CPU priority (Linux, through the optional @napi-rs/nice),
+      // niceIncrement (19, the lowest) lowers the worker threads' CPU priority (Linux, through the optional @napi-rs/nice),
       // so the request thread is never starved by a long sizing on a busy machine.
-      pool: new Piscina<CalcJob, CalcAnswer>({ filename, minThreads: 1, maxThreads: threads, maxQueue: MAX_QUEUE, idleTimeout: 60_000, niceIncrement: 10 }),
+      pool: new Piscina<CalcJob, CalcAnswer>({ filename, minThreads: 1, maxThreads: threads, maxQueue: MAX_QUEUE, idleTimeout: 60_000, niceIncrement: 19 }),
       threads,
       sizingRunning: 0,
     };
