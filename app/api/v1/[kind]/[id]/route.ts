@@ -1,7 +1,7 @@
 import { NextResponse } from "next/server";
 import { getDb } from "@/app/_server/db";
 import { deleteTemplate, getTemplate, saveTemplate } from "@/lib/db/templates";
-import { isTemplateKind } from "@/lib/schemas/templates";
+import { isTemplateKind, TEMPLATE_LABELS } from "@/lib/schemas/templates";
 import { parseId } from "@/lib/schemas/id";
 import { notFound, readJson, unprocessable } from "../../_lib";
 
@@ -12,7 +12,7 @@ async function target({ params }: Ctx): Promise<{ ok: true; kind: Parameters<typ
   const { kind, id } = await params;
   if (!isTemplateKind(kind)) return { ok: false, response: notFound(`No template kind "${kind.slice(0, 40)}"`) };
   const n = parseId(id);
-  if (n === null) return { ok: false, response: notFound(`No ${kind} with id "${id.slice(0, 40)}": an id is a whole number from 1`) };
+  if (n === null) return { ok: false, response: notFound(`No ${TEMPLATE_LABELS[kind].one} with id "${id.slice(0, 40)}": an id is a whole number from 1`) };
   return { ok: true, kind, id: n };
 }
 
@@ -20,7 +20,7 @@ export async function GET(_req: Request, ctx: Ctx) {
   const t = await target(ctx);
   if (!t.ok) return t.response;
   const row = await getTemplate(await getDb(), t.kind, t.id);
-  if (!row) return notFound(`No ${t.kind} with id ${t.id}`);
+  if (!row) return notFound(`No ${TEMPLATE_LABELS[t.kind].one} with id ${t.id}`);
   return NextResponse.json({ id: row.id, version: row.version, ...row.data });
 }
 
