@@ -41,7 +41,7 @@ export async function startNextServer(opts: { port: number; dbPath: string; env?
     if (proc.exitCode !== null) throw new Error(`next start exited with code ${proc.exitCode}\n${log}`);
     try {
       const r = await fetch(baseUrl + "/api/v1/settings");
-      if (r.ok) return server;
+      if (r.status < 500) return server; // up (a passphrase-protected server answers 401)
     } catch {
       // not up yet
     }

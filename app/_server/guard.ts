@@ -125,7 +125,7 @@ export async function guard(req: Request, env: GuardEnv): Promise<Response | nul
     const next = safeNext(form.get("next"));
     if (!same(form.get("passphrase") ?? "", pass)) return signInPage(next, "That is not the passphrase.", 401);
     const secure = url.protocol === "https:" ? "; Secure" : "";
-    return new Response(null, { status: 303, headers: { location: next, "set-cookie": `${SESSION_COOKIE}=${token}; Path=/; HttpOnly; SameSite=Strict; Max-Age=43200${secure}` } });
+    return new Response(null, { status: 303, headers: { location: new URL(next, url).toString(), "set-cookie": `${SESSION_COOKIE}=${token}; Path=/; HttpOnly; SameSite=Strict; Max-Age=43200${secure}` } });
   }
   if (api) {
     const auth = req.headers.get("authorization") ?? "";
@@ -135,7 +135,8 @@ export async function guard(req: Request, env: GuardEnv): Promise<Response | nul
   }
   if (signedIn) return null;
   if (req.method === "GET" || req.method === "HEAD") {
-    return new Response(null, { status: 303, headers: { location: `/signin?next=${encodeURIComponent(url.pathname + url.search)}` } });
+    // Next wants an absolute Location from a proxy.
+    return new Response(null, { status: 303, headers: { location: new URL(`/signin?next=${encodeURIComponent(url.pathname + url.search)}`, url).toString() } });
   }
   return json(401, "Sign in first (/signin)");
 }

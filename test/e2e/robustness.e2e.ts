@@ -167,3 +167,31 @@ describe("served app: pages, headers and the proxy", () => {
     await s.arrayBuffer();
   });
 });
+
+describe("served app shared with a passphrase", () => {
+  let server: RunningServer;
+  const pass = "correct horse battery staple";
+  before(async () => {
+    server = await startNextServer({ port: await freePort(), dbPath: path.join(tmp, "shared.db"), env: { HOLDLINE_PASSPHRASE: pass } });
+  });
+  after(async () => {
+    await server?.stop();
+  });
+
+  it("pages go through the sign-in, the API wants the bearer token", async () => {
+    const b = server.baseUrl;
+    const page = await fetch(b + "/hold", { redirect: "manual" });
+    assert.equal(page.status, 303);
+    assert.match(page.headers.get("location") ?? "", /^(http:\/\/127\.0\.0\.1:\d+)?\/signin\?next=%2Fhold$/);
+    assert.equal((await fetch(b + "/api/v1/products")).status, 401);
+    assert.equal((await fetch(b + "/api/v1/products", { headers: { authorization: `Bearer ${pass}` } })).status, 200);
+    const form = (body: Record<string, string>) => fetch(b + "/signin", { method: "POST", redirect: "manual", headers: { origin: b, "content-type": "application/x-www-form-urlencoded" }, body: new URLSearchParams(body).toString() });
+    assert.equal((await form({ passphrase: "guess", next: "/hold" })).status, 401);
+    const ok = await form({ passphrase: pass, next: "/hold" });
+    assert.equal(ok.status, 303);
+    const cookie = (ok.headers.get("set-cookie") ?? "").split(";")[0];
+    const after = await fetch(b + "/hold", { headers: { cookie }, redirect: "manual" });
+    assert.equal(after.status, 200);
+    await after.arrayBuffer();
+  });
+});

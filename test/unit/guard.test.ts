@@ -47,7 +47,7 @@ describe("request guard: passphrase when shared", () => {
   it("pages redirect to the sign-in, which sets a session cookie for the right passphrase only", async () => {
     const page = await guard(req("http://kitchen.local:3000/hold?plan=2", { headers: H }), env);
     expect(page!.status).toBe(303);
-    expect(page!.headers.get("location")).toBe("/signin?next=%2Fhold%3Fplan%3D2");
+    expect(page!.headers.get("location")).toBe("http://kitchen.local:3000/signin?next=%2Fhold%3Fplan%3D2");
     const form = await guard(req("http://kitchen.local:3000/signin?next=/hold", { headers: H }), env);
     expect(await form!.text()).toMatch(/passphrase/i);
     const signIn = (pass: string, next = "/hold") =>
@@ -55,7 +55,7 @@ describe("request guard: passphrase when shared", () => {
     expect((await signIn("guess"))!.status).toBe(401);
     const ok = await signIn("correct horse battery", "//evil.example/");
     expect(ok!.status).toBe(303);
-    expect(ok!.headers.get("location")).toBe("/"); // never off-site
+    expect(ok!.headers.get("location")).toBe("http://kitchen.local:3000/"); // never off-site
     const cookie = ok!.headers.get("set-cookie")!;
     expect(cookie).toMatch(new RegExp(`^${SESSION_COOKIE}=[0-9a-f]{64}; Path=/; HttpOnly; SameSite=Strict`));
     const value = cookie.split(";")[0];
