@@ -162,6 +162,17 @@ describe("4. a refused update changes nothing (before: 409, yet the default lost
   });
 });
 
+describe("4. optimistic locking stays exact with the checks inside the transaction", () => {
+  it("20 concurrent updates from the same version: one wins, 19 get 409, none fails", async () => {
+    const [p] = await bodyOf(await api.call("GET", "/api/v1/products", undefined, JSON_HEADERS));
+    const { id, version, ...data } = p;
+    const rs = await Promise.all(Array.from({ length: 20 }, (_, i) => api.call("PUT", `/api/v1/products/${id}`, { ...data, notes: `edit ${i}`, version })));
+    const statuses = rs.map((r) => r.status).sort();
+    expect(statuses.filter((s) => s === 200)).toHaveLength(1);
+    expect(statuses.filter((s) => s === 409)).toHaveLength(19);
+  });
+});
+
 describe("5. strict ids (before: /1.5, /0x1 and /%201 reached row 1; a missing id was 409)", () => {
   it("parseId takes plain positive whole numbers in range only", () => {
     for (const ok of ["1", "12", "2147483647"]) expect(parseId(ok)).toBe(Number(ok));
