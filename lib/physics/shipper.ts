@@ -341,6 +341,8 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
     const limit = nextBreak < breaks.length ? breaks[nextBreak] : spec.tEnd_s;
     const h = Math.min(dt, limit - t);
     const tNew = t + h;
+    // Guard: a step too small to change t (below its rounding) would repeat for ever; t is then at the end.
+    if (!(tNew > t)) break;
     // Conditions hold piecewise-constant over the step: take them at its middle.
     const amb = spec.ambient(t + h / 2);
     const outerG = faceParts.map((f) => 1 / (f.halfOuter + 1 / (amb.outerH_W_m2K * f.area)));

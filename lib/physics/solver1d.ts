@@ -241,6 +241,8 @@ export function solve1D(inp: Solver1DInput): Solver1DResult {
   while (t < inp.tEnd_s - 1e-9) {
     const dtStep = Math.min(dt, inp.tEnd_s - t);
     const tNew = t + dtStep;
+    // Guard: a step too small to change t (below its rounding) would repeat for ever; t is then at tEnd.
+    if (!(tNew > t)) break;
     Told.set(T);
     TnOld = Tn;
     for (let i = 0; i < n; i++) Hold[i] = H(T[i]);

@@ -291,14 +291,20 @@ function runMethod(item: Item, inp: ThawParsed, method: ThawMethod, endPoint_C: 
     notes.push(`Bath: ${(method.bath_m3 * 1000).toFixed(0)} L changed every ${(method.changeEvery_s / 60).toFixed(0)} min, warming from the room through ${bathArea.toFixed(2)} m² at ${BATH_TO_ROOM_W_M2K} W/(m²·K)`);
     let profile: number[] | null = null;
     let t0 = 0;
+    // Chunk k runs from k·changeEvery to (k+1)·changeEvery (or the horizon). Boundaries come from the
+    // index, not from summing chunk ends, and a remainder shorter than a rounding error of the horizon is
+    // not a chunk: 3 × 100.1 s can fall 6e-14 s short of 300.3 s, and that sliver takes no solver step.
+    const tol_s = 1e-9 * Math.max(1, inp.horizon_s);
+    let change = 0;
     const merged: Solver1DResult = { t_s: [], center_C: [], surface_C: [], mean_C: [], node_C: [], steps: 0, newtonIterations: 0, storedChange_J: 0, boundaryHeat_J: 0, energyError_J: 0, profile_C: [], minT_C: inp.start_C, maxT_C: inp.start_C, stoppedEarly: false };
-    while (t0 < inp.horizon_s) {
+    while (inp.horizon_s - t0 > tol_s) {
       const prof = profile;
+      const chunkEnd_s = Math.min((change + 1) * method.changeEvery_s, inp.horizon_s);
       const chunk = solve1D({
         ...base,
         initial_C: prof ? (x: number) => prof[Math.round(x * (prof.length - 1))] : inp.start_C,
         boundary: { kind: "node", contact_W_m2K: h, capacity_J_m2K: cap / A, exchange_W_m2K: () => (BATH_TO_ROOM_W_M2K * bathArea) / A, fluid_C: () => method.room_C, node0_C: method.water_C },
-        tEnd_s: Math.min(method.changeEvery_s, inp.horizon_s - t0),
+        tEnd_s: chunkEnd_s - t0,
         dt_s: Math.min(dt0, method.changeEvery_s / 20),
         adaptive: { target_K: 1, dtMax_s: Math.min(900, method.changeEvery_s / 10) },
       });
@@ -316,8 +322,11 @@ function runMethod(item: Item, inp: ThawParsed, method: ThawMethod, endPoint_C: 
       merged.energyError_J += chunk.energyError_J;
       merged.minT_C = Math.min(merged.minT_C, chunk.minT_C);
       merged.maxT_C = Math.max(merged.maxT_C, chunk.maxT_C);
-      t0 += chunk.t_s[chunk.t_s.length - 1];
+      const reached_s = chunk.t_s.length ? chunk.t_s[chunk.t_s.length - 1] : 0;
       profile = chunk.profile_C;
+      if (!(reached_s > 0)) break; // a chunk that did not advance time would repeat for ever
+      t0 = chunk.stoppedEarly ? t0 + reached_s : chunkEnd_s;
+      change++;
       if (chunk.stoppedEarly) {
         merged.stoppedEarly = true;
         break;

@@ -44,13 +44,16 @@ export const uncertaintySchema = z.object({
   conditioning_K: z.number().min(0).max(20).default(2),
 });
 
+/** Product lines and pack lines in one hold plan, each (also checked before any template look-up). */
+export const MAX_HOLD_LINES = 12;
+
 export const holdInputSchema = z
   .object({
-    products: z.array(holdProductLineSchema).max(12, { error: "At most 12 product lines" }).default([]),
+    products: z.array(holdProductLineSchema).max(MAX_HOLD_LINES, { error: `At most ${MAX_HOLD_LINES} product lines` }).default([]),
     shipper: shipperSchema,
     /** Materials the box names (copied in from the library by the page, API and CLI). */
     materials: z.array(materialSchema).min(1, { error: "The box's materials are needed" }),
-    packs: z.array(holdPackLineSchema).max(12, { error: "At most 12 pack lines" }).default([]),
+    packs: z.array(holdPackLineSchema).max(MAX_HOLD_LINES, { error: `At most ${MAX_HOLD_LINES} pack lines` }).default([]),
     route: routeSchema,
     ruleSet: ruleSetSchema,
     /** Box and inside air temperature when packing; defaults to the first segment's air. */

@@ -189,6 +189,14 @@ export type PackInput = z.input<typeof packSchema>;
 export type Pack = z.output<typeof packSchema>;
 
 // ---------------------------------------------------------------- routes
+/**
+ * Lid openings bound the hold model's work (each opening is a change of conditions the solver steps
+ * through; 500 openings cost about 1.5 s per hold run, and the sizer repeats the run per candidate).
+ * 250 in one segment is an opening every two minutes for eight hours.
+ */
+export const MAX_LID_OPENINGS_PER_SEGMENT = 250;
+export const MAX_LID_OPENINGS_PER_ROUTE = 500;
+
 export const segmentSchema = z.object({
   label: z.string().trim().max(80).default(""),
   duration_s: positive("Duration").max(30 * 86400, { error: "Duration: at most 30 days per segment" }),
@@ -199,17 +207,28 @@ export const segmentSchema = z.object({
     .number({ error: "Lid openings: enter a whole number" })
     .int({ error: "Lid openings: enter a whole number" })
     .nonnegative({ error: "Lid openings cannot be negative" })
-    .max(1000)
+    .max(MAX_LID_OPENINGS_PER_SEGMENT, { error: `Lid openings: at most ${MAX_LID_OPENINGS_PER_SEGMENT} in one segment (one every two minutes for eight hours); fewer, longer openings let in the same air` })
     .default(0),
   lidOpenDuration_s: nonNegative("Lid-open time").default(0),
 });
 export type Segment = z.output<typeof segmentSchema>;
 
-export const routeSchema = z.object({
-  name,
-  segments: z.array(segmentSchema).min(1, { error: "A route needs at least one segment" }).max(100),
-  notes,
-});
+export const routeSchema = z
+  .object({
+    name,
+    segments: z.array(segmentSchema).min(1, { error: "A route needs at least one segment" }).max(100, { error: "A route has at most 100 segments" }),
+    notes,
+  })
+  .superRefine((r, ctx) => {
+    const openings = r.segments.reduce((a, s) => a + s.lidOpenings, 0);
+    if (openings > MAX_LID_OPENINGS_PER_ROUTE) {
+      ctx.addIssue({
+        code: "custom",
+        path: ["segments"],
+        message: `At most ${MAX_LID_OPENINGS_PER_ROUTE} lid openings on a route (this one has ${openings}); fewer, longer openings let in the same air`,
+      });
+    }
+  });
 export type RouteInput = z.input<typeof routeSchema>;
 export type Route = z.output<typeof routeSchema>;
 

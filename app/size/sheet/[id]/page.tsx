@@ -21,7 +21,7 @@ import { PrintButton } from "@/app/_components/PrintButton";
 /** One printable page for the packer: what goes in, conditioned how long, in what order, and what to check. */
 export default async function PackOutSheet({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
-  const plan = await getPlan(await getDb(), Number(id));
+  const plan = await getPlan(await getDb(), id);
   if (!plan || plan.kind !== "hold") notFound();
   const parsed = holdInputSchema.safeParse(plan.input);
   if (!parsed.success) notFound();
