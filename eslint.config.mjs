@@ -14,11 +14,9 @@ export default defineConfig([
     },
   },
   {
-    // Known findings in code owned by other changes in flight, shown as warnings until they are fixed
-    // (then delete this block): an unused import, a let never reassigned, an unused variable, and
-    // setState called synchronously inside an effect.
-    files: ["app/warmup/WarmupPlanner.tsx", "lib/physics/properties.ts", "lib/physics/shipper.ts", "app/_components/UnitInput.tsx"],
-    rules: { "@typescript-eslint/no-unused-vars": "warn", "prefer-const": "warn", "react-hooks/set-state-in-effect": "warn" },
+    // shipper.ts is being reworked for speed (issue 13): its one unused local is a warning until then.
+    files: ["lib/physics/shipper.ts"],
+    rules: { "@typescript-eslint/no-unused-vars": "warn" },
   },
   globalIgnores([".next/**", "dist/**", "node_modules/**", "lib/db/generated/**", "next-env.d.ts", "test-results/**", ".e2e-tmp/**"]),
 ]);

@@ -7,6 +7,8 @@ import { currentUnits } from "./_server/units";
 export const metadata: Metadata = {
   title: "Holdline",
   description: "Hold times for chilled, frozen and hot food deliveries, thaw planning and pack-out sizing, from transient heat transfer.",
+  // The app icon is a static file in public/, served as it is at /icon.svg.
+  icons: { icon: "/icon.svg" },
 };
 
 export const dynamic = "force-dynamic";

@@ -1,5 +1,5 @@
 "use client";
-import { useEffect, useState } from "react";
+import { useState } from "react";
 import { fromDisplay, roundForDisplay, toDisplay, unitLabel, type Quantity } from "@/lib/units";
 import { useUnits } from "./units-context";
 
@@ -21,15 +21,17 @@ export function UnitInput(props: {
   const shown = (v: number | null | undefined) =>
     v === null || v === undefined || Number.isNaN(v) ? "" : String(roundForDisplay(toDisplay(props.quantity, v, prefs), 6));
   const [text, setText] = useState(shown(props.value));
-  // Follow the form when it changes the value from outside (reset, duplicate).
-  useEffect(() => {
+  // Follow the form when it changes the value from outside (reset, duplicate): adjust the text while
+  // rendering when the value differs from the one last seen, as React recommends instead of an effect.
+  const [seen, setSeen] = useState(props.value);
+  if (props.value !== seen) {
+    setSeen(props.value);
     const current = text.trim() === "" ? null : fromDisplay(props.quantity, Number(text), prefs);
     const v = props.value ?? null;
     if (v === null ? current !== null && !Number.isNaN(current) : current === null || Math.abs(current - v) > 1e-9 * Math.max(1, Math.abs(v))) {
       setText(shown(props.value));
     }
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [props.value]);
+  }
   const unit = unitLabel(props.quantity, prefs);
   return (
     <span className="unit-input">

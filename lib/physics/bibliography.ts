@@ -305,8 +305,3 @@ export const BIBLIOGRAPHY = {
 } as const satisfies Record<string, Reference>;
 
 export type SourceKey = keyof typeof BIBLIOGRAPHY;
-
-export function cite(key: SourceKey): string {
-  const r: Reference = BIBLIOGRAPHY[key];
-  return [r.authors, `“${r.title}”`, r.edition, String(r.year), r.where].filter(Boolean).join(", ");
-}

@@ -382,7 +382,7 @@ function buildFoodThermal(input: FoodInput): FoodThermal {
     },
     k_W_mK(T) {
       const u = (T - T_MIN) / DT;
-      let i = Math.floor(u);
+      const i = Math.floor(u);
       if (i < 0) return K[0];
       if (i > last) return K[N - 1];
       return K[i] + (u - i) * (K[i + 1] - K[i]);

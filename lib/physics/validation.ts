@@ -55,8 +55,3 @@ function fmt(x: number): string {
   const a = Math.abs(x);
   return a !== 0 && (a >= 1e5 || a < 1e-3) ? x.toExponential(2) : String(Number(x.toPrecision(4)));
 }
-
-/** Replaces a non-finite number by a fallback, so nothing downstream ever sees NaN. */
-export function finiteOr(x: number, fallback: number): number {
-  return Number.isFinite(x) ? x : fallback;
-}
