@@ -323,6 +323,22 @@ function fit(pb: Problem, initial: number[], requested: Set<FactorName>, log: Pa
   };
 }
 
+/**
+ * Whether a logged trace is flat: it moves less than 0.5 K, or less than 8 times its reading-to-reading
+ * scatter (σ ≈ rms(Δ)/√2, which a slow trend hardly affects; white noise alone spans about 5σ over a log).
+ * Returns a description when flat, else null.
+ */
+export function flatTrace(T: number[]): string | null {
+  if (T.length < 2) return "a single reading";
+  const range = Math.max(...T) - Math.min(...T);
+  let d2 = 0;
+  for (let i = 1; i < T.length; i++) d2 += (T[i] - T[i - 1]) ** 2;
+  const sigma = Math.sqrt(d2 / (T.length - 1) / 2);
+  if (range < 0.5) return `it moves ${range.toFixed(2)} K over the log`;
+  if (range < 8 * sigma) return `it moves ${range.toFixed(2)} K over the log, hardly more than its reading-to-reading scatter of ${sigma.toFixed(2)} K`;
+  return null;
+}
+
 /** Lag-1 autocorrelation of residuals, pooled over channels (pairs within one channel only). */
 function lag1(res: number[], channelOf: number[]): number {
   let num = 0;
@@ -348,7 +364,7 @@ function minimise(pb: Problem, all: number[], free: number[], x0: number[], eval
   let err = sse(x);
   let damping = 1e-2;
   let it = 0;
-  for (; it < 40; it++) {
+  for (; it < 25; it++) {
     const r = levenbergMarquardt(
       { x: idx, y: pb.y },
       (params) => {
@@ -476,8 +492,8 @@ function holdProblem(plan0: HoldParsed, fitNames: string[], useOutside: boolean,
   if (!cmp0.channels.length) throw new PhysicsInputError("format.channels", "no channel is compared with the plan: map a column to inside air, a product probe or a pack");
   if (plan.packs.length === 0 && fitNames.includes("contact")) warnings.push("The plan has no packs: the pack contact factor has nothing to act on");
   for (const c of cmp0.channels) {
-    const range = Math.max(...c.log_C) - Math.min(...c.log_C);
-    if (range < 0.5) warnings.push(`"${c.label}" is a flat trace (it moves ${range.toFixed(2)} K over the log): it says little about any factor`);
+    const flat = flatTrace(c.log_C);
+    if (flat) warnings.push(`"${c.label}" is a flat trace (${flat}): it says little about any factor`);
   }
   // Inside air during and just after a lid opening is not fitted: there the model's air swings within one
   // time step, and a logger's probe lags; the factors are fitted on the rest.
@@ -548,8 +564,8 @@ function thawProblem(plan0: ThawParsed, log: ParsedLog, planStart_s: number, sou
   const cmp0 = compareLog(log, planStart_s, (ch, fld) => thawCurve(first, ch, fld), skip);
   if (!cmp0.channels.length) throw new PhysicsInputError("format.channels", "no product channel: map a column to the item's centre or surface probe");
   for (const c of cmp0.channels) {
-    const range = Math.max(...c.log_C) - Math.min(...c.log_C);
-    if (range < 0.5) warnings.push(`"${c.label}" is a flat trace (it moves ${range.toFixed(2)} K over the log): it says little about the surface coefficient`);
+    const flat = flatTrace(c.log_C);
+    if (flat) warnings.push(`"${c.label}" is a flat trace (${flat}): it says little about the surface coefficient`);
   }
   const y: number[] = [];
   const channelOf: number[] = [];
