@@ -497,21 +497,9 @@ function holdProblem(plan0: HoldParsed, fitNames: string[], useOutside: boolean,
   }
   // Inside air during and just after a lid opening is not fitted: there the model's air swings within one
   // time step, and a logger's probe lags; the factors are fitted on the rest.
-  const windows: [number, number][] = [];
-  {
-    let t0 = 0;
-    for (const seg of plan.route.segments) {
-      if (seg.lidOpenings > 0 && seg.lidOpenDuration_s > 0) {
-        const spacing = seg.duration_s / seg.lidOpenings;
-        const d = Math.min(seg.lidOpenDuration_s, spacing * 0.9);
-        for (let k = 0; k < seg.lidOpenings; k++) {
-          const mid = t0 + (k + 0.5) * spacing;
-          windows.push([mid - d / 2, mid + d / 2 + Math.max(AFTER_OPENING_S, 2 * d)]);
-        }
-      }
-      t0 += seg.duration_s;
-    }
-  }
+  // The openings where the planner puts them (their starts), each taken as long as the longest the route names.
+  const longest = Math.max(0, ...plan.route.segments.map((g) => (g.lidOpenings > 0 ? g.lidOpenDuration_s : 0)));
+  const windows: [number, number][] = first.openings_s.map((t0) => [t0, t0 + longest + Math.max(AFTER_OPENING_S, 2 * longest)]);
   const keep = cmp0.channels.map((c) => c.t_s.map((t) => c.role !== "inside_air" || !windows.some(([a, b]) => t >= a && t <= b)));
   const dropped = keep.flat().filter((k) => !k).length;
   if (dropped) assumptions.push(`${dropped} inside-air reading${dropped === 1 ? "" : "s"} during or within ${AFTER_OPENING_S} s after a lid opening ${dropped === 1 ? "is" : "are"} shown but not fitted`);

@@ -3,6 +3,24 @@
  * every few minutes, Gaussian noise of a chosen size added with a seeded generator, written as CSV.
  */
 import { interpolate } from "../../lib/calibration/align";
+import type { HoldInput } from "../../lib/schemas/hold";
+import { DEMO_SCENARIO as D } from "../../lib/db/demo-scenario";
+
+export const P = (n: string) => D.products.find((p) => p.name.startsWith(n))!;
+export const K = (n: string) => D.packs.find((p) => p.name.startsWith(n))!;
+export const S = (n: string) => D.shippers.find((p) => p.name.startsWith(n))!;
+
+/** A caterer's plan from the demo library: roast chicken in the thin cooler with two gel packs on the summer lunch run. */
+export const lunchPlan: HoldInput = {
+  products: [{ product: P("Roast chicken"), count: 1, start_C: 1 }],
+  shipper: S("Quillfield thin"),
+  materials: D.materials,
+  packs: [{ pack: K("Gel pack"), count: 2, conditioning_C: -18 }],
+  route: D.routes[0],
+  ruleSet: D.rulesets[1],
+  boxStart_C: 8,
+  extendFraction: 1,
+};
 
 /** Park–Miller generator and Box–Muller normal deviates: the same noise on every run. */
 export function gaussian(seed: number): () => number {

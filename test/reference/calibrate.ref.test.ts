@@ -11,23 +11,8 @@ import { runThawParsed } from "../../lib/physics/thaw";
 import { holdInputSchema, type HoldInput } from "../../lib/schemas/hold";
 import { thawInputSchema, type ThawInput } from "../../lib/schemas/thaw";
 import { DEMO_SCENARIO as D } from "../../lib/db/demo-scenario";
-import { syntheticCsv } from "../helpers/synthetic-log";
+import { lunchPlan, P, syntheticCsv } from "../helpers/synthetic-log";
 
-const P = (n: string) => D.products.find((p) => p.name.startsWith(n))!;
-const K = (n: string) => D.packs.find((p) => p.name.startsWith(n))!;
-const S = (n: string) => D.shippers.find((p) => p.name.startsWith(n))!;
-
-/** A caterer's plan from the demo library: roast chicken in the thin cooler with two gel packs on the summer lunch run. */
-export const lunchPlan: HoldInput = {
-  products: [{ product: P("Roast chicken"), count: 1, start_C: 1 }],
-  shipper: S("Quillfield thin"),
-  materials: D.materials,
-  packs: [{ pack: K("Gel pack"), count: 2, conditioning_C: -18 }],
-  route: D.routes[0],
-  ruleSet: D.rulesets[1],
-  boxStart_C: 8,
-  extendFraction: 1,
-};
 const NOISE_K = 0.15;
 const within = (r: CalibrationResult, truth: Record<string, number>) => {
   for (const f of r.factors) {

@@ -10,22 +10,10 @@ import { jsonSchemaOf } from "../../lib/schemas/json-schema";
 import { parseLogCsv } from "../../lib/calibration/log-csv";
 import { compareHoldWithLog, resolvePlanStart } from "../../lib/calibration/align";
 import { DEMO_SCENARIO as D } from "../../lib/db/demo-scenario";
-import { syntheticCsv } from "../helpers/synthetic-log";
+import { lunchPlan, P, S, syntheticCsv } from "../helpers/synthetic-log";
 
-const P = (n: string) => D.products.find((p) => p.name.startsWith(n))!;
-const K = (n: string) => D.packs.find((p) => p.name.startsWith(n))!;
-const S = (n: string) => D.shippers.find((p) => p.name.startsWith(n))!;
 const noBand = { outerH_frac: 0, insulationK_frac: 0, conditioning_K: 0 };
-const plan: HoldInput = {
-  products: [{ product: P("Roast chicken"), count: 1, start_C: 1 }],
-  shipper: S("Quillfield thin"),
-  materials: D.materials,
-  packs: [{ pack: K("Gel pack"), count: 2, conditioning_C: -18 }],
-  route: D.routes[0],
-  ruleSet: D.rulesets[1],
-  boxStart_C: 8,
-  extendFraction: 1,
-};
+const plan: HoldInput = lunchPlan;
 const run = (x: HoldInput) => runHoldParsed(holdInputSchema.parse({ ...x, uncertainty: noBand }));
 const elapsed = { kind: "elapsed" as const, column: "elapsed_min", unit: "min" as const };
 const curves = (r: ReturnType<typeof run>) => {
