@@ -402,6 +402,19 @@ function minimise(pb: Problem, all: number[], free: number[], x0: number[], eval
   return { x, iterations: it + 1 };
 }
 
+/** Runs a planner; an input error it finds names its field under `plan.` of the calibrate input. */
+function inPlan<T>(run: () => T): T {
+  try {
+    return run();
+  } catch (e) {
+    if (e instanceof PhysicsInputError) {
+      const prefix = `${e.field}: `;
+      throw new PhysicsInputError(`plan.${e.field}`, e.message.startsWith(prefix) ? e.message.slice(prefix.length) : e.message);
+    }
+    throw e;
+  }
+}
+
 // ---------------------------------------------------------------- hold plans
 
 /**
@@ -485,7 +498,7 @@ function holdProblem(plan0: HoldParsed, fitNames: string[], useOutside: boolean,
   plan = { ...plan, extendFraction: ext };
   const skip = (ch: LogChannel) => drives && ch.role === "outside_air";
   const withFactors = (f: number[]): HoldParsed => ({ ...plan, calibration: { wallConductance: f[0], innerH: f[1], contact: f[2], source } });
-  const runAt = (f: number[]) => runHoldParsed(withFactors(f));
+  const runAt = (f: number[]) => inPlan(() => runHoldParsed(withFactors(f)));
   // The compared readings are fixed once, from the plan as built: a reading is in or out by its time only.
   const first = runAt([1, 1, 1]);
   const cmp0 = compareLog(log, planStart_s, (ch, fld) => holdCurve(plan, first, ch, fld), skip);
@@ -546,7 +559,10 @@ function thawProblem(plan0: ThawParsed, log: ParsedLog, planStart_s: number, sou
   if (plan0.calibration) warnings.push(`The plan already carries a calibration${plan0.calibration.source ? ` (${plan0.calibration.source})` : ""}: it is refitted from 1`);
   // Run the thaw for the whole log, past the usual end point (the centre reaching thawed stops the planner).
   const plan: ThawParsed = { ...plan0, compare: false, readyBy: null, endPoint_C: 99, horizon_s: Math.min(30 * 86400, Math.max(60, logEnd * 1.01)), calibration: undefined };
-  const runAt = (f: number[]): ThawResult => runThawParsed({ ...plan, calibration: { surfaceH: f[0], source } });
+  const runAt = (f: number[]): ThawResult => inPlan(() => runThawParsed({ ...plan, calibration: { surfaceH: f[0], source } }));
+  log.series.forEach((s, k) => {
+    if (s.channel.role === "pack") throw new PhysicsInputError(`format.channels.${k}.role`, "a thaw plan has no coolant pack");
+  });
   const first = runAt([1]);
   const skip = (ch: LogChannel) => ch.role !== "product";
   const cmp0 = compareLog(log, planStart_s, (ch, fld) => thawCurve(first, ch, fld), skip);

@@ -10,7 +10,7 @@ import { jsonSchemaOf } from "../../lib/schemas/json-schema";
 import { parseLogCsv } from "../../lib/calibration/log-csv";
 import { compareHoldWithLog, resolvePlanStart } from "../../lib/calibration/align";
 import { DEMO_SCENARIO as D } from "../../lib/db/demo-scenario";
-import { lunchPlan, P, S, syntheticCsv } from "../helpers/synthetic-log";
+import { lunchPlan, K, P, S, syntheticCsv } from "../helpers/synthetic-log";
 
 const noBand = { outerH_frac: 0, insulationK_frac: 0, conditioning_K: 0 };
 const plan: HoldInput = lunchPlan;
@@ -178,6 +178,23 @@ describe("calibration: bad input", () => {
     const v = runValidated(calibrateInputSchema, { ...good, log: { name: "x.csv", text: "elapsed_min,Air\n0,5\n5,6\n10,7\n" }, format: { time: elapsed, channels: [{ column: "Air", role: "product", line: 3 }] } }, (p) => runCalibration(p));
     expect(v.ok).toBe(false);
     if (!v.ok) expect(Object.keys(v.fieldErrors)[0]).toBe("format.channels.0.line");
+  });
+
+  it("a plan the planner refuses: the field error is named under plan", () => {
+    const tooMany = { ...plan, packs: [{ pack: K("Water ice"), count: 200, conditioning_C: -18 }] };
+    const v = runValidated(calibrateInputSchema, { ...good, plan: tooMany, log: { name: "x.csv", text: "elapsed_min,Air\n0,5\n5,6\n10,7\n" } }, (p) => runCalibration(p));
+    expect(v.ok).toBe(false);
+    if (!v.ok) expect(Object.keys(v.fieldErrors)[0]).toBe("plan.products");
+  });
+
+  it("a pack channel on a thaw plan, and a plan start past the log", () => {
+    const thaw = { planner: "thaw" as const, plan: { product: P("Cod fillets"), ruleSet: D.rulesets[1], method: { kind: "fridge_air" as const, air_C: 4, speed_m_s: 0.3 } }, log: { name: "x.csv", text: "elapsed_min,T\n0,-18\n60,-10\n120,-5\n" } };
+    const a = runValidated(calibrateInputSchema, { ...thaw, format: { time: elapsed, channels: [{ column: "T", role: "pack" }] } }, (p) => runCalibration(p));
+    expect(a.ok).toBe(false);
+    if (!a.ok) expect(Object.keys(a.fieldErrors)[0]).toBe("format.channels.0.role");
+    const b = runValidated(calibrateInputSchema, { ...thaw, planStart: 7190, format: { time: elapsed, channels: [{ column: "T", role: "product" }] } }, (p) => runCalibration(p));
+    expect(b.ok).toBe(false);
+    if (!b.ok) expect(b.fieldErrors["log.text"][0]).toMatch(/nothing to fit/);
   });
 
   it("the schema refuses unknown factors and prints as JSON Schema", () => {
