@@ -467,7 +467,10 @@ export function routeFromOutsideAir(route: HoldParsed["route"], t_s: number[], T
 function holdProblem(plan0: HoldParsed, fitNames: string[], useOutside: boolean, log: ParsedLog, planStart_s: number, source: string): Problem {
   const names: FactorName[] = ["wallConductance", "innerH", "contact"];
   const warnings: string[] = [...log.warnings];
-  const assumptions: string[] = [`Plan aligned with the log at ${planStart_s.toFixed(0)} s after its first reading`];
+  const assumptions: string[] = [
+    `Plan aligned with the log at ${planStart_s.toFixed(0)} s after its first reading`,
+    "The wall conductance factor scales the conduction of the walls, lid and edges; an error in the outer surface coefficient or the sun on the route is absorbed into it (a log from inside the box cannot tell them apart), and its interval does not cover that",
+  ];
   const logEnd = log.t_s[log.t_s.length - 1] - planStart_s;
   let plan: HoldParsed = { ...plan0, uncertainty: { outerH_frac: 0, insulationK_frac: 0, conditioning_K: 0 }, calibration: undefined };
   if (plan0.calibration) warnings.push(`The plan already carries a calibration${plan0.calibration.source ? ` (${plan0.calibration.source})` : ""}: it is refitted from 1`);
