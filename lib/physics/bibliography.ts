@@ -302,6 +302,22 @@ export const BIBLIOGRAPHY = {
     where: "§9.8 (horizontal cavities: heated from below, convection sets in above Ra = 1708; heated from above, or cooled from below, the layer is stable and heat crosses by conduction, Nu = 1)",
     note: "numbering from memory",
   },
+  batesWatts1988: {
+    authors: "D. M. Bates, D. G. Watts",
+    title: "Nonlinear Regression Analysis and Its Applications",
+    year: 1988,
+    edition: "Wiley",
+    where: "§2.3 (linear approximation: parameter covariance s²(JᵀJ)⁻¹ with s² = S(θ̂)/(n − p), intervals θ̂ ± t·se)",
+    note: "section number from memory",
+  },
+  bayleyHammersley1946: {
+    authors: "G. V. Bayley, J. M. Hammersley",
+    title: "The \"effective\" number of independent observations in an autocorrelated time series",
+    year: 1946,
+    edition: "Supplement to the Journal of the Royal Statistical Society 8(2)",
+    where: "for a first-order autoregressive series the variance of a mean grows by (1 + ρ)/(1 − ρ)",
+    note: "from memory",
+  },
 } as const satisfies Record<string, Reference>;
 
 export type SourceKey = keyof typeof BIBLIOGRAPHY;

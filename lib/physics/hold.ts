@@ -132,7 +132,10 @@ interface Prepared {
   midPlane_m2: number;
 }
 
-function prepare(inp: HoldParsed): Prepared {
+function prepare(given: HoldParsed): Prepared {
+  // A calibration's contact factor scales every pack line's contact coefficient (the wall and inside factors are applied below).
+  const cal = given.calibration;
+  const inp = cal && cal.contact !== 1 ? { ...given, packs: given.packs.map((p) => ({ ...p, contact_W_m2K: p.contact_W_m2K * cal.contact })) } : given;
   const warnings: string[] = [];
   const assumptions: string[] = [];
   const mats = new Map(inp.materials.map((m) => [m.name, m]));
@@ -240,7 +243,7 @@ function prepare(inp: HoldParsed): Prepared {
   // Inside coefficient: convection plus linearised radiation at a representative inside temperature.
   const temps = [...inp.products.map((l) => l.start_C), ...inp.packs.map((l) => Math.max(l.conditioning_C, l.pack.phaseChange_C))];
   const Tin = temps.length ? temps.reduce((a, b) => a + b, 0) / temps.length : 5;
-  const innerH = inp.overrides.innerH_W_m2K ?? INNER_CONVECTIVE_W_M2K + radiationAt(0.9, Math.max(-80, Math.min(90, Tin)));
+  const innerH = (inp.overrides.innerH_W_m2K ?? INNER_CONVECTIVE_W_M2K + radiationAt(0.9, Math.max(-80, Math.min(90, Tin)))) * (cal?.innerH ?? 1);
   const bodiesVolume = contentsVolume;
   const airVolume_m3 = Math.max(innerVolume - bodiesVolume, 0.02 * innerVolume);
 
@@ -259,6 +262,12 @@ function prepare(inp: HoldParsed): Prepared {
     }
     kScaleForUA = Math.sqrt(lo * hi);
     assumptions.push(`Wall UA given as ${target} W/K: every layer's conductivity scaled by ${kScaleForUA.toFixed(3)} to match it (with the films of a 10 W/(m²·K) outer coefficient unless given)`);
+  }
+  if (cal) {
+    kScaleForUA *= cal.wallConductance;
+    assumptions.push(
+      `Calibrated${cal.source ? ` from ${cal.source}` : ""}: wall, lid and edge conductivities ×${cal.wallConductance.toPrecision(3)}, inside coefficient ×${cal.innerH.toPrecision(3)}, pack contact ×${cal.contact.toPrecision(3)}`,
+    );
   }
 
   assumptions.push(

@@ -183,17 +183,19 @@ function runMethod(item: Item, inp: ThawParsed, method: ThawMethod, endPoint_C: 
   const dt0 = Math.max(1, Math.min(60, (depth * depth) / 2e-6 / 300));
   const adaptive = { target_K: 1, dtMax_s: 900 };
   let hShown = 0;
+  // A calibration's factor scales the surface's convective (or given) coefficient; radiation is not scaled.
+  const hf = inp.calibration?.surfaceH ?? 1;
   let medium_C = 0;
   let result: Solver1DResult;
 
   const hAirFn = (air: Surroundings) => {
-    if (inp.overrides.h_W_m2K) return () => inp.overrides.h_W_m2K!;
+    if (inp.overrides.h_W_m2K) return () => inp.overrides.h_W_m2K! * hf;
     let lastTs = NaN;
     let lastH = 0;
     return (_t: number, Ts: number) => {
       if (!(Math.abs(Ts - lastTs) < 0.25)) {
         lastTs = Ts;
-        lastH = itemSurfaceCoefficient(g, Ts, air, 0, []).hConvective_W_m2K;
+        lastH = itemSurfaceCoefficient(g, Ts, air, 0, []).hConvective_W_m2K * hf;
       }
       return lastH;
     };
@@ -202,7 +204,7 @@ function runMethod(item: Item, inp: ThawParsed, method: ThawMethod, endPoint_C: 
   if (method.kind === "fridge_air" || method.kind === "room_air") {
     const air: Surroundings = { fluid: "air", T_C: method.air_C, speed_m_s: method.speed_m_s };
     const hc = itemSurfaceCoefficient(g, Tref, air, eps, warnings);
-    hShown = inp.overrides.h_W_m2K ?? hc.h_W_m2K;
+    hShown = inp.overrides.h_W_m2K ? inp.overrides.h_W_m2K * hf : hc.h_W_m2K + (hf - 1) * hc.hConvective_W_m2K;
     medium_C = method.air_C;
     const boundary: Boundary = { kind: "convective", h_W_m2K: hAirFn(air), fluid_C: () => method.air_C, emissivity: inp.overrides.h_W_m2K ? 0 : eps, radiant_C: () => method.air_C };
     result = solve1D({ ...base, boundary, dt_s: dt0, adaptive });
@@ -239,7 +241,7 @@ function runMethod(item: Item, inp: ThawParsed, method: ThawMethod, endPoint_C: 
     const contact_W_K = fp.contact_m2 / (1 / method.contact_W_m2K + half_m2K_W);
     const exposed = Math.max(0, (A - fp.contact_m2) / A);
     const hc = itemSurfaceCoefficient(g, Tref, air, eps, warnings);
-    hShown = inp.overrides.h_W_m2K ?? hc.h_W_m2K;
+    hShown = inp.overrides.h_W_m2K ? inp.overrides.h_W_m2K * hf : hc.h_W_m2K + (hf - 1) * hc.hConvective_W_m2K;
     medium_C = method.air_C;
     const hItem = hAirFn(air);
     const boundary: Boundary = {
@@ -258,18 +260,18 @@ function runMethod(item: Item, inp: ThawParsed, method: ThawMethod, endPoint_C: 
   } else if (method.kind === "running_water") {
     const water: Surroundings = { fluid: "water", T_C: method.water_C, speed_m_s: method.speed_m_s };
     const pack = method.packaging;
-    const hBare = itemSurfaceCoefficient(g, Tref, water, 0, warnings).h_W_m2K;
+    const hBare = itemSurfaceCoefficient(g, Tref, water, 0, warnings).h_W_m2K * hf;
     const eff = (h: number) => (pack ? 1 / (1 / h + pack.thickness_m / pack.k_W_mK) : h);
-    hShown = inp.overrides.h_W_m2K ?? eff(hBare);
+    hShown = inp.overrides.h_W_m2K ? inp.overrides.h_W_m2K * hf : eff(hBare);
     medium_C = method.water_C;
     let lastTs = NaN;
     let lastH = hShown;
     const hFn = inp.overrides.h_W_m2K
-      ? () => inp.overrides.h_W_m2K!
+      ? () => inp.overrides.h_W_m2K! * hf
       : (_t: number, Ts: number) => {
           if (!(Math.abs(Ts - lastTs) < 0.25)) {
             lastTs = Ts;
-            lastH = eff(itemSurfaceCoefficient(g, Ts, water, 0, []).hConvective_W_m2K);
+            lastH = eff(itemSurfaceCoefficient(g, Ts, water, 0, []).hConvective_W_m2K * hf);
           }
           return lastH;
         };
@@ -279,8 +281,8 @@ function runMethod(item: Item, inp: ThawParsed, method: ThawMethod, endPoint_C: 
     // Still water in a finite bath, reset to the fresh-water temperature at every change.
     const water: Surroundings = { fluid: "water", T_C: method.water_C, speed_m_s: 0 };
     const pack = method.packaging;
-    const hBare = itemSurfaceCoefficient(g, Tref, water, 0, warnings).h_W_m2K;
-    const h = inp.overrides.h_W_m2K ?? (pack ? 1 / (1 / hBare + pack.thickness_m / pack.k_W_mK) : hBare);
+    const hBare = itemSurfaceCoefficient(g, Tref, water, 0, warnings).h_W_m2K * hf;
+    const h = inp.overrides.h_W_m2K ? inp.overrides.h_W_m2K * hf : pack ? 1 / (1 / hBare + pack.thickness_m / pack.k_W_mK) : hBare;
     hShown = h;
     medium_C = method.water_C;
     const A = shape.area_m2;
@@ -430,7 +432,8 @@ export function runThawParsed(inp: ThawParsed, opts: { now_ms?: number } = {}): 
       const m = kind === inp.method.kind ? inp.method : defaultMethod(kind, tray);
       if (!m) continue;
       try {
-        comparison.push(kind === inp.method.kind ? main : runMethod(item, inp, m, endPoint_C, []));
+        // A calibration belongs to the method it was fitted for: the others run as built.
+        comparison.push(kind === inp.method.kind ? main : runMethod(item, { ...inp, calibration: undefined }, m, endPoint_C, []));
       } catch (e) {
         if (!(e instanceof PhysicsInputError)) throw e;
         warnings.push(`${THAW_METHOD_LABELS[kind]} not compared: ${e.message}`);
@@ -443,6 +446,7 @@ export function runThawParsed(inp: ThawParsed, opts: { now_ms?: number } = {}): 
       ? `The item is modelled as a hollow ${item.m === 2 ? "sphere" : "cylinder"}: a ${(item.shape.hollow.wall_m * 1000).toFixed(0)} mm wall around a closed cavity, ${(2 * item.R * 1000).toFixed(0)} mm across, heated from outside only (the cavity face insulated); properties follow temperature from the composition, with ice melting over the freezing range. A real carcass is not a uniform wall: its thickest meat sets the thaw time and its thin parts thaw sooner, so the wall should be the deepest meat over the cavity; the answer is only as good as that figure`
       : `The ${inp.product.shape} is modelled in one dimension (${item.m === 0 ? "slab" : item.m === 1 ? "cylinder" : "sphere"}) with its real volume and surface (half-size ${(item.R * 1000).toFixed(0)} mm); properties follow temperature from the composition, with ice melting over the freezing range`,
     `Surface coefficient ${main.h_W_m2K.toFixed(1)} W/(m²·K) ${inp.overrides.h_W_m2K ? "as given" : "from the core's correlations" + (inp.method.kind.includes("water") ? " in water" : " plus radiation (ε = " + inp.overrides.emissivity + ")")}`,
+    ...(inp.calibration ? [`Calibrated${inp.calibration.source ? ` from ${inp.calibration.source}` : ""}: the surface's convective coefficient ×${inp.calibration.surfaceH.toPrecision(3)} for this method`] : []),
     "Microwave thawing and thawing as part of cooking are outside this model",
     "Drip loss, packaging air pockets (unless given as packaging) and the shelf around the item are not modelled",
   ];

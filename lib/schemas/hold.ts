@@ -46,6 +46,21 @@ export const uncertaintySchema = z.object({
 
 /** Product lines and pack lines in one hold plan, each (also checked before any template look-up). */
 export const MAX_HOLD_LINES = 12;
+const factor = (what: string) =>
+  z.number({ error: `${what}: enter a number` }).min(0.05, { error: `${what}: at least 0.05` }).max(20, { error: `${what}: at most 20` }).default(1);
+
+/**
+ * Scale factors fitted from a logged trip (lib/physics/calibrate.ts), 1 = the model as built: every wall,
+ * lid and edge conductivity; the inside surface coefficient; every pack line's contact coefficient.
+ */
+export const holdCalibrationSchema = z.object({
+  wallConductance: factor("Wall conductance factor"),
+  innerH: factor("Inside coefficient factor"),
+  contact: factor("Pack contact factor"),
+  /** Where the factors came from (the log's name and date), shown in the assumptions. */
+  source: z.string().trim().max(300).default(""),
+});
+export type HoldCalibration = z.output<typeof holdCalibrationSchema>;
 
 export const holdInputSchema = z
   .object({
@@ -70,6 +85,8 @@ export const holdInputSchema = z
       })
       .default({ outerH_W_m2K: null, innerH_W_m2K: null, wallUA_W_K: null, sunShareSides: 0.25, lidOpenAirChangesPerMinute: 6, wellMixedInside: false }),
     uncertainty: uncertaintySchema.default({ outerH_frac: 0.3, insulationK_frac: 0.1, conditioning_K: 2 }),
+    /** Absent: the model as built. */
+    calibration: holdCalibrationSchema.optional(),
     /** Keep simulating the last segment after the route ends, to measure the margin (fraction of the route length). */
     extendFraction: z.number().min(0).max(3).default(0.5),
   })

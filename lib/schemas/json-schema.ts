@@ -4,6 +4,7 @@ import { warmupInputSchema } from "./warmup";
 import { holdInputSchema } from "./hold";
 import { thawInputSchema } from "./thaw";
 import { sizeInputSchema } from "./size";
+import { calibrateInputSchema } from "./calibrate";
 
 /** Inputs whose JSON Schema `holdline schema <name>` and /api/v1/schema/<name> print. */
 export const NAMED_SCHEMAS: Record<string, z.ZodType> = {
@@ -19,6 +20,7 @@ export const NAMED_SCHEMAS: Record<string, z.ZodType> = {
   hold: holdInputSchema,
   thaw: thawInputSchema,
   size: sizeInputSchema,
+  calibrate: calibrateInputSchema,
 };
 
 export function jsonSchemaOf(name: string): object | null {

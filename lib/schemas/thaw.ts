@@ -80,6 +80,16 @@ export const thawInputSchema = z.object({
       emissivity: z.number().min(0).max(1).default(0.9),
     })
     .default({ h_W_m2K: null, emissivity: 0.9 }),
+  /**
+   * A surface-coefficient factor fitted from a logged thaw (lib/physics/calibrate.ts), 1 = as built: it scales
+   * the convective (or given) coefficient of the item's surface, before any packaging; radiation is not scaled.
+   */
+  calibration: z
+    .object({
+      surfaceH: z.number({ error: "Surface coefficient factor: enter a number" }).min(0.05, { error: "Surface coefficient factor: at least 0.05" }).max(20, { error: "Surface coefficient factor: at most 20" }).default(1),
+      source: z.string().trim().max(300).default(""),
+    })
+    .optional(),
   horizon_s: positive("Longest thaw looked at", 30 * 86400).default(10 * 86400),
 }).superRefine((t, ctx) => {
   if (t.method.kind !== "still_water") return;
