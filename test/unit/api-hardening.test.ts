@@ -96,7 +96,7 @@ describe("2. calculations run off the request thread, with a time limit", () => 
         products: [{ product: "Roast chicken thighs, half tray", count: 2, start_C: 3 }],
         route: "Overnight courier, Millbrook depot",
         boxes: [{ shipper: "Quillfield thick catering box", thicknessVariants_m: [0.03, 0.05, 0.07] }],
-        packs: [{ pack: "Gel pack, 600 g", maxCount: 40, conditioning_C: [-25, -18, -10] }],
+        packs: [{ pack: "Gel pack, 600 g", maxCount: 12, conditioning_C: [-25, -18, -10] }],
         prune: false,
       })
       .then((r) => ((sizingDone = true), r));
