@@ -3,6 +3,8 @@ import Link from "next/link";
 import "./globals.css";
 import { UnitsProvider } from "./_components/units-context";
 import { currentUnits } from "./_server/units";
+import { currentActor } from "./_server/auth";
+import { signOutAction } from "./signin/actions";
 
 export const metadata: Metadata = {
   title: "Holdline",
@@ -13,6 +15,7 @@ export const dynamic = "force-dynamic";
 
 export default async function RootLayout({ children }: { children: React.ReactNode }) {
   const units = await currentUnits();
+  const actor = await currentActor();
   return (
     <html lang="en">
       <body>
@@ -40,6 +43,11 @@ export default async function RootLayout({ children }: { children: React.ReactNo
           <span className="units-now" data-testid="units-now">
             {units.temperatureUnit === "C" ? "°C" : "°F"} · {units.massUnit} · {units.lengthUnit}
           </span>
+          {actor ? (
+            <form action={signOutAction} className="signed-in" data-testid="signed-in">
+              {actor.name} ({actor.role}) <button type="submit">Sign out</button>
+            </form>
+          ) : null}
         </header>
         <UnitsProvider prefs={units}>
           <main>{children}</main>

@@ -8,16 +8,25 @@ import { PrismaBetterSqlite3 } from "@prisma/adapter-better-sqlite3";
 import { PrismaPg } from "@prisma/adapter-pg";
 import { PrismaClient } from "./generated/client";
 import { PrismaClient as PgPrismaClient } from "./generated-pg/client";
-import { isPostgresUrl } from "./provider";
+import { isPostgresUrl, type Provider } from "./provider";
 
 export type Db = PrismaClient;
+
+const providers = new WeakMap<object, Provider>();
+
+/** The engine behind a client made by createPrismaClient (SQLite for any other client). */
+export function providerOfClient(db: object): Provider {
+  return providers.get(db) ?? "sqlite";
+}
 
 export function createPrismaClient(location: string): PrismaClient {
   if (isPostgresUrl(location)) {
     // Both clients come from the same models (prisma/postgresql/schema.prisma is generated from
     // prisma/schema.prisma), so their query API is the same; the SQLite client's type stands for both.
     const pool = Number(process.env.HOLDLINE_PG_POOL) || 10;
-    return new PgPrismaClient({ adapter: new PrismaPg({ connectionString: location, max: pool }) }) as unknown as PrismaClient;
+    const client = new PgPrismaClient({ adapter: new PrismaPg({ connectionString: location, max: pool }) }) as unknown as PrismaClient;
+    providers.set(client, "postgresql");
+    return client;
   }
   return new PrismaClient({ adapter: new PrismaBetterSqlite3({ url: "file:" + location }) });
 }

@@ -15,6 +15,9 @@ import {
   TEMPLATE_LABELS,
 } from "../schemas/templates";
 import { z } from "zod";
+// Shared-database support (issue 16): library writes go through one transaction helper and rule-set changes are recorded.
+import { libraryTransaction, isUniqueViolation } from "./tx";
+import { recordRuleSetChange, type Actor } from "./audit";
 
 export interface Stored<K extends TemplateKind> {
   id: number;
@@ -169,6 +172,7 @@ export async function saveTemplate(
   id: number | null,
   expectedVersion: number | null,
   input: unknown,
+  actor: Actor = null,
 ): Promise<SaveResult> {
   const parsed = templateSchemas[kind].safeParse(input);
   if (!parsed.success) return { ok: false, reason: "invalid", fieldErrors: fieldErrorsOf(parsed.error) };
@@ -182,13 +186,24 @@ export async function saveTemplate(
       fieldErrors: { name: [`Another ${TEMPLATE_LABELS[kind].one} is already called "${(data as { name: string }).name}"`] },
     };
   }
-  return db.$transaction(async (tx) => {
+  const nameTakenResult: SaveResult = {
+    ok: false,
+    reason: "invalid",
+    fieldErrors: { name: [`Another ${TEMPLATE_LABELS[kind].one} is already called "${(data as { name: string }).name}"`] },
+  };
+  // The check above is the fast path; the unique index is the backstop when another instance wins the race.
+  return libraryTransaction(db, async (tx) => {
     const t = delegateFor(tx as unknown as TxLike, kind);
+    const audit = (rowId: number, version: number, action: "created" | "updated") =>
+      kind === "rulesets"
+        ? recordRuleSetChange(tx, { ruleSetId: rowId, ruleSetName: (data as { name: string }).name, action, version, snapshot: data, actor })
+        : Promise.resolve();
     if (kind === "rulesets" && (data as TemplateOutput["rulesets"]).isDefault) {
       await t.updateMany({ where: { isDefault: true, ...(id ? { NOT: { id } } : {}) }, data: { isDefault: false } });
     }
     if (id === null) {
       const row = await t.create({ data: toRow(kind, data) });
+      await audit(row.id, row.version, "created");
       return { ok: true as const, id: row.id, version: row.version };
     }
     const current = await t.findUnique({ where: { id } });
@@ -205,12 +220,21 @@ export async function saveTemplate(
     if (res.count !== 1) {
       return { ok: false as const, reason: "conflict" as const, message: `This ${TEMPLATE_LABELS[kind].one} was changed since you opened it.`, currentVersion: null };
     }
+    await audit(id, expectedVersion + 1, "updated");
     return { ok: true as const, id, version: expectedVersion + 1 };
+  }).catch((e: unknown): SaveResult => {
+    if (isUniqueViolation(e)) return nameTakenResult;
+    throw e;
   });
 }
 
 /** Deletes a template. Saved plans hold their own snapshot, so they are not touched. */
-export async function deleteTemplate(db: Db, kind: TemplateKind, id: number): Promise<{ ok: true } | { ok: false; message: string }> {
+export async function deleteTemplate(
+  db: Db,
+  kind: TemplateKind,
+  id: number,
+  actor: Actor = null,
+): Promise<{ ok: true } | { ok: false; message: string }> {
   const d = delegateFor(db, kind);
   const row = await d.findUnique({ where: { id } });
   if (!row) return { ok: false, message: `No ${TEMPLATE_LABELS[kind].one} with id ${id}` };
@@ -225,12 +249,18 @@ export async function deleteTemplate(db: Db, kind: TemplateKind, id: number): Pr
       return { ok: false, message: `"${String(row.name)}" is used by ${users.map((u) => `"${u.data.name}"`).join(", ")}; change those boxes first` };
     }
   }
-  await d.delete({ where: { id } });
+  await libraryTransaction(db, async (tx) => {
+    const gone = await delegateFor(tx, kind).deleteMany({ where: { id } });
+    if (kind === "rulesets" && gone.count === 1) {
+      const snapshot = fromRow("rulesets", row);
+      await recordRuleSetChange(tx, { ruleSetId: id, ruleSetName: snapshot.name, action: "deleted", version: row.version, snapshot, actor });
+    }
+  });
   return { ok: true };
 }
 
 /** Copies a template under a free name ("X (copy)", "X (copy 2)", …). */
-export async function duplicateTemplate(db: Db, kind: TemplateKind, id: number): Promise<SaveResult> {
+export async function duplicateTemplate(db: Db, kind: TemplateKind, id: number, actor: Actor = null): Promise<SaveResult> {
   const src = await getTemplate(db, kind, id);
   if (!src) return { ok: false, reason: "not_found", message: `No ${TEMPLATE_LABELS[kind].one} with id ${id}` };
   const base = `${(src.data as { name: string }).name} (copy`;
@@ -238,7 +268,7 @@ export async function duplicateTemplate(db: Db, kind: TemplateKind, id: number):
   for (let n = 2; await nameTaken(db, kind, name, null); n++) name = `${base} ${n})`;
   const data = { ...src.data, name } as Record<string, unknown>;
   if (kind === "rulesets") data.isDefault = false;
-  return saveTemplate(db, kind, null, null, data);
+  return saveTemplate(db, kind, null, null, data, actor);
 }
 
 export async function countTemplates(db: Db): Promise<number> {
