@@ -1,0 +1,15 @@
+// The repository and API tests again, on PostgreSQL: `npm run test:pg` (scripts/test-pg.sh)
+// starts a temporary cluster and sets HOLDLINE_TEST_PG_URL; test/helpers/tempdb.ts then gives
+// every test file a new PostgreSQL database instead of a SQLite file.
+import { defineConfig } from "vitest/config";
+import base from "./vitest.config";
+
+export const DATABASE_TESTS = [
+  "test/unit/library-repo.test.ts",
+  "test/unit/accounts.test.ts",
+  "test/unit/concurrency.test.ts",
+  "test/unit/api.test.ts",
+  "test/unit/schema-drift.pg.test.ts",
+];
+
+export default defineConfig({ ...base, test: { ...base.test, include: DATABASE_TESTS } });
