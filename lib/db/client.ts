@@ -28,5 +28,6 @@ export function createPrismaClient(location: string): PrismaClient {
     providers.set(client, "postgresql");
     return client;
   }
-  return new PrismaClient({ adapter: new PrismaBetterSqlite3({ url: "file:" + location }) });
+  // Another process (a second app instance, the CLI) may hold the file's write lock: wait for it up to 10 s.
+  return new PrismaClient({ adapter: new PrismaBetterSqlite3({ url: "file:" + location, timeout: 10_000 }) });
 }
