@@ -13,10 +13,10 @@ import type { Actor, Role } from "../db/audit";
 
 export type AuthMode = "none" | "accounts";
 
-export function authMode(env: NodeJS.ProcessEnv = process.env): AuthMode {
+export function authMode(env: Record<string, string | undefined> = process.env): AuthMode {
   const forced = env.HOLDLINE_AUTH?.trim().toLowerCase();
   if (forced === "accounts") return "accounts";
-  return providerOf(resolveDatabasePath(env)) === "postgresql" ? "accounts" : "none";
+  return providerOf(resolveDatabasePath(env as NodeJS.ProcessEnv)) === "postgresql" ? "accounts" : "none";
 }
 
 /** What each role may do: editors change the library (templates, rule sets, settings) and make plans; planners make plans. */
