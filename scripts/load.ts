@@ -108,7 +108,7 @@ async function call(op: string, base: string, method: string, p: string, token: 
   const t0 = performance.now();
   const r = await fetch(base + p, {
     method,
-    headers: { authorization: `Bearer ${token}`, "content-type": "application/json" },
+    headers: { authorization: `Bearer ${token}`, "content-type": "application/json", origin: base },
     body: body === undefined ? undefined : JSON.stringify(body),
   });
   const text = await r.text();
@@ -117,7 +117,11 @@ async function call(op: string, base: string, method: string, p: string, token: 
   return { status: r.status, json: text ? JSON.parse(text) : null };
 }
 async function signIn(base: string, username: string): Promise<string> {
-  const r = await fetch(base + "/api/v1/session", { method: "POST", body: JSON.stringify({ username, password: `${username}-pw-123` }) });
+  const r = await fetch(base + "/api/v1/session", {
+    method: "POST",
+    headers: { "content-type": "application/json", origin: base },
+    body: JSON.stringify({ username, password: `${username}-pw-123` }),
+  });
   if (!r.ok) throw new Error(`sign-in ${username} on ${base}: ${r.status}`);
   return ((await r.json()) as { token: string }).token;
 }

@@ -34,7 +34,7 @@ export const DENIED: Record<Permission, string> = {
 };
 
 /** The cookie that holds the session token, and the request header the proxy passes the verified actor in. */
-export const SESSION_COOKIE = "holdline_session";
+export const SESSION_COOKIE = "holdline_account";
 export const ACTOR_HEADER = "x-holdline-actor";
 
 export function encodeActor(actor: NonNullable<Actor>): string {

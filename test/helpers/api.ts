@@ -59,7 +59,8 @@ export interface ApiAnswer {
 
 export async function api(method: string, pathname: string, opts: { body?: unknown; rawBody?: string; token?: string; cookie?: string; headers?: Record<string, string> } = {}): Promise<ApiAnswer> {
   const { proxy } = await import("../../proxy");
-  const headers = new Headers(opts.headers ?? {});
+  // What a browser on this origin sends, so host and origin checks in the proxy pass as for the app's own pages.
+  const headers = new Headers({ host: "127.0.0.1:3113", origin: "http://127.0.0.1:3113", ...(opts.headers ?? {}) });
   if (opts.token) headers.set("authorization", `Bearer ${opts.token}`);
   if (opts.cookie) headers.set("cookie", opts.cookie);
   const body = opts.rawBody ?? (opts.body === undefined ? undefined : JSON.stringify(opts.body));

@@ -52,11 +52,11 @@ describe("signing in", () => {
     const e = await api("POST", "/api/v1/session", { body: { username: "ed", password: "ed-password-1" } });
     expect(e.status).toBe(200);
     editor = (e.body as { token: string }).token;
-    expect(e.setCookies[0]).toMatch(/^holdline_session=/);
+    expect(e.setCookies[0]).toMatch(/^holdline_account=/);
     const p = await api("POST", "/api/v1/session", { body: { username: "PAT", password: "pat-password-1" } });
     planner = (p.body as { token: string }).token;
     expect((p.body as { account: { role: string } }).account.role).toBe("planner");
-    const me = await api("GET", "/api/v1/session", { cookie: `holdline_session=${encodeURIComponent(editor)}` });
+    const me = await api("GET", "/api/v1/session", { cookie: `holdline_account=${encodeURIComponent(editor)}` });
     expect(me.body).toMatchObject({ mode: "accounts", actor: { name: "Edda Editor", role: "editor" } });
   });
 });
