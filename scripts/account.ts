@@ -13,7 +13,7 @@ import { prepareDatabase } from "../lib/db/prepare";
 import { createPrismaClient } from "../lib/db/client";
 import { createAccount, listAccounts, setAccountDisabled } from "../lib/db/accounts";
 import { redactLocation } from "../lib/db/provider";
-import { authMode } from "../lib/auth/mode";
+import { authMode } from "../lib/db/auth-mode";
 
 const { values, positionals } = parseArgs({
   allowPositionals: true,

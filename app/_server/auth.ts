@@ -1,7 +1,7 @@
 import "server-only";
 import { headers } from "next/headers";
 import { NextResponse } from "next/server";
-import { ACTOR_HEADER, DENIED, authMode, can, decodeActor, type Permission } from "@/lib/auth/mode";
+import { ACTOR_HEADER, DENIED, authMode, can, decodeActor, type Permission } from "@/lib/db/auth-mode";
 import type { Actor } from "@/lib/db/audit";
 
 /**

@@ -1,9 +1,9 @@
 import "server-only";
 import { cookies } from "next/headers";
 import { getDb } from "./db";
-import { SESSION_COOKIE } from "@/lib/auth/mode";
+import { SESSION_COOKIE } from "@/lib/db/auth-mode";
 import { createSession, endSession, verifyCredentials, type AccountView } from "@/lib/db/accounts";
-import { forgetSession } from "@/lib/auth/gate";
+import { forgetSession } from "@/lib/db/session-gate";
 
 /** Checks a username and password; on success starts a session and sets the session cookie. */
 export async function signIn(username: unknown, password: unknown, secure: boolean): Promise<{ token: string; expiresAt: Date; account: AccountView } | null> {

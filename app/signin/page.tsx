@@ -1,5 +1,5 @@
 import { redirect } from "next/navigation";
-import { authMode } from "@/lib/auth/mode";
+import { authMode } from "@/lib/db/auth-mode";
 import { currentActor } from "@/app/_server/auth";
 import { safeNext } from "@/app/_server/session";
 import { signInAction } from "./actions";

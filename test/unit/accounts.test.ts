@@ -7,7 +7,7 @@ import { ruleSetHistory, SINGLE_USER } from "../../lib/db/audit";
 import { deleteTemplate, getTemplateByName, saveTemplate } from "../../lib/db/templates";
 import { exportLibrary, importLibrary } from "../../lib/db/library";
 import { getPlan, listPlans, savePlan } from "../../lib/db/plans";
-import { authMode, can, decodeActor, encodeActor, isPublicPath } from "../../lib/auth/mode";
+import { authMode, can, decodeActor, encodeActor, isPublicPath } from "../../lib/db/auth-mode";
 import { DEMO_SCENARIO } from "../../lib/db/demo-scenario";
 
 process.env.HOLDLINE_BCRYPT_COST = "4"; // the smallest cost bcrypt allows, to keep the tests quick

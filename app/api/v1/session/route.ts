@@ -2,7 +2,7 @@ import { NextResponse } from "next/server";
 import { readJson, unprocessable } from "../_lib";
 import { signIn, signOut } from "@/app/_server/session";
 import { currentActor } from "@/app/_server/auth";
-import { authMode } from "@/lib/auth/mode";
+import { authMode } from "@/lib/db/auth-mode";
 
 /** Who is signed in, and whether this install uses accounts. */
 export async function GET() {

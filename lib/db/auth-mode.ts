@@ -7,9 +7,9 @@
  * A passphrase mode for a single-user install listening beyond loopback slots in here too:
  * accounts, when on, take precedence over it.
  */
-import { resolveDatabasePath } from "../db/path";
-import { providerOf } from "../db/provider";
-import type { Actor, Role } from "../db/audit";
+import { resolveDatabasePath } from "./path";
+import { providerOf } from "./provider";
+import type { Actor, Role } from "./audit";
 
 export type AuthMode = "none" | "accounts";
 

@@ -4,10 +4,10 @@
  * its prefetches from asking the database for the same token again and again; disabling
  * an account or signing out takes effect within SESSION_CACHE_MS.
  */
-import { createPrismaClient, type Db } from "../db/client";
-import { resolveDatabasePath } from "../db/path";
-import { sessionActor } from "../db/accounts";
-import type { Actor } from "../db/audit";
+import { createPrismaClient, type Db } from "./client";
+import { resolveDatabasePath } from "./path";
+import { sessionActor } from "./accounts";
+import type { Actor } from "./audit";
 
 const SESSION_CACHE_MS = 5_000;
 const g = globalThis as unknown as { __holdlineGateDb?: Db; __holdlineGateCache?: Map<string, { actor: Actor; until: number }> };

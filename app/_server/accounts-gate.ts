@@ -1,6 +1,6 @@
 /**
  * The accounts part of the request gate (proxy.ts). In accounts mode (a shared database,
- * lib/auth/mode.ts) every page and API call needs a valid session, from the session cookie
+ * lib/db/auth-mode.ts) every page and API call needs a valid session, from the session cookie
  * or `Authorization: Bearer <token>`; the gate checks it against the database and passes the
  * verified actor on in a request header (any such header the client sent is dropped first).
  * Pages, server actions and route handlers check the role (app/_server/auth.ts). Without a
@@ -8,8 +8,8 @@
  * pass untouched (apart from dropping the actor header).
  */
 import { NextResponse, type NextRequest } from "next/server";
-import { ACTOR_HEADER, SESSION_COOKIE, authMode, encodeActor, isPublicPath } from "./mode";
-import { sessionActorFor } from "./gate";
+import { ACTOR_HEADER, SESSION_COOKIE, authMode, encodeActor, isPublicPath } from "@/lib/db/auth-mode";
+import { sessionActorFor } from "@/lib/db/session-gate";
 
 export async function accountsGate(req: NextRequest): Promise<NextResponse> {
   const headers = new Headers(req.headers);
