@@ -7,6 +7,7 @@
 //   node scripts/pg-ddl.mjs                 # CREATE TABLE for every model
 //   node scripts/pg-ddl.mjs Product Plan    # only these models
 //   node scripts/pg-ddl.mjs --add Product.shape   # ALTER TABLE … ADD COLUMN for one field
+//   node scripts/pg-ddl.mjs --twin 20261202090000_x  # write the PostgreSQL twin of an additive SQLite migration
 // test/unit/schema-drift.pg.test.ts prints the --add statement for every column a PostgreSQL
 // migration is missing.
 import { readFileSync } from "node:fs";
@@ -87,6 +88,31 @@ export function addColumnSql(model, field) {
   return sql;
 }
 
+/**
+ * The PostgreSQL twin of a SQLite migration made only of comments, `ALTER TABLE … ADD COLUMN`
+ * and `CREATE [UNIQUE] INDEX` statements (the usual additive migration), with Prisma's type
+ * mapping (REAL -> DOUBLE PRECISION, DATETIME -> TIMESTAMP(3)). Anything else (a table copy,
+ * PRAGMA, CREATE TABLE) throws: write that twin by hand.
+ */
+export function twinOfSqliteMigration(sql, name = "migration") {
+  const out = [`-- PostgreSQL twin of prisma/migrations/${name} (scripts/pg-ddl.mjs --twin).`];
+  for (const stmt of sql.replace(/\r/g, "").split(/;\s*(?:\n|$)/)) {
+    const lines = stmt.split("\n");
+    const comments = lines.filter((l) => l.trim().startsWith("--"));
+    const body = lines.filter((l) => !l.trim().startsWith("--")).join("\n").trim();
+    out.push(...comments.map((c) => c.trim()));
+    if (!body) continue;
+    if (/^ALTER TABLE\s+"\w+"\s+ADD COLUMN\s+"\w+"\s+/i.test(body)) {
+      out.push(body.replace(/\bREAL\b/g, "DOUBLE PRECISION").replace(/\bDATETIME\b/g, "TIMESTAMP(3)") + ";");
+    } else if (/^CREATE (UNIQUE )?INDEX\s+"\w+"\s+ON\s+"\w+"\s*\(/i.test(body)) {
+      out.push(body + ";");
+    } else {
+      throw new Error(`pg-ddl: ${name}: cannot translate this statement; write the PostgreSQL twin by hand:\n${body}`);
+    }
+  }
+  return out.join("\n") + "\n";
+}
+
 if (process.argv[1] && path.resolve(process.argv[1]) === fileURLToPath(import.meta.url)) {
   const models = parseModels(readFileSync(path.join(root, "prisma", "schema.prisma"), "utf8"));
   const args = process.argv.slice(2);
@@ -95,7 +121,18 @@ if (process.argv[1] && path.resolve(process.argv[1]) === fileURLToPath(import.me
     if (!m) throw new Error(`pg-ddl: no model ${n}`);
     return m;
   };
-  if (args[0] === "--add") {
+  if (args[0] === "--twin") {
+    // Writes prisma/migrations-postgresql/<name>/migration.sql for each named SQLite migration.
+    const { mkdirSync, writeFileSync, existsSync } = await import("node:fs");
+    for (const name of args.slice(1)) {
+      const target = path.join(root, "prisma", "migrations-postgresql", name, "migration.sql");
+      if (existsSync(target)) throw new Error(`pg-ddl: ${target} exists; never edit an applied migration`);
+      const twin = twinOfSqliteMigration(readFileSync(path.join(root, "prisma", "migrations", name, "migration.sql"), "utf8"), name);
+      mkdirSync(path.dirname(target), { recursive: true });
+      writeFileSync(target, twin);
+      console.error(`pg-ddl: wrote ${path.relative(root, target)}`);
+    }
+  } else if (args[0] === "--add") {
     for (const spec of args.slice(1)) {
       const [model, field] = spec.split(".");
       console.log(addColumnSql(byName(model), field));

@@ -89,7 +89,7 @@ describe("accounts in the browser", () => {
   });
 
   it("tells a planner that only an editor can change a rule set, and saves nothing", async () => {
-    await page.getByTestId("template-list").getByRole("link", { name: "Canada" }).click();
+    await page.getByTestId("template-list").getByRole("link", { name: "Canada", exact: true }).click();
     await page.getByLabel("Chilled food, upper limit").fill("3");
     await page.getByRole("button", { name: /Save this rule set/ }).click();
     await page.getByTestId("form-banner").getByText(/Only an editor can change/).waitFor();
@@ -103,11 +103,11 @@ describe("accounts in the browser", () => {
     await signIn("edda", "edda-password-1");
     await page.waitForURL(/\/plans$/);
     await page.goto(base + "/library/rulesets");
-    await page.getByTestId("template-list").getByRole("link", { name: "Canada" }).click();
+    await page.getByTestId("template-list").getByRole("link", { name: "Canada", exact: true }).click();
     await page.getByLabel("Chilled food, upper limit").fill("3");
     await page.getByRole("button", { name: /Save this rule set/ }).click();
     await page.waitForURL(/\/library\/rulesets\?saved=/);
-    await page.getByTestId("template-list").getByRole("link", { name: "Canada" }).click();
+    await page.getByTestId("template-list").getByRole("link", { name: "Canada", exact: true }).click();
     await page.getByRole("link", { name: "History of this rule set" }).click();
     const table = page.getByTestId("ruleset-history");
     await table.waitFor();

@@ -31,3 +31,19 @@ describe("one source of truth for the models", () => {
     expect(postgres.filter((m) => !sqlite.includes(m))).toEqual([]);
   });
 });
+
+describe("PostgreSQL twin of an additive SQLite migration", () => {
+  it("maps the types and keeps the statements; refuses what it cannot translate", async () => {
+    // @ts-expect-error plain ES module script without types
+    const { twinOfSqliteMigration } = await import("../../scripts/pg-ddl.mjs");
+    const twin = twinOfSqliteMigration(
+      `-- why\nALTER TABLE "Product" ADD COLUMN "wall_m" REAL;\nALTER TABLE "Plan" ADD COLUMN "at" DATETIME;\nCREATE INDEX "Plan_at_idx" ON "Plan"("at");\n`,
+      "20990101000000_x",
+    ) as string;
+    expect(twin).toContain(`ALTER TABLE "Product" ADD COLUMN "wall_m" DOUBLE PRECISION;`);
+    expect(twin).toContain(`ALTER TABLE "Plan" ADD COLUMN "at" TIMESTAMP(3);`);
+    expect(twin).toContain(`CREATE INDEX "Plan_at_idx" ON "Plan"("at");`);
+    expect(twin).toContain("-- why");
+    expect(() => twinOfSqliteMigration(`PRAGMA foreign_keys=OFF;\nCREATE TABLE "new_X" ("id" INTEGER);`)).toThrow(/by hand/);
+  });
+});
