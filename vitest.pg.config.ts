@@ -1,6 +1,6 @@
 // The repository and API tests again, on PostgreSQL: `npm run test:pg` (scripts/test-pg.sh)
-// starts a temporary cluster and sets HOLDLINE_TEST_PG_URL; test/helpers/tempdb.ts then gives
-// every test file a new PostgreSQL database instead of a SQLite file.
+// starts a temporary cluster and sets HOLDLINE_TEST_PG_URL; with HOLDLINE_TEST_DB=postgresql
+// test/helpers/tempdb.ts gives every test file a new PostgreSQL database instead of a SQLite file.
 import { defineConfig } from "vitest/config";
 import base from "./vitest.config";
 
@@ -12,4 +12,6 @@ export const DATABASE_TESTS = [
   "test/unit/schema-drift.pg.test.ts",
 ];
 
-export default defineConfig({ ...base, test: { ...base.test, include: DATABASE_TESTS } });
+if (!process.env.HOLDLINE_TEST_PG_URL) throw new Error("vitest.pg.config.ts needs HOLDLINE_TEST_PG_URL: run `npm run test:pg`");
+
+export default defineConfig({ ...base, test: { ...base.test, include: DATABASE_TESTS, env: { HOLDLINE_TEST_DB: "postgresql" } } });

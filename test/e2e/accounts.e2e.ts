@@ -10,7 +10,7 @@ import os from "node:os";
 import path from "node:path";
 import { chromium, type BrowserContext, type Page } from "playwright-core";
 import { chromiumPath } from "./harness";
-import { tempDatabase } from "../helpers/tempdb";
+import { tempPostgresDatabase, tempSqliteDatabase } from "../helpers/tempdb";
 import { createAccount } from "../../lib/db/accounts";
 
 let server: ChildProcess;
@@ -31,7 +31,7 @@ const freePort = () =>
 
 before(async () => {
   process.env.HOLDLINE_BCRYPT_COST = "4";
-  const t = await tempDatabase({ seed: true });
+  const t = process.env.HOLDLINE_TEST_PG_URL ? await tempPostgresDatabase({ seed: true }) : await tempSqliteDatabase({ seed: true });
   disposeDb = t.dispose;
   for (const [u, n, role] of [["edda", "Edda Editor", "editor"], ["pat", "Pat Planner", "planner"]] as const) {
     const r = await createAccount(t.db, { username: u, displayName: n, password: `${u}-password-1`, role });
@@ -114,7 +114,7 @@ describe("accounts in the browser", () => {
     const firstRow = await table.locator("tbody tr").first().innerText();
     assert.match(firstRow, /Edda Editor/);
     assert.match(firstRow, /Changed/);
-    assert.match(firstRow, /\b3\b/);
+    assert.match(firstRow, /Chilled food, upper limit: 4 °C → 3 °C/);
     assert.match(await table.locator("tbody tr").last().innerText(), /Imported/);
   });
 });

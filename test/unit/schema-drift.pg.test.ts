@@ -4,7 +4,7 @@
 import { describe, it, expect, beforeAll, afterAll } from "vitest";
 import { readFileSync } from "node:fs";
 import pg from "pg";
-import { tempDatabase } from "../helpers/tempdb";
+import { tempPostgresDatabase } from "../helpers/tempdb";
 import { migratePostgres } from "../../lib/db/migrate-pg";
 // @ts-expect-error plain ES module script without types
 import { parseModels, addColumnSql } from "../../scripts/pg-ddl.mjs";
@@ -38,7 +38,7 @@ describe.runIf(haveServer)("PostgreSQL migrations match schema.prisma", () => {
   const models = parseModels(readFileSync("prisma/schema.prisma", "utf8")) as Model[];
 
   beforeAll(async () => {
-    const t = await tempDatabase();
+    const t = await tempPostgresDatabase();
     url = t.dbPath;
     dispose = t.dispose;
     await t.db.$disconnect();
