@@ -25,29 +25,27 @@ export async function tempDatabase(opts: { seed?: boolean } = {}): Promise<TempD
 export async function tempPostgresDatabase(opts: { seed?: boolean } = {}): Promise<TempDb> {
   const server = process.env.HOLDLINE_TEST_PG_URL;
   if (!server) throw new Error("HOLDLINE_TEST_PG_URL is not set: run `npm run test:pg`");
-  {
-    const name = `holdline_t_${randomBytes(6).toString("hex")}`;
-    const admin = new pg.Client({ connectionString: server });
-    await admin.connect();
-    await admin.query(`CREATE DATABASE "${name}"`);
-    await admin.end();
-    const u = new URL(server);
-    u.pathname = "/" + name;
-    const url = u.toString();
-    await prepareDatabase(url, { seed: opts.seed ?? false, quiet: true });
-    const db = createPrismaClient(url);
-    return {
-      db,
-      dbPath: url,
-      dispose: async () => {
-        await db.$disconnect();
-        const c = new pg.Client({ connectionString: server });
-        await c.connect();
-        await c.query(`DROP DATABASE IF EXISTS "${name}" WITH (FORCE)`);
-        await c.end();
-      },
-    };
-  }
+  const name = `holdline_t_${randomBytes(6).toString("hex")}`;
+  const admin = new pg.Client({ connectionString: server });
+  await admin.connect();
+  await admin.query(`CREATE DATABASE "${name}"`);
+  await admin.end();
+  const u = new URL(server);
+  u.pathname = "/" + name;
+  const url = u.toString();
+  await prepareDatabase(url, { seed: opts.seed ?? false, quiet: true });
+  const db = createPrismaClient(url);
+  return {
+    db,
+    dbPath: url,
+    dispose: async () => {
+      await db.$disconnect();
+      const c = new pg.Client({ connectionString: server });
+      await c.connect();
+      await c.query(`DROP DATABASE IF EXISTS "${name}" WITH (FORCE)`);
+      await c.end();
+    },
+  };
 }
 
 export async function tempSqliteDatabase(opts: { seed?: boolean } = {}): Promise<TempDb> {
