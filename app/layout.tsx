@@ -45,7 +45,7 @@ export default async function RootLayout({ children }: { children: React.ReactNo
           </span>
           {actor ? (
             <form action={signOutAction} className="signed-in" data-testid="signed-in">
-              {actor.name} ({actor.role}) <button type="submit">Sign out</button>
+              {actor.name} ({actor.role}) {actor.role === "editor" ? <Link href="/accounts">Accounts</Link> : null} <button type="submit">Sign out</button>
             </form>
           ) : null}
         </header>

@@ -117,4 +117,27 @@ describe("accounts in the browser", () => {
     assert.match(firstRow, /Chilled food, upper limit: 4 °C → 3 °C/);
     assert.match(await table.locator("tbody tr").last().innerText(), /Imported/);
   });
+
+  it("lets an editor add an account, with field messages, and the new person can sign in", async () => {
+    await page.getByRole("link", { name: "Accounts" }).click();
+    await page.getByTestId("accounts").waitFor();
+    const form = page.getByTestId("new-account");
+    await form.getByLabel("Username").fill("cy");
+    await form.getByLabel("Name").fill("Cy Cook");
+    await form.getByLabel(/Password/).fill("short");
+    await form.getByRole("button", { name: "Add this account" }).click();
+    await page.locator("#acct-password-err").getByText(/at least 10 characters/).waitFor();
+    await form.getByLabel(/Password/).fill("cy-password-1");
+    await form.getByRole("button", { name: "Add this account" }).click();
+    await form.getByText("Account cy (planner) created.").waitFor();
+    await page.reload();
+    assert.match(await page.getByTestId("accounts").innerText(), /Cy Cook/);
+    await page.getByRole("button", { name: "Sign out" }).click();
+    await page.waitForURL(/\/signin/);
+    await signIn("cy", "cy-password-1");
+    await page.waitForURL((u) => !u.pathname.startsWith("/signin"));
+    assert.match(await page.getByTestId("signed-in").innerText(), /Cy Cook \(planner\)/);
+    await page.goto(base + "/accounts");
+    await page.getByText("Only an editor can see and add accounts.").waitFor();
+  });
 });
