@@ -1,9 +1,12 @@
 "use client";
 import { useActionState } from "react";
-import { createAccountAction } from "./actions";
+import { createAccountAction, type NewAccountState } from "./actions";
+
+const EMPTY: NewAccountState = { ok: false, message: "", fieldErrors: {}, values: { username: "", displayName: "", role: "planner" } };
 
 export function NewAccountForm() {
-  const [state, action, pending] = useActionState(createAccountAction, { ok: false, message: "", fieldErrors: {} });
+  const [state, action, pending] = useActionState(createAccountAction, EMPTY);
+  const v = state.values;
   const err = (f: string) =>
     state.fieldErrors[f] ? (
       <p className="field-error" id={`acct-${f}-err`}>
@@ -19,12 +22,12 @@ export function NewAccountForm() {
       ) : null}
       <div className="field">
         <label htmlFor="acct-username">Username</label>
-        <input id="acct-username" name="username" required autoComplete="off" aria-invalid={!!state.fieldErrors.username} />
+        <input id="acct-username" name="username" defaultValue={v.username} required autoComplete="off" aria-invalid={!!state.fieldErrors.username} />
         {err("username")}
       </div>
       <div className="field">
         <label htmlFor="acct-displayName">Name</label>
-        <input id="acct-displayName" name="displayName" required aria-invalid={!!state.fieldErrors.displayName} />
+        <input id="acct-displayName" name="displayName" defaultValue={v.displayName} required aria-invalid={!!state.fieldErrors.displayName} />
         {err("displayName")}
       </div>
       <div className="field">
@@ -34,7 +37,7 @@ export function NewAccountForm() {
       </div>
       <div className="field">
         <label htmlFor="acct-role">Role</label>
-        <select id="acct-role" name="role" defaultValue="planner">
+        <select id="acct-role" name="role" defaultValue={v.role || "planner"} key={v.role}>
           <option value="planner">planner: makes plans</option>
           <option value="editor">editor: also changes templates, rule sets and settings</option>
         </select>

@@ -7,18 +7,28 @@ import { createAccount, setAccountDisabled } from "@/lib/db/accounts";
 import type { FieldErrors } from "@/lib/schemas/errors";
 
 /** Editors add accounts (the first one comes from `npm run account`). */
-export async function createAccountAction(_prev: unknown, form: FormData): Promise<{ ok: boolean; message: string; fieldErrors: FieldErrors }> {
+export interface NewAccountState {
+  ok: boolean;
+  message: string;
+  fieldErrors: FieldErrors;
+  /** What was typed (never the password), so a refused form shows it again. */
+  values: { username: string; displayName: string; role: string };
+}
+
+export async function createAccountAction(_prev: unknown, form: FormData): Promise<NewAccountState> {
+  const text = (k: string) => String(form.get(k) ?? "").slice(0, 200);
+  const values = { username: text("username"), displayName: text("displayName"), role: text("role") };
   const who = await authorize("edit");
-  if (authMode() === "none" || !who.ok) return { ok: false, message: who.ok ? "This install has no accounts." : who.message, fieldErrors: {} };
+  if (authMode() === "none" || !who.ok) return { ok: false, message: who.ok ? "This install has no accounts." : who.message, fieldErrors: {}, values };
   const r = await createAccount(await getDb(), {
     username: form.get("username"),
     displayName: form.get("displayName"),
     password: form.get("password"),
     role: form.get("role"),
   });
-  if (!r.ok) return { ok: false, message: "Some fields need attention.", fieldErrors: r.fieldErrors };
+  if (!r.ok) return { ok: false, message: "Some fields need attention.", fieldErrors: r.fieldErrors, values };
   revalidatePath("/accounts");
-  return { ok: true, message: `Account ${r.account.username} (${r.account.role}) created.`, fieldErrors: {} };
+  return { ok: true, message: `Account ${r.account.username} (${r.account.role}) created.`, fieldErrors: {}, values: { username: "", displayName: "", role: "planner" } };
 }
 
 export async function setDisabledAction(form: FormData): Promise<void> {

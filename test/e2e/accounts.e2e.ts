@@ -122,8 +122,8 @@ describe("accounts in the browser", () => {
     await page.getByRole("link", { name: "Accounts" }).click();
     await page.getByTestId("accounts").waitFor();
     const form = page.getByTestId("new-account");
-    await form.getByLabel("Username").fill("cy");
-    await form.getByLabel("Name").fill("Cy Cook");
+    await form.getByLabel("Username", { exact: true }).fill("cy");
+    await form.getByLabel("Name", { exact: true }).fill("Cy Cook");
     await form.getByLabel(/Password/).fill("short");
     await form.getByRole("button", { name: "Add this account" }).click();
     await page.locator("#acct-password-err").getByText(/at least 10 characters/).waitFor();
