@@ -8,6 +8,7 @@ export async function signInAction(form: FormData): Promise<void> {
   const secure = (await headers()).get("x-forwarded-proto") === "https";
   const s = await signIn(form.get("username"), form.get("password"), secure);
   if (!s) redirect(`/signin?failed=1&next=${encodeURIComponent(next)}`);
+  if ("wait_s" in s) redirect(`/signin?wait=${s.wait_s}&next=${encodeURIComponent(next)}`);
   redirect(next);
 }
 

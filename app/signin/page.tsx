@@ -4,7 +4,7 @@ import { currentActor } from "@/app/_server/auth";
 import { safeNext } from "@/app/_server/session";
 import { signInAction } from "./actions";
 
-export default async function SignInPage({ searchParams }: { searchParams: Promise<{ next?: string; failed?: string }> }) {
+export default async function SignInPage({ searchParams }: { searchParams: Promise<{ next?: string; failed?: string; wait?: string }> }) {
   const sp = await searchParams;
   const next = safeNext(sp.next);
   if (authMode() === "none") redirect(next);
@@ -16,6 +16,11 @@ export default async function SignInPage({ searchParams }: { searchParams: Promi
         This Holdline library is shared by your group. Editors change templates and rule sets; planners make plans. Ask an editor for an account.
       </p>
       {actor ? <p className="banner ok">You are signed in as {actor.name} ({actor.role}).</p> : null}
+      {sp.wait && /^\d{1,4}$/.test(sp.wait) ? (
+        <div className="banner error" role="alert">
+          <p>Too many wrong passwords for this username. Try again in {sp.wait} seconds.</p>
+        </div>
+      ) : null}
       {sp.failed ? (
         <div className="banner error" role="alert">
           <p>Unknown username or wrong password.</p>

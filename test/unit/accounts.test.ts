@@ -138,3 +138,19 @@ describe("rule-set history", () => {
     expect((await listPlans(db)).find((p) => p.id === solo)?.createdByName).toBeNull();
   });
 });
+
+describe("sign-in throttle", () => {
+  it("locks a username after five wrong passwords, longer each time, and a success clears it", async () => {
+    const { SignInThrottle, FREE_FAILURES } = await import("../../lib/db/sign-in-throttle");
+    const t = new SignInThrottle();
+    for (let i = 0; i < FREE_FAILURES - 1; i++) t.failed("ana", 0);
+    expect(t.waitFor("ana", 0)).toBe(0);
+    t.failed("ana", 0);
+    expect(t.waitFor("ana", 0)).toBe(30_000);
+    expect(t.waitFor("bo", 0)).toBe(0);
+    t.failed("ana", 30_000);
+    expect(t.waitFor("ana", 30_000)).toBe(60_000);
+    t.succeeded("ana");
+    expect(t.waitFor("ana", 30_001)).toBe(0);
+  });
+});

@@ -112,3 +112,13 @@ describe("signing out", () => {
     expect((await api("GET", "/api/v1/products", { token: editor })).status).toBe(200);
   });
 });
+
+describe("password guessing", () => {
+  it("answers 429 with Retry-After after five wrong passwords for one username, even to the right one", async () => {
+    for (let i = 0; i < 5; i++) expect((await api("POST", "/api/v1/session", { body: { username: "ed", password: `guess-${i}-xxxxx` } })).status).toBe(401);
+    const locked = await api("POST", "/api/v1/session", { body: { username: "ed", password: "ed-password-1" } });
+    expect(locked.status).toBe(429);
+    expect((locked.body as { error: string }).error).toMatch(/try again in 30 s/);
+    expect((await api("POST", "/api/v1/session", { body: { username: "pat", password: "pat-password-1" } })).status).toBe(200);
+  });
+});

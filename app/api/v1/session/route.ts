@@ -18,6 +18,9 @@ export async function POST(req: Request) {
   if (!b || typeof b !== "object") return unprocessable("Send { \"username\": …, \"password\": … }", { username: ["Required"], password: ["Required"] });
   const s = await signIn(b.username, b.password, new URL(req.url).protocol === "https:");
   if (!s) return NextResponse.json({ error: "Unknown username or wrong password" }, { status: 401 });
+  if ("wait_s" in s) {
+    return NextResponse.json({ error: `Too many wrong passwords for this username: try again in ${s.wait_s} s` }, { status: 429, headers: { "retry-after": String(s.wait_s) } });
+  }
   return NextResponse.json({ token: s.token, expiresAt: s.expiresAt, account: { username: s.account.username, displayName: s.account.displayName, role: s.account.role } });
 }
 
