@@ -1,29 +1,39 @@
 /**
  * holdline: the command-line face of Holdline. Input is checked with the same zod
  * schemas as the pages and the API. Output is JSON on stdout; messages go to stderr.
+ *
+ * Start-up is kept short: the database layer (Prisma, better-sqlite3, the demo scenario) is
+ * imported only when a command works on the library or an input names a template, and the sizer
+ * threads only for `size`. cli/entry.ts runs `main` as a program; tests call it with their own io.
  */
 import { parseArgs } from "node:util";
 import { readFileSync, writeFileSync } from "node:fs";
+import type { z } from "zod";
+import type { Db } from "../lib/db/client";
 import { resolveDatabasePath } from "../lib/db/path";
-import { prepareDatabase } from "../lib/db/prepare";
-import { createPrismaClient, type Db } from "../lib/db/client";
-import { exportLibrary, importLibrary } from "../lib/db/library";
-import { jsonSchemaOf, NAMED_SCHEMAS } from "../lib/schemas/json-schema";
-import { resolveHoldRefs, resolveSizeRefs, resolveTemplateRefs, resolveThawRefs } from "../lib/db/resolve";
-import { sizeInputSchema } from "../lib/schemas/size";
-import { fieldErrorsOf } from "../lib/schemas/errors";
-import { runSizing } from "../lib/physics/sizing";
+import type { SizeParsed } from "../lib/schemas/size";
+import { fieldErrorsOf, type FieldErrors } from "../lib/schemas/errors";
 import { PhysicsInputError } from "../lib/physics/validation";
-import { nodePool } from "./size-pool";
-import { thawInputSchema } from "../lib/schemas/thaw";
-import { runThawParsed } from "../lib/physics/thaw";
-import { holdInputSchema } from "../lib/schemas/hold";
-import { runHoldParsed } from "../lib/physics/hold";
-import { warmupInputSchema } from "../lib/schemas/warmup";
 import { runValidated } from "../lib/schemas/run";
-import { runWarmup } from "../lib/physics/warmup";
+import { CliError } from "./errors";
 
-const HELP = `holdline — hold, thaw and pack-out planning from transient heat transfer
+const schemaNames = async () => Object.keys((await import("../lib/schemas/json-schema")).NAMED_SCHEMAS);
+/** The schema names for the help text, wrapped under its description column. */
+const schemaNameLines = (names: string[]): string => {
+  const lines: string[] = [];
+  let line = "";
+  for (const n of names) {
+    const next = line ? `${line}, ${n}` : n;
+    if (next.length > 44 && line) {
+      lines.push(line + ",");
+      line = n;
+    } else line = next;
+  }
+  lines.push(line);
+  return lines.map((l, i) => " ".repeat(38) + (i === 0 ? "(" : " ") + l + (i === lines.length - 1 ? ")" : "")).join("\n");
+};
+
+const help = async () => `holdline — hold, thaw and pack-out planning from transient heat transfer
 
 Usage:
   holdline export [--out FILE]        write every template (and the units setting) as JSON
@@ -38,36 +48,135 @@ Usage:
   holdline size FILE|-                pack-out sizer: every candidate box and pack count through
                                       the hold model, on both cores; prints candidates, the
                                       Pareto front and near misses
+  holdline plans [--json]             list the saved plans (id, kind, name, when saved)
+  holdline plans show ID [--json]     one saved plan; with --json its input, as a file that
+                                      holdline KIND FILE accepts
   holdline schema NAME                print the JSON Schema of an input
-                                      (${Object.keys(NAMED_SCHEMAS).join(", ")})
+${schemaNameLines(await schemaNames())}
   holdline --help                     this text
 
 Options:
   --db PATH      SQLite file to use (default: DATABASE_URL, else data/holdline.db)
   --no-seed      do not seed the demo scenario into a brand-new database
+  --out FILE     write the JSON answer to FILE instead of standard output
 
 Results are model estimates; check real temperatures with a calibrated probe
 thermometer or data logger, and follow your local food code and regulator.`;
 
-const NOT_READ = Symbol("not read");
-
-/** Reads JSON from a file or standard input ("-"); reports and returns NOT_READ on failure. Changes nothing. */
-function readJsonInput(file: string, command: string, io: CliIo): unknown {
-  try {
-    return JSON.parse(readFileSync(file === "-" ? 0 : file, "utf8"));
-  } catch (e) {
-    io.err(`holdline ${command}: cannot read ${file} as JSON: ${(e as Error).message}\nNothing was changed.\n`);
-    return NOT_READ;
-  }
-}
-
 export interface CliIo {
   out: (s: string) => void;
   err: (s: string) => void;
+  /** Standard input, for "-" (default: file descriptor 0). */
+  stdin?: () => string;
+  /** Whether err is a terminal, where the sizer's progress line is redrawn in place. */
+  errIsTTY?: boolean;
 }
-const STDIO: CliIo = { out: (s) => void process.stdout.write(s), err: (s) => void process.stderr.write(s) };
+const STDIO: CliIo = { out: (s) => void process.stdout.write(s), err: (s) => void process.stderr.write(s), errIsTTY: process.stderr.isTTY };
+
+/** Reads JSON from a file or standard input ("-"). A leading byte-order mark is ignored. */
+function readJsonInput(file: string, command: string, io: CliIo): unknown {
+  let text: string;
+  try {
+    text = file === "-" ? (io.stdin ? io.stdin() : readFileSync(0, "utf8")) : readFileSync(file, "utf8");
+  } catch (e) {
+    const code = (e as NodeJS.ErrnoException).code;
+    const why = code === "ENOENT" ? "no such file" : code === "EISDIR" ? "it is a folder" : code === "EACCES" ? "permission denied" : (e as Error).message;
+    throw new CliError(`holdline ${command}: cannot read ${file}: ${why}. Nothing was changed.`);
+  }
+  try {
+    return JSON.parse(text.replace(/^\uFEFF/, ""));
+  } catch (e) {
+    throw new CliError(`holdline ${command}: cannot read ${file} as JSON: ${(e as Error).message}. Nothing was changed.`);
+  }
+}
+
+/** JSON text of an answer. Non-finite numbers (never expected) are written as null and reported. */
+function toJson(value: unknown, io: CliIo, command: string): string {
+  let bad = 0;
+  const text = JSON.stringify(value, (_k, v) => (typeof v === "number" && !Number.isFinite(v) ? (bad++, null) : v), 2) + "\n";
+  if (bad) io.err(`holdline ${command}: warning: ${bad} non-finite number(s) in the answer were written as null; this is a defect, please report it\n`);
+  return text;
+}
+
+function problemLines(fieldErrors: FieldErrors): string {
+  return Object.entries(fieldErrors)
+    .map(([k, v]) => `  ${k || "(input)"}: ${v.join("; ")}`)
+    .join("\n");
+}
+
+/**
+ * A Db that opens the real database on first use. The template resolvers (lib/db/resolve.ts) decide
+ * what needs a look-up; an input that spells out every template never touches the database.
+ */
+function lazyDb(open: () => Promise<Db>): { db: Db; close: () => Promise<void> } {
+  type Callable = (...a: unknown[]) => unknown;
+  let real: Promise<Db> | null = null;
+  const get = () => (real ??= open()) as Promise<unknown> as Promise<Record<PropertyKey, Callable & Record<PropertyKey, Callable>>>;
+  const db = new Proxy(
+    {},
+    {
+      get: (_t, model) =>
+        typeof model === "string" && model.startsWith("$")
+          ? (...args: unknown[]) => get().then((d) => d[model](...args))
+          : new Proxy({}, { get: (_u, method) => (...args: unknown[]) => get().then((d) => d[model][method](...args)) }),
+    },
+  ) as Db;
+  return {
+    db,
+    close: async () => {
+      if (real) await (await real.catch(() => null))?.$disconnect();
+    },
+  };
+}
+
+type Resolved = { ok: true; value: unknown } | { ok: false; fieldErrors: FieldErrors };
+type Resolver = (db: Db, body: unknown) => Promise<Resolved>;
+interface Calculation {
+  resolve: Resolver;
+  schema: z.ZodType;
+  /** Validates and computes; null for the sizer, which runs on threads (see size()). */
+  run: ((input: unknown) => ReturnType<typeof runValidated>) | null;
+}
+const calculation = <S extends z.ZodType>(resolve: Resolver, schema: S, compute: ((parsed: z.output<S>) => unknown) | null): Calculation => ({
+  resolve,
+  schema,
+  run: compute && ((input) => runValidated(schema, input, compute)),
+});
+/** Each calculation's name resolver, schema and model, imported only when its command runs. */
+const CALCULATIONS: Record<string, () => Promise<Calculation>> = {
+  warmup: async () => {
+    const [{ resolveTemplateRefs }, { warmupInputSchema }, { runWarmup }] = await Promise.all([import("../lib/db/resolve"), import("../lib/schemas/warmup"), import("../lib/physics/warmup")]);
+    return calculation((db, body) => resolveTemplateRefs(db, body, { product: "products", ruleSet: "rulesets" }), warmupInputSchema, runWarmup);
+  },
+  hold: async () => {
+    const [{ resolveHoldRefs }, { holdInputSchema }, { runHoldParsed }] = await Promise.all([import("../lib/db/resolve"), import("../lib/schemas/hold"), import("../lib/physics/hold")]);
+    return calculation(resolveHoldRefs, holdInputSchema, (input) => runHoldParsed(input));
+  },
+  thaw: async () => {
+    const [{ resolveThawRefs }, { thawInputSchema }, { runThawParsed }] = await Promise.all([import("../lib/db/resolve"), import("../lib/schemas/thaw"), import("../lib/physics/thaw")]);
+    return calculation(resolveThawRefs, thawInputSchema, (input) => runThawParsed(input));
+  },
+  size: async () => {
+    const [{ resolveSizeRefs }, { sizeInputSchema }] = await Promise.all([import("../lib/db/resolve"), import("../lib/schemas/size")]);
+    return calculation(resolveSizeRefs, sizeInputSchema, null);
+  },
+};
 
 export async function main(argv: string[], io: CliIo = STDIO): Promise<number> {
+  try {
+    return await run(argv, io);
+  } catch (e) {
+    if (e instanceof CliError) {
+      io.err(e.message + "\n");
+      return e.code;
+    }
+    const message = e instanceof Error ? e.message : String(e);
+    io.err(`holdline: ${message.split("\n")[0]}${process.env.HOLDLINE_DEBUG ? "\n" + ((e as Error).stack ?? "") : " (set HOLDLINE_DEBUG=1 for details)"}\n`);
+    return 1;
+  }
+}
+
+async function run(argv: string[], io: CliIo): Promise<number> {
   let parsed;
   try {
     parsed = parseArgs({
@@ -78,57 +187,66 @@ export async function main(argv: string[], io: CliIo = STDIO): Promise<number> {
         out: { type: "string", short: "o" },
         db: { type: "string" },
         "no-seed": { type: "boolean" },
+        json: { type: "boolean" },
       },
     });
   } catch (e) {
-    io.err(`holdline: ${(e as Error).message}\n\n${HELP}\n`);
+    io.err(`holdline: ${(e as Error).message}\n\n${await help()}\n`);
     return 2;
   }
   const { values, positionals } = parsed;
   const [command, ...rest] = positionals;
-  if (values.help || !command || command === "help") {
-    io.out(HELP + "\n");
-    return command || values.help ? 0 : 2;
+  if (values.help || command === "help") {
+    io.out((await help()) + "\n");
+    return 0;
   }
+  if (!command) {
+    io.err((await help()) + "\n");
+    return 2;
+  }
+  const emit = (value: unknown) => {
+    const text = toJson(value, io, command);
+    if (!values.out) return io.out(text);
+    try {
+      writeFileSync(values.out, text);
+    } catch (e) {
+      throw new CliError(`holdline ${command}: cannot write ${values.out}: ${(e as Error).message}`);
+    }
+  };
 
   if (command === "schema") {
     const name = rest[0];
-    const schema = name ? jsonSchemaOf(name) : null;
-    if (!schema) {
-      io.err(`holdline schema: name one of ${Object.keys(NAMED_SCHEMAS).join(", ")}\n`);
-      return 2;
-    }
-    io.out(JSON.stringify(schema, null, 2) + "\n");
+    const { jsonSchemaOf, NAMED_SCHEMAS } = await import("../lib/schemas/json-schema");
+    const schema = name && Object.hasOwn(NAMED_SCHEMAS, name) ? jsonSchemaOf(name) : null;
+    if (!schema) throw new CliError(`holdline schema: ${name ? `no input named "${name}"; ` : ""}name one of ${Object.keys(NAMED_SCHEMAS).join(", ")}`, 2);
+    emit(schema);
     return 0;
   }
 
+  if (values.db !== undefined && !values.db.trim()) throw new CliError(`holdline ${command}: --db needs the path of a database file`, 2);
   const dbPath = values.db ? resolveDatabasePath({ ...process.env, DATABASE_URL: values.db }) : resolveDatabasePath();
+  const library = () => import("./library");
+  /** Runs fn on the library; the database is opened only if fn queries it. */
   const withDb = async <T>(fn: (db: Db) => Promise<T>): Promise<T> => {
-    await prepareDatabase(dbPath, { seed: !values["no-seed"], quiet: true });
-    const db = createPrismaClient(dbPath);
+    const lazy = lazyDb(async () => (await library()).openLibrary(dbPath, { seed: !values["no-seed"] }));
     try {
-      return await fn(db);
+      return await fn(lazy.db);
     } finally {
-      await db.$disconnect();
+      await lazy.close();
     }
   };
 
   if (command === "export") {
-    const lib = await withDb(exportLibrary);
-    const text = JSON.stringify(lib, null, 2) + "\n";
-    if (values.out) writeFileSync(values.out, text);
-    else io.out(text);
+    const { exportLibrary } = await library();
+    emit(await withDb(exportLibrary));
     return 0;
   }
 
   if (command === "import") {
     const file = rest[0];
-    if (!file) {
-      io.err("holdline import: give a file name, or - for standard input\n");
-      return 2;
-    }
+    if (!file) throw new CliError("holdline import: give a file name, or - for standard input", 2);
     const data = readJsonInput(file, "import", io);
-    if (data === NOT_READ) return 1;
+    const { importLibrary } = await library();
     const r = await withDb((db) => importLibrary(db, data));
     if (!r.ok) {
       io.err(`holdline import: the file has ${r.errors.length} problem(s); nothing was changed.\n${r.errors.map((e) => "  " + e).join("\n")}\n`);
@@ -138,79 +256,75 @@ export async function main(argv: string[], io: CliIo = STDIO): Promise<number> {
     return 0;
   }
 
-  if (command === "warmup" || command === "hold" || command === "thaw") {
-    const file = rest[0];
-    if (!file) {
-      io.err(`holdline ${command}: give an input file, or - for standard input (see holdline schema ${command})\n`);
-      return 2;
+  if (command === "plans") {
+    const { listPlans, getPlan } = await library();
+    if (rest[0] === undefined) {
+      const plans = await withDb(listPlans);
+      if (values.json) emit(plans.map((p) => ({ id: p.id, kind: p.kind, name: p.name, createdAt: p.createdAt.toISOString() })));
+      else if (!plans.length) io.err("holdline plans: no saved plans yet (save one from a planner page)\n");
+      else io.out(plans.map((p) => `${String(p.id).padStart(4)}  ${p.kind.padEnd(6)}  ${p.createdAt.toISOString().slice(0, 16).replace("T", " ")}  ${p.name}`).join("\n") + "\n");
+      return 0;
     }
-    const data = readJsonInput(file, command, io);
-    if (data === NOT_READ) return 1;
-    const resolved = await withDb((db) =>
-      command === "hold" ? resolveHoldRefs(db, data) : command === "thaw" ? resolveThawRefs(db, data) : resolveTemplateRefs(db, data, { product: "products", ruleSet: "rulesets" }),
-    );
-    const r = !resolved.ok
-      ? resolved
-      : command === "hold"
-        ? runValidated(holdInputSchema, resolved.value, (input) => runHoldParsed(input))
-        : command === "thaw"
-          ? runValidated(thawInputSchema, resolved.value, (input) => runThawParsed(input))
-          : runValidated(warmupInputSchema, resolved.value, (input) => runWarmup(input));
-    if (!r.ok) {
-      io.err(`holdline ${command}: the input has problems; nothing was computed:\n${Object.entries(r.fieldErrors).map(([k, v]) => `  ${k || "(input)"}: ${v.join("; ")}`).join("\n")}\n`);
-      return 1;
+    if (rest[0] !== "show") throw new CliError(`holdline plans: unknown sub-command "${rest[0]}"; use holdline plans, or holdline plans show ID`, 2);
+    const idText = rest[1] ?? "";
+    if (!/^[1-9][0-9]{0,15}$/.test(idText) || !Number.isSafeInteger(Number(idText))) throw new CliError(`holdline plans show: give a plan id (a whole number from holdline plans)${idText ? `, not "${idText}"` : ""}`, 2);
+    const plan = await withDb((db) => getPlan(db, Number(idText)));
+    if (!plan) throw new CliError(`holdline plans show: no saved plan with id ${idText}`);
+    if (values.json) emit(plan.input);
+    else {
+      io.out(`Plan ${plan.id}: ${plan.name}\n  kind: ${plan.kind}\n  saved: ${plan.createdAt.toISOString()}\n  rerun: holdline plans show ${plan.id} --json > plan.json && holdline ${plan.kind} plan.json\n`);
+      emit(plan.result);
     }
-    io.out(JSON.stringify(r.result, null, 2) + "\n");
     return 0;
   }
 
-  if (command === "size") {
+  if (Object.hasOwn(CALCULATIONS, command)) {
     const file = rest[0];
-    if (!file) {
-      io.err("holdline size: give an input file, or - for standard input (see holdline schema size)\n");
-      return 2;
+    if (!file) throw new CliError(`holdline ${command}: give an input file, or - for standard input (see holdline schema ${command})`, 2);
+    const data = readJsonInput(file, command, io);
+    const calc = await CALCULATIONS[command]();
+    let resolved: Resolved;
+    try {
+      resolved = await withDb((db) => calc.resolve(db, data));
+    } catch (e) {
+      // A shape the name look-up cannot walk (say, a box whose layers are not a list): the schema names the field.
+      const shape = calc.schema.safeParse(data);
+      if (shape.success || e instanceof CliError) throw e;
+      resolved = { ok: false, fieldErrors: fieldErrorsOf(shape.error) };
     }
-    const data = readJsonInput(file, "size", io);
-    if (data === NOT_READ) return 1;
-    const resolved = await withDb((db) => resolveSizeRefs(db, data));
-    const parsed = resolved.ok ? sizeInputSchema.safeParse(resolved.value) : null;
-    const problems = !resolved.ok ? resolved.fieldErrors : parsed && !parsed.success ? fieldErrorsOf(parsed.error) : null;
-    if (problems || !parsed?.success) {
-      io.err(`holdline size: the input has problems; nothing was computed:\n${Object.entries(problems ?? {}).map(([k, v]) => `  ${k || "(input)"}: ${v.join("; ")}`).join("\n")}\n`);
+    if (!calc.run) return size(resolved, calc.schema, io, emit);
+    const r = resolved.ok ? calc.run(resolved.value) : resolved;
+    if (!r.ok) {
+      io.err(`holdline ${command}: the input has problems; nothing was computed:\n${problemLines(r.fieldErrors)}\n`);
       return 1;
     }
-    const pool = nodePool(parsed.data);
-    try {
-      const r = await runSizing(parsed.data, pool.evaluate, { onProgress: (d, t) => io.err(`\rholdline size: ${d} of ${t} candidates`) });
-      io.err("\n");
-      if (r.message) io.err(`holdline size: ${r.message}\n`);
-      io.out(JSON.stringify(r, null, 2) + "\n");
-      return 0;
-    } catch (e) {
-      if (e instanceof PhysicsInputError) {
-        io.err(`holdline size: ${e.message}\n`);
-        return 1;
-      }
-      throw e;
-    } finally {
-      await pool.close();
-    }
+    emit(r.result);
+    return 0;
   }
 
-  io.err(`holdline: unknown command "${command}"\n\n${HELP}\n`);
+  io.err(`holdline: unknown command "${command}"\n\n${await help()}\n`);
   return 2;
 }
 
-const isEntry = process.argv[1] && /holdline\.(ts|mjs)$/.test(process.argv[1]);
-if (isEntry) {
-  // exitCode, not exit(): a large answer piped to another program must be written out in full first.
-  main(process.argv.slice(2)).then(
-    (code) => {
-      process.exitCode = code;
-    },
-    (e) => {
-      process.stderr.write(`holdline: ${(e as Error).stack ?? e}\n`);
-      process.exitCode = 1;
-    },
-  );
+async function size(resolved: Resolved, schema: z.ZodType, io: CliIo, emit: (v: unknown) => void): Promise<number> {
+  const parsed = resolved.ok ? (schema.safeParse(resolved.value) as z.ZodSafeParseResult<SizeParsed>) : null;
+  const problems = !resolved.ok ? resolved.fieldErrors : parsed && !parsed.success ? fieldErrorsOf(parsed.error) : null;
+  if (problems || !parsed?.success) {
+    io.err(`holdline size: the input has problems; nothing was computed:\n${problemLines(problems ?? {})}\n`);
+    return 1;
+  }
+  const [{ nodePool }, { runSizing }] = await Promise.all([import("./size-pool"), import("../lib/physics/sizing")]);
+  const pool = nodePool(parsed.data);
+  try {
+    const r = await runSizing(parsed.data, pool.evaluate, { onProgress: io.errIsTTY ? (d, t) => io.err(`\rholdline size: ${d} of ${t} candidates`) : undefined });
+    io.err(`${io.errIsTTY ? "\r" : ""}holdline size: ${r.evaluated} candidates run, ${r.pruned} decided by monotonicity\n`);
+    if (r.message) io.err(`holdline size: ${r.message}\n`);
+    emit(r);
+    return 0;
+  } catch (e) {
+    if (e instanceof PhysicsInputError) throw new CliError(`holdline size: ${e.message}`);
+    throw e;
+  } finally {
+    await pool.close();
+  }
 }

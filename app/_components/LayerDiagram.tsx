@@ -1,12 +1,16 @@
+import { placementSplit } from "@/lib/physics/placement";
+import type { Placement } from "@/lib/schemas/hold";
+
 /**
- * A side view of the box as packed: walls drawn to scale, packs placed under, over, beside or around
- * the load. Plain black and white so it prints well.
+ * A side view of the box as modelled: walls drawn to scale, each pack line's packs underneath, on top
+ * or at the sides of the load exactly as the hold model places them (placementSplit: "around" shares
+ * them out), so the sheet never shows a layer the model did not have. Plain black and white so it prints well.
  */
 export function LayerDiagram(props: {
   inner: { L: number; H: number };
   wall_m: number;
   lid_m: number;
-  packs: { name: string; count: number; thickness_m: number; placement: "around" | "top" | "bottom" | "side" }[];
+  packs: { name: string; count: number; thickness_m: number; placement: Placement; touchesLoad?: boolean }[];
   productLabel: string;
 }) {
   const W = 420;
@@ -21,19 +25,22 @@ export function LayerDiagram(props: {
   const sides: { label: string }[] = [];
   let top = y0;
   let bottom = y0 + ih;
-  const packH = (p: (typeof props.packs)[number]) => Math.max(8, p.thickness_m * scale * Math.max(1, Math.ceil(p.count / 4)));
+  const packH = (thickness_m: number, n: number) => Math.max(8, thickness_m * scale * Math.max(1, Math.ceil(n / 4)));
+  const apart = (p: (typeof props.packs)[number]) => (p.touchesLoad === false ? ", kept apart from the load" : "");
   for (const p of props.packs) {
-    const h = packH(p);
-    if (p.placement === "top" || p.placement === "around") {
-      layers.push({ y: top, h, label: `${p.count} × ${p.name}${p.placement === "around" ? " (share on top)" : ""}` });
+    const split = placementSplit(p.placement, p.count);
+    if (split.top > 0) {
+      const h = packH(p.thickness_m, split.top);
+      layers.push({ y: top, h, label: `${split.top} × ${p.name} on top${apart(p)}` });
       top += h + 2;
     }
-    if (p.placement === "bottom" || p.placement === "around") {
+    if (split.bottom > 0) {
+      const h = packH(p.thickness_m, split.bottom);
       bottom -= h;
-      layers.push({ y: bottom, h, label: `${p.placement === "around" ? "rest of " : ""}${p.name} underneath` });
+      layers.push({ y: bottom, h, label: `${split.bottom} × ${p.name} underneath${apart(p)}` });
       bottom -= 2;
     }
-    if (p.placement === "side") sides.push({ label: `${p.count} × ${p.name}` });
+    if (split.side > 0) sides.push({ label: `${split.side} × ${p.name}${apart(p)}` });
   }
   const sideW = sides.length ? Math.min(40, iw * 0.15) : 0;
   return (
@@ -62,7 +69,7 @@ export function LayerDiagram(props: {
       </text>
       {sides.length ? (
         <text x={x0 + 2} y={ih + 2 * lid + 34} fontSize={10}>
-          beside the load: {sides.map((s) => s.label).join("; ")}
+          at the sides: {sides.map((s) => s.label).join("; ")}
         </text>
       ) : null}
     </svg>

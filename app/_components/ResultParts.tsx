@@ -1,5 +1,6 @@
 "use client";
 import type { Material } from "@/lib/schemas/templates";
+import type { ComplianceLine } from "@/lib/physics/compliance";
 
 /** The banner shown instead of a result while the inputs have problems. */
 export function NoResult({ fieldErrors, testId }: { fieldErrors: Record<string, string[]>; testId?: string }) {
@@ -24,6 +25,24 @@ export function FactList({ title, items, warn = false, testId }: { title: string
       <ul className={warn ? "facts warnings" : "facts"} data-testid={testId}>
         {items.map((a) => (
           <li key={a}>{a}</li>
+        ))}
+      </ul>
+    </>
+  );
+}
+
+/** Rule-set lines under a result: green when the estimate meets the rule, amber to check locally, red otherwise. */
+export function ComplianceList({ lines, title, testId = "compliance" }: { lines: ComplianceLine[]; title?: string; testId?: string }) {
+  if (!lines.length) return null;
+  const cls = (s: ComplianceLine["status"]) => (s === "meets" ? "ok" : s === "check locally" ? "check" : "bad");
+  return (
+    <>
+      {title ? <h3>{title}</h3> : null}
+      <ul className="compliance" data-testid={testId}>
+        {lines.map((c) => (
+          <li key={c.rule} className={cls(c.status)}>
+            <strong>{c.status}</strong> — {c.rule}: {c.detail}
+          </li>
         ))}
       </ul>
     </>

@@ -1,6 +1,6 @@
 import type { Quantity } from "@/lib/units";
 import type { TemplateKind } from "@/lib/schemas/templates";
-import { MATERIAL_CATEGORIES, PACK_KINDS, PACK_KIND_LABELS, PRODUCT_SHAPES } from "@/lib/schemas/templates";
+import { COOL_STAGE2_COUNTED, COOL_STAGE2_COUNTED_LABELS, MATERIAL_CATEGORIES, PACK_KINDS, PACK_KIND_LABELS, PRODUCT_SHAPES } from "@/lib/schemas/templates";
 
 /** How one field of a template form is shown. Validation lives in the zod schema, not here. */
 export type FieldSpec =
@@ -31,6 +31,14 @@ export const TEMPLATE_FIELDS: Record<TemplateKind, FieldSpec[]> = {
     { kind: "number", name: "dimA_m", label: "Dimension 1", quantity: "length" },
     { kind: "number", name: "dimB_m", label: "Dimension 2", quantity: "length", nullable: true },
     { kind: "number", name: "dimC_m", label: "Dimension 3", quantity: "length", nullable: true },
+    {
+      kind: "number",
+      name: "wallThickness_m",
+      label: "Wall thickness (hollow items)",
+      quantity: "length",
+      nullable: true,
+      help: "A sphere or cylinder around a closed cavity, such as a whole bird: the average thickness of meat and bone around the cavity. Leave empty for a solid item",
+    },
     { kind: "number", name: "mass_kg", label: "Mass", quantity: "mass" },
     {
       kind: "group",
@@ -48,6 +56,7 @@ export const TEMPLATE_FIELDS: Record<TemplateKind, FieldSpec[]> = {
     { kind: "text", name: "compositionSource", label: "Composition source", help: "Where the fractions come from, e.g. a food composition table" },
     { kind: "number", name: "initialFreezing_C", label: "Initial freezing point", quantity: "temperature", nullable: true, help: "Leave empty to estimate it from the composition" },
     { kind: "checkbox", name: "freezeSensitive", label: "Freeze-sensitive (must not freeze; adds a lower limit)" },
+    { kind: "checkbox", name: "readyToEat", label: "Ready to eat (eaten without further cooking)", help: "While thawing, food codes allow raw food some time above the chill limit and ready-to-eat food none or less" },
     {
       kind: "group",
       name: "",
@@ -101,10 +110,47 @@ export const TEMPLATE_FIELDS: Record<TemplateKind, FieldSpec[]> = {
     { kind: "number", name: "frozenMax_C", label: "Frozen food, upper limit", quantity: "temperature" },
     { kind: "number", name: "hotHoldMin_C", label: "Hot holding, lower limit", quantity: "temperature" },
     { kind: "number", name: "thawWaterMax_C", label: "Thawing water, highest temperature", quantity: "temperature", nullable: true },
-    { kind: "number", name: "outsideControlMax_s", label: "Longest time outside temperature control", quantity: "duration", nullable: true },
-    { kind: "number", name: "chillExcursionMax_s", label: "Tolerance period above the chill limit", quantity: "duration", nullable: true },
-    { kind: "number", name: "hotExcursionMax_s", label: "Tolerance period below the hot limit", quantity: "duration", nullable: true },
-    { kind: "number", name: "thawSurfaceAboveMax_s", label: "Thawing: longest time above the chill limit", quantity: "duration", nullable: true },
+    {
+      kind: "group",
+      name: "",
+      label: "Thawing: longest time the surface may be above the chill limit",
+      fields: [
+        { kind: "number", name: "thawSurfaceAboveMax_s", label: "Raw food (cooked before eating)", quantity: "duration", nullable: true },
+        { kind: "number", name: "thawReadyToEatAboveMax_s", label: "Ready-to-eat food (0 = never)", quantity: "duration", nullable: true },
+      ],
+    },
+    {
+      kind: "group",
+      name: "",
+      label: "Time as a control (food out of temperature control, then cooked, served or discarded)",
+      fields: [
+        { kind: "number", name: "outsideControlMax_s", label: "Hot or cold food, longest time", quantity: "duration", nullable: true },
+        { kind: "number", name: "outsideControlColdMax_s", label: "Cold food that stays below a ceiling, longest time", quantity: "duration", nullable: true },
+        { kind: "number", name: "outsideControlColdCeiling_C", label: "Cold food: ceiling it may not pass", quantity: "temperature", nullable: true },
+      ],
+    },
+    {
+      kind: "group",
+      name: "",
+      label: "Tolerance periods (one period, once; e.g. for service or on display)",
+      fields: [
+        { kind: "number", name: "chillExcursionMax_s", label: "Above the chill limit", quantity: "duration", nullable: true },
+        { kind: "number", name: "hotExcursionMax_s", label: "Below the hot-holding limit", quantity: "duration", nullable: true },
+      ],
+    },
+    {
+      kind: "group",
+      name: "",
+      label: "Two-stage cooling of cooked food (all five values, or none)",
+      fields: [
+        { kind: "number", name: "coolFrom_C", label: "Cooling starts at", quantity: "temperature", nullable: true },
+        { kind: "number", name: "coolStage1To_C", label: "Stage 1 ends at", quantity: "temperature", nullable: true },
+        { kind: "number", name: "coolStage1Max_s", label: "Stage 1 within", quantity: "duration", nullable: true },
+        { kind: "number", name: "coolStage2To_C", label: "Stage 2 ends at", quantity: "temperature", nullable: true },
+        { kind: "number", name: "coolStage2Max_s", label: "Stage 2 within", quantity: "duration", nullable: true },
+        { kind: "select", name: "coolStage2Counted", label: "Stage 2 time counted", options: COOL_STAGE2_COUNTED.map((c) => ({ value: c, label: COOL_STAGE2_COUNTED_LABELS[c] })) },
+      ],
+    },
     { kind: "text", name: "source", label: "Where these limits come from", multiline: true },
     { kind: "text", name: "reminder", label: "Reminder to confirm locally", multiline: true },
     { kind: "checkbox", name: "isDefault", label: "Use this rule set unless I choose another" },

@@ -12,7 +12,7 @@ import { UnitInput } from "@/app/_components/UnitInput";
 import { useUnits } from "@/app/_components/units-context";
 import { useMounted } from "@/app/_components/useMounted";
 import { CautionBlock } from "@/app/_components/CautionBlock";
-import { NoResult, FactList, NamedSelect, FieldMessage, SavedNotice } from "@/app/_components/ResultParts";
+import { NoResult, FactList, NamedSelect, FieldMessage, SavedNotice, ComplianceList } from "@/app/_components/ResultParts";
 import { TemperatureChart } from "@/app/_components/TemperatureChart";
 import { downloadCsv } from "@/app/_components/csv";
 import { savePlanAction } from "@/app/plans/actions";
@@ -168,9 +168,10 @@ export function HoldPlanner(props: HoldPlannerProps) {
                   <select
                     id={`kx-${i}`}
                     value={values.packs?.[i]?.contactWith ?? ""}
-                    onChange={(ev) => setValue(`packs.${i}.contactWith`, ev.target.value === "" ? null : Number(ev.target.value), { shouldValidate: true })}
+                    onChange={(ev) => setValue(`packs.${i}.contactWith`, ev.target.value === "" ? null : ev.target.value === "none" ? "none" : Number(ev.target.value), { shouldValidate: true })}
                   >
-                    <option value="">nothing</option>
+                    <option value="">the whole load</option>
+                    <option value="none">nothing (kept apart from the load)</option>
                     {(values.products ?? []).map((p, j) => (
                       <option key={j} value={j}>
                         product {j + 1}
@@ -218,7 +219,7 @@ export function HoldPlanner(props: HoldPlannerProps) {
                   kind: "hold",
                   name: planName.trim() || `${values.shipper?.name} on ${values.route?.name}`,
                   input: JSON.parse(key),
-                  result: { holdTime_s: r.holdTime_s, margin_s: r.margin_s, failsFirst: r.failsFirst, band: r.band, heatGain_J: r.heatGain_J, energyBalanceError: r.energyBalanceError, warnings: r.warnings },
+                  result: { holdTime_s: r.holdTime_s, margin_s: r.margin_s, failsFirst: r.failsFirst, band: r.band, heatGain_J: r.heatGain_J, energyBalanceError: r.energyBalanceError, compliance: r.compliance, warnings: r.warnings },
                 });
                 if (res.ok) setSaved(res.id);
               }}
@@ -248,7 +249,7 @@ export function HoldPlanner(props: HoldPlannerProps) {
   function HoldResults({ r, input, tUnit }: { r: HoldResult; input: HoldParsed; tUnit: string }) {
     const T = (x: number) => roundForDisplay(toDisplay("temperature", x, units), 5);
     const data = r.series.map((p) => {
-      const row: Record<string, number> = { t_h: p.t_s / 3600, air: T(p.air_C) };
+      const row: Record<string, number> = { t_h: p.t_s / 3600, air: T(p.air_C), airLo: T(p.airLower_C), airUp: T(p.airUpper_C) };
       p.products.forEach((q, j) => {
         row[`c${j}`] = T(q.center_C);
         row[`s${j}`] = T(q.surface_C);
@@ -260,7 +261,8 @@ export function HoldPlanner(props: HoldPlannerProps) {
       return row;
     });
     const lines = [
-      { key: "air", label: "inside air", color: "#6b7378", dashed: true },
+      { key: "airLo", label: "inside air, lower half", color: "#6b7378", dashed: true },
+      { key: "airUp", label: "inside air, upper half", color: "#a0a6aa", dashed: true },
       ...input.products.flatMap((p, j) => [
         { key: `c${j}`, label: `${p.product.name} — centre`, color: PALETTE[j % PALETTE.length] },
         { key: `s${j}`, label: `${p.product.name} — surface`, color: PALETTE[j % PALETTE.length], dashed: true },
@@ -279,7 +281,7 @@ export function HoldPlanner(props: HoldPlannerProps) {
       ...r.openings_s.map((t) => ({ x: t / 3600, label: "", kind: "stop" as const })),
     ];
     const gains = r.heatGain_J;
-    const total = gains.walls + gains.lid + gains.edgesAndCorners + gains.sun + gains.lidOpenings;
+    const total = gains.sides + gains.base + gains.lid + gains.edgesAndCorners + gains.lidOpenings;
     const ff = r.failsFirst;
     return (
       <>
@@ -350,10 +352,10 @@ export function HoldPlanner(props: HoldPlannerProps) {
           <tbody>
             {(
               [
-                ["Walls and base (exchange with outside air)", gains.walls],
-                ["Lid (exchange with outside air)", gains.lid],
+                ["Side walls", gains.sides],
+                ["Base", gains.base],
+                ["Lid", gains.lid],
                 ["Edges and corners", gains.edgesAndCorners],
-                ["Sun (absorbed, less sky loss)", gains.sun],
                 ["Lid openings", gains.lidOpenings],
                 ["Total", total],
               ] as const
@@ -366,7 +368,13 @@ export function HoldPlanner(props: HoldPlannerProps) {
           </tbody>
         </table>
         <p className="muted">
-          Energy balance: stored heat equals heat in to {r.energyBalanceError.toExponential(1)} (relative). Box UA ≈ {r.ua.total_W_K.toFixed(2)} W/K (walls {r.ua.walls_W_K.toFixed(2)}, lid {r.ua.lid_W_K.toFixed(2)}, edges and corners {r.ua.edges_W_K.toFixed(2)}) with an outer coefficient of {r.outerH_W_m2K[0].toFixed(1)} and an inner one of {r.innerH_W_m2K.toFixed(1)} W/(m²·K).
+          Each face&rsquo;s figure is the net heat through it from outside: air, sun and sky together (negative where the face lost heat).
+        </p>
+        <p className="muted">
+          Energy balance:{" "}
+          {r.energyBalanceError === null
+            ? `not meaningful — almost no heat moved (less than would change the contents by a thousandth of a kelvin; absolute difference ${Math.abs(r.energyBalanceError_J).toExponential(1)} J).`
+            : `stored heat equals heat in to ${r.energyBalanceError.toExponential(1)} (relative).`} Box UA ≈ {r.ua.total_W_K.toFixed(2)} W/K (walls {r.ua.walls_W_K.toFixed(2)}, lid {r.ua.lid_W_K.toFixed(2)}, edges and corners {r.ua.edges_W_K.toFixed(2)}) with an outer coefficient of {r.outerH_W_m2K[0].toFixed(1)} and an inner one of {r.innerH_W_m2K.toFixed(1)} W/(m²·K).
         </p>
         <h3>Bands used</h3>
         <ul className="facts">
@@ -381,6 +389,7 @@ export function HoldPlanner(props: HoldPlannerProps) {
             );
           })}
         </ul>
+        <ComplianceList lines={r.compliance} title="Out of its band: against the rule set" />
         <FactList title="Assumptions" items={r.assumptions} testId="assumptions" />
         <FactList title="Warnings" items={r.warnings} warn />
       </>
@@ -390,7 +399,7 @@ export function HoldPlanner(props: HoldPlannerProps) {
 
 function csvRows(r: HoldResult, input: HoldParsed): Record<string, number | string | null>[] {
   return r.series.map((p) => {
-    const row: Record<string, number | string | null> = { t_s: Math.round(p.t_s), inside_air_C: round3(p.air_C) };
+    const row: Record<string, number | string | null> = { t_s: Math.round(p.t_s), inside_air_C: round3(p.air_C), inside_air_lower_C: round3(p.airLower_C), inside_air_upper_C: round3(p.airUpper_C) };
     p.products.forEach((q, j) => {
       const n = input.products[j].product.name;
       row[`${n} center_C`] = round3(q.center_C);

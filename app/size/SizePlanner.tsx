@@ -373,7 +373,7 @@ export function SizePlanner(props: { products: Product[]; shippers: Shipper[]; p
                     <td>{formatQuantity("mass", c.mass_kg, units, 3)}</td>
                     <td>{c.cost.toFixed(2)}</td>
                     <td>{(c.outerVolume_m3 * 1000).toFixed(1)} L</td>
-                    <td>{c.pruned ? "holds (not run)" : c.hold_s === null ? `> ${formatDuration(r.required_s)}` : formatDuration(c.hold_s)}</td>
+                    <td>{c.pruned ? "holds (not run)" : c.hold_s === null ? `> ${formatDuration(r.required_s)}` : `${c.holdIsUpperBound ? "at most " : ""}${formatDuration(c.hold_s)}`}</td>
                     <td className="row-actions">
                       <button type="button" onClick={() => openAs(c, "plan")}>
                         Open as plan
@@ -414,9 +414,12 @@ export function SizePlanner(props: { products: Product[]; shippers: Shipper[]; p
         <h3>How it was judged</h3>
         <ul className="facts">
           <li>
-            Every candidate is run through the hold model at the {result!.inp.judgeBy === "low" ? "worst corner of the uncertainty band (outer coefficient, insulation conductivity and conditioning at their least favourable), which the model's monotone behaviour makes the low end" : "central estimate"}.
+            Every candidate is run through the hold model at the {result!.inp.judgeBy === "low" ? "low end of the uncertainty band: the shortest hold over the central run and every corner of the outer coefficient, insulation conductivity and conditioning spreads, the same runs as the hold planner's range (with sun no single corner is always the worst; only the conditioning side that provably cannot fail first is skipped)" : "central estimate"}.
           </li>
+          <li>A candidate already short of three quarters of the required hold is not run at its remaining corners: its hold shows as &ldquo;at most&rdquo;.</li>
           <li>The Pareto front keeps each candidate that no other beats on packed mass, cost and outer volume at once.</li>
+          <li>A wall-thickness variant adds (or saves) its insulation&rsquo;s mass, and its cost at the box&rsquo;s own insulation cost per m³ where given, else at the box&rsquo;s price spread over its shell volume (as if the price were all insulation).</li>
+          <li>Packs are placed as each line says (&ldquo;around&rdquo; shares them over top, underneath and sides) and touch the load, as in the hold planner.</li>
           <li>Open a candidate as a plan to see its full curves and uncertainty band.</li>
         </ul>
       </>

@@ -12,7 +12,7 @@ import { UnitInput } from "@/app/_components/UnitInput";
 import { useUnits } from "@/app/_components/units-context";
 import { useMounted } from "@/app/_components/useMounted";
 import { CautionBlock } from "@/app/_components/CautionBlock";
-import { NoResult, FactList, NamedSelect, SavedNotice } from "@/app/_components/ResultParts";
+import { NoResult, FactList, NamedSelect, SavedNotice, ComplianceList } from "@/app/_components/ResultParts";
 import { TemperatureChart } from "@/app/_components/TemperatureChart";
 import { savePlanAction } from "@/app/plans/actions";
 
@@ -197,7 +197,6 @@ export function ThawPlanner({ products, ruleSets, trays, defaultRuleSet }: { pro
     const tUnit = unitLabel("temperature", units);
     const T = (x: number) => roundForDisplay(toDisplay("temperature", x, units), 5);
     const data = r.series.map((p) => ({ t_h: p.t_s / 3600, center: T(p.center_C), surface: T(p.surface_C) }));
-    const statusClass = (s: string) => (s === "meets" ? "ok" : s === "check locally" ? "check" : "bad");
     return (
       <>
         <h2 data-testid="thaw-headline">
@@ -226,18 +225,15 @@ export function ThawPlanner({ products, ruleSets, trays, defaultRuleSet }: { pro
             <tr>
               <th>Second opinion</th>
               <td>
-                Plank {formatDuration(r.estimates.plank_s)}, Pham {formatDuration(r.estimates.pham_s)}
+                Plank {formatDuration(r.estimates.plank_s)}, Pham {formatDuration(r.estimates.pham_s)}{" "}
+                <span className="muted" data-testid="estimate-inputs">
+                  (closed-form, with the model&rsquo;s latent heat {(r.estimates.inputs.latent_J_kg / 1000).toFixed(0)} kJ/kg and sensible specific heats {(r.estimates.inputs.cFrozen_J_kgK / 1000).toFixed(2)} frozen, {(r.estimates.inputs.cUnfrozen_J_kgK / 1000).toFixed(2)} thawed kJ/(kg·K); why they differ is under Assumptions)
+                </span>
               </td>
             </tr>
           </tbody>
         </table>
-        <ul className="compliance" data-testid="compliance">
-          {r.compliance.map((c) => (
-            <li key={c.rule} className={statusClass(c.status)}>
-              <strong>{c.status}</strong> — {c.rule}: {c.detail}
-            </li>
-          ))}
-        </ul>
+        <ComplianceList lines={r.compliance} />
         <TemperatureChart
           data={data}
           unit={tUnit}

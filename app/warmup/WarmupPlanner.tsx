@@ -12,7 +12,7 @@ import { UnitInput } from "@/app/_components/UnitInput";
 import { useUnits } from "@/app/_components/units-context";
 import { useMounted } from "@/app/_components/useMounted";
 import { CautionBlock } from "@/app/_components/CautionBlock";
-import { NoResult, FactList, NamedSelect, FieldMessage, SavedNotice } from "@/app/_components/ResultParts";
+import { NoResult, FactList, NamedSelect, FieldMessage, SavedNotice, ComplianceList } from "@/app/_components/ResultParts";
 import { TemperatureChart } from "@/app/_components/TemperatureChart";
 import { savePlanAction } from "@/app/plans/actions";
 
@@ -172,7 +172,7 @@ export function WarmupPlanner({ products, ruleSets, defaultRuleSet }: { products
                   kind: "warmup",
                   name: planName.trim() || `${input.product.name} from ${input.start_C} °C`,
                   input,
-                  result: { method: r.method, limit_C: r.limit_C, timeToLimit_s: r.timeToLimit_s, biot: r.biotLumped, h_W_m2K: r.h_W_m2K, warnings: r.warnings, assumptions: r.assumptions },
+                  result: { method: r.method, limit_C: r.limit_C, timeToLimit_s: r.timeToLimit_s, biot: r.biotLumped, h_W_m2K: r.h_W_m2K, compliance: r.compliance, warnings: r.warnings, assumptions: r.assumptions },
                 });
                 if (res.ok) setSaved({ id: res.id });
               }}
@@ -192,6 +192,7 @@ export function WarmupPlanner({ products, ruleSets, defaultRuleSet }: { products
       t_h: p.t_s / 3600,
       center: roundForDisplay(toDisplay("temperature", p.center_C, units), 5),
       surface: roundForDisplay(toDisplay("temperature", p.surface_C, units), 5),
+      midFace: roundForDisplay(toDisplay("temperature", p.midFace_C, units), 5),
       mean: roundForDisplay(toDisplay("temperature", p.mean_C, units), 5),
     }));
     const limitShown = roundForDisplay(toDisplay("temperature", r.limit_C, units), 4);
@@ -202,9 +203,21 @@ export function WarmupPlanner({ products, ruleSets, defaultRuleSet }: { products
         <table className="list summary" data-testid="time-to-limit">
           <tbody>
             <tr>
-              <th>Surface</th>
+              <th>Surface{r.surfacePoint === "corner" ? " (corner, first to cross)" : r.surfacePoint === "edge" ? " (rim, first to cross)" : r.surfacePoint === "mid-face" ? " (middle of the largest face)" : ""}</th>
               <td data-testid="ttl-surface">{r.timeToLimit_s.surface === null ? "not within the time looked at" : formatDuration(r.timeToLimit_s.surface)}</td>
             </tr>
+            {r.surfacePoint === "corner" ? (
+              <tr>
+                <th>Edge</th>
+                <td data-testid="ttl-edge">{r.timeToLimit_s.edge === null ? "not within the time looked at" : formatDuration(r.timeToLimit_s.edge)}</td>
+              </tr>
+            ) : null}
+            {r.surfacePoint === "corner" || r.surfacePoint === "edge" ? (
+              <tr>
+                <th>Middle of the face</th>
+                <td data-testid="ttl-midface">{r.timeToLimit_s.midFace === null ? "not within the time looked at" : formatDuration(r.timeToLimit_s.midFace)}</td>
+              </tr>
+            ) : null}
             <tr>
               <th>Centre</th>
               <td data-testid="ttl-center">{r.timeToLimit_s.center === null ? "not within the time looked at" : formatDuration(r.timeToLimit_s.center)}</td>
@@ -220,11 +233,13 @@ export function WarmupPlanner({ products, ruleSets, defaultRuleSet }: { products
           unit={tUnit}
           limits={[{ y: limitShown, label: `limit ${limitShown} ${tUnit}` }]}
           lines={[
-            { key: "surface", label: "surface", color: "#b4641e" },
+            { key: "surface", label: r.surfacePoint === "corner" ? "surface (corner)" : r.surfacePoint === "edge" ? "surface (rim)" : "surface", color: "#b4641e" },
+            ...(r.surfacePoint === "corner" || r.surfacePoint === "edge" ? [{ key: "midFace", label: "middle of the face", color: "#c9a27a", dashed: true }] : []),
             { key: "center", label: "centre", color: "#235a6b" },
             { key: "mean", label: "mass average", color: "#6b7378", dashed: true },
           ]}
         />
+        <ComplianceList lines={r.compliance} title="Against the rule set" />
         <h3>How this was worked out</h3>
         <p data-testid="method">
           <strong>Method: {r.method === "lumped" ? "lumped capacitance" : r.method === "series" ? "exact series" : "numerical enthalpy solver"}.</strong> {r.methodReason}.

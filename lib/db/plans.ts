@@ -1,6 +1,7 @@
 import type { Db } from "./client";
 import { z } from "zod";
 import type { Actor } from "./audit";
+import { parseId } from "../schemas/id";
 
 export const PLAN_KINDS = ["warmup", "hold", "thaw", "size"] as const;
 
@@ -47,13 +48,17 @@ export async function listPlans(db: Db): Promise<StoredPlan[]> {
   return (await db.plan.findMany({ orderBy: { createdAt: "desc" } })).map(toPlan);
 }
 
-export async function getPlan(db: Db, id: number): Promise<StoredPlan | null> {
-  if (!Number.isInteger(id) || id <= 0) return null;
+/** `id` may be the text from a URL; anything but a plain positive whole number in range finds nothing. */
+export async function getPlan(db: Db, rawId: number | string): Promise<StoredPlan | null> {
+  const id = parseId(rawId);
+  if (id === null) return null;
   const r = await db.plan.findUnique({ where: { id } });
   return r ? toPlan(r) : null;
 }
 
-export async function deletePlan(db: Db, id: number): Promise<boolean> {
+export async function deletePlan(db: Db, rawId: number | string): Promise<boolean> {
+  const id = parseId(rawId);
+  if (id === null) return false;
   const r = await db.plan.deleteMany({ where: { id } });
   return r.count === 1;
 }

@@ -18,6 +18,7 @@ import { z } from "zod";
 // Shared-database support (issue 16): library writes go through one transaction helper and rule-set changes are recorded.
 import { libraryTransaction, isUniqueViolation } from "./tx";
 import { recordRuleSetChange, type Actor } from "./audit";
+import { parseId } from "../schemas/id";
 
 export interface Stored<K extends TemplateKind> {
   id: number;
@@ -131,8 +132,10 @@ export async function listTemplates<K extends TemplateKind>(db: Db, kind: K): Pr
   return rows.map((r) => ({ id: r.id, version: r.version, updatedAt: r.updatedAt, data: fromRow(kind, r) }));
 }
 
-export async function getTemplate<K extends TemplateKind>(db: Db, kind: K, id: number): Promise<Stored<K> | null> {
-  if (!Number.isInteger(id) || id <= 0) return null;
+/** `id` may be the text from a URL; anything but a plain positive whole number in range finds nothing. */
+export async function getTemplate<K extends TemplateKind>(db: Db, kind: K, rawId: number | string): Promise<Stored<K> | null> {
+  const id = parseId(rawId);
+  if (id === null) return null;
   const r = await delegateFor(db, kind).findUnique({ where: { id } });
   return r ? { id: r.id, version: r.version, updatedAt: r.updatedAt, data: fromRow(kind, r) } : null;
 }
@@ -174,40 +177,42 @@ export async function saveTemplate(
   input: unknown,
   actor: Actor = null,
 ): Promise<SaveResult> {
+  const notFound = { ok: false as const, reason: "not_found" as const, message: `This ${TEMPLATE_LABELS[kind].one} no longer exists; it may have been deleted.` };
+  if (id !== null && parseId(id) === null) return notFound;
   const parsed = templateSchemas[kind].safeParse(input);
   if (!parsed.success) return { ok: false, reason: "invalid", fieldErrors: fieldErrorsOf(parsed.error) };
   const data = parsed.data as TemplateOutput[TemplateKind];
-  const refErrors = await referenceErrors(db, kind, data);
-  if (Object.keys(refErrors).length) return { ok: false, reason: "invalid", fieldErrors: refErrors };
-  if (await nameTaken(db, kind, (data as { name: string }).name, id)) {
-    return {
-      ok: false,
-      reason: "invalid",
-      fieldErrors: { name: [`Another ${TEMPLATE_LABELS[kind].one} is already called "${(data as { name: string }).name}"`] },
-    };
-  }
   const nameTakenResult: SaveResult = {
     ok: false,
     reason: "invalid",
     fieldErrors: { name: [`Another ${TEMPLATE_LABELS[kind].one} is already called "${(data as { name: string }).name}"`] },
   };
-  // The check above is the fast path; the unique index is the backstop when another instance wins the race.
+  // One transaction under the library write lock (lib/db/tx.ts): every check (references, name, version)
+  // comes before the first write, so a refused save changes nothing — in particular the default rule set
+  // keeps its flag when an update is refused. The unique index is the backstop for the name check.
   return libraryTransaction(db, async (tx) => {
-    const t = delegateFor(tx as unknown as TxLike, kind);
+    const txl = tx as unknown as TxLike;
+    const t = delegateFor(txl, kind);
     const audit = (rowId: number, version: number, action: "created" | "updated") =>
       kind === "rulesets"
         ? recordRuleSetChange(tx, { ruleSetId: rowId, ruleSetName: (data as { name: string }).name, action, version, snapshot: data, actor })
         : Promise.resolve();
-    if (kind === "rulesets" && (data as TemplateOutput["rulesets"]).isDefault) {
-      await t.updateMany({ where: { isDefault: true, ...(id ? { NOT: { id } } : {}) }, data: { isDefault: false } });
-    }
+    const refErrors = await referenceErrors(txl, kind, data);
+    if (Object.keys(refErrors).length) return { ok: false as const, reason: "invalid" as const, fieldErrors: refErrors };
+    if (await nameTaken(txl, kind, (data as { name: string }).name, id)) return nameTakenResult;
+    const clearOtherDefaults = async () => {
+      if (kind === "rulesets" && (data as TemplateOutput["rulesets"]).isDefault) {
+        await t.updateMany({ where: { isDefault: true, ...(id ? { NOT: { id } } : {}) }, data: { isDefault: false } });
+      }
+    };
     if (id === null) {
+      await clearOtherDefaults();
       const row = await t.create({ data: toRow(kind, data) });
       await audit(row.id, row.version, "created");
       return { ok: true as const, id: row.id, version: row.version };
     }
     const current = await t.findUnique({ where: { id } });
-    if (!current) return { ok: false as const, reason: "not_found" as const, message: `This ${TEMPLATE_LABELS[kind].one} no longer exists; it may have been deleted.` };
+    if (!current) return notFound;
     if (expectedVersion === null || current.version !== expectedVersion) {
       return {
         ok: false as const,
@@ -217,27 +222,30 @@ export async function saveTemplate(
       };
     }
     const res = await t.updateMany({ where: { id, version: expectedVersion }, data: { ...toRow(kind, data), version: { increment: 1 } } });
-    if (res.count !== 1) {
-      return { ok: false as const, reason: "conflict" as const, message: `This ${TEMPLATE_LABELS[kind].one} was changed since you opened it.`, currentVersion: null };
-    }
+    if (res.count !== 1) throw new VersionMoved(); // rolls the transaction back
+    await clearOtherDefaults();
     await audit(id, expectedVersion + 1, "updated");
     return { ok: true as const, id, version: expectedVersion + 1 };
   }).catch((e: unknown): SaveResult => {
+    if (e instanceof VersionMoved) return { ok: false, reason: "conflict", message: `This ${TEMPLATE_LABELS[kind].one} was changed since you opened it.`, currentVersion: null };
     if (isUniqueViolation(e)) return nameTakenResult;
     throw e;
   });
 }
 
+class VersionMoved extends Error {}
+
 /** Deletes a template. Saved plans hold their own snapshot, so they are not touched. */
 export async function deleteTemplate(
   db: Db,
   kind: TemplateKind,
-  id: number,
+  rawId: number | string,
   actor: Actor = null,
-): Promise<{ ok: true } | { ok: false; message: string }> {
+): Promise<{ ok: true } | { ok: false; reason: "not_found" | "in_use"; message: string }> {
   const d = delegateFor(db, kind);
-  const row = await d.findUnique({ where: { id } });
-  if (!row) return { ok: false, message: `No ${TEMPLATE_LABELS[kind].one} with id ${id}` };
+  const id = parseId(rawId);
+  const row = id === null ? null : await d.findUnique({ where: { id } });
+  if (!row || id === null) return { ok: false, reason: "not_found", message: `No ${TEMPLATE_LABELS[kind].one} with id ${String(rawId).slice(0, 40)}` };
   if (kind === "materials") {
     const users = (await listTemplates(db, "shippers")).filter(
       (s) =>
@@ -246,21 +254,23 @@ export async function deleteTemplate(
         (s.data.lidLayers ?? []).some((l) => l.material === row.name),
     );
     if (users.length) {
-      return { ok: false, message: `"${String(row.name)}" is used by ${users.map((u) => `"${u.data.name}"`).join(", ")}; change those boxes first` };
+      return { ok: false, reason: "in_use", message: `"${String(row.name)}" is used by ${users.map((u) => `"${u.data.name}"`).join(", ")}; change those boxes first` };
     }
   }
-  await libraryTransaction(db, async (tx) => {
+  // deleteMany: a row deleted meanwhile by someone else is "not found", not a database error.
+  const count = await libraryTransaction(db, async (tx) => {
     const gone = await delegateFor(tx, kind).deleteMany({ where: { id } });
     if (kind === "rulesets" && gone.count === 1) {
       const snapshot = fromRow("rulesets", row);
       await recordRuleSetChange(tx, { ruleSetId: id, ruleSetName: snapshot.name, action: "deleted", version: row.version, snapshot, actor });
     }
+    return gone.count;
   });
-  return { ok: true };
+  return count === 1 ? { ok: true } : { ok: false, reason: "not_found", message: `No ${TEMPLATE_LABELS[kind].one} with id ${id}` };
 }
 
 /** Copies a template under a free name ("X (copy)", "X (copy 2)", …). */
-export async function duplicateTemplate(db: Db, kind: TemplateKind, id: number, actor: Actor = null): Promise<SaveResult> {
+export async function duplicateTemplate(db: Db, kind: TemplateKind, id: number | string, actor: Actor = null): Promise<SaveResult> {
   const src = await getTemplate(db, kind, id);
   if (!src) return { ok: false, reason: "not_found", message: `No ${TEMPLATE_LABELS[kind].one} with id ${id}` };
   const base = `${(src.data as { name: string }).name} (copy`;

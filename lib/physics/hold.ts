@@ -8,10 +8,12 @@ import { holdInputSchema, type HoldInput, type HoldParsed } from "../schemas/hol
 import type { Material, Pack, Product } from "../schemas/templates";
 import { foodThermal, simpleMaterial } from "./properties";
 import { itemShape } from "./geometry";
-import { solAirTemperature, CP_AIR_J_KGK, P_ATM_PA, R_AIR_J_KGK } from "./surfaces";
-import { boxOuterCoefficient, radiationAt, runNetwork, type BodySpec, type WallLayerSpec } from "./shipper";
+import { solAirTemperature, airProps, rayleigh, CP_AIR_J_KGK, P_ATM_PA, R_AIR_J_KGK, SIGMA_W_M2K4 } from "./surfaces";
+import { boxOuterCoefficient, radiationAt, runNetwork, type BodySpec, type FaceSpec, type Gains, type NetworkState, type WallLayerSpec } from "./shipper";
+import { layoutBox, type Layout } from "./placement";
 import { KELVIN_OFFSET, PhysicsInputError } from "./validation";
 import type { EnthalpyMaterial } from "./solver1d";
+import { holdCompliance, type ComplianceLine } from "./compliance";
 
 /** CO₂ gas volume per kg of dry ice at 20 °C and 1 atm, ideal gas: 0.547 m³/kg (published-values.md §4.4, COMPUTED). */
 export const CO2_M3_PER_KG = 0.547;
@@ -39,17 +41,25 @@ export interface ProductBand {
 export interface HoldSeriesPoint {
   t_s: number;
   air_C: number;
+  /** The lower and upper halves of the inside air. */
+  airLower_C: number;
+  airUpper_C: number;
   products: { center_C: number; surface_C: number }[];
   packs: { T_C: number; latentLeft: number; massLeft_kg: number }[];
 }
 
+/** Where a product left its band: its centre, its surface, or its surface where a pack touches it. */
+export type HoldPoint = "centre" | "surface" | "next to a pack";
+
 export interface HoldRun {
   holdTime_s: number | null;
-  failsFirst: { product: string; line: number; point: "centre" | "surface"; limit: "upper" | "lower"; limit_C: number } | null;
+  failsFirst: { product: string; line: number; point: HoldPoint; limit: "upper" | "lower"; limit_C: number } | null;
   endTime_s: number;
-  /** Heat that entered the box system during the route, by path (J). */
-  heatGain_J: { walls: number; lid: number; edgesAndCorners: number; sun: number; lidOpenings: number };
-  energyBalanceError: number;
+  /** Net heat that entered the box during the route through each path (J): each face's outer film, sun and sky together. */
+  heatGain_J: { sides: number; base: number; lid: number; edgesAndCorners: number; lidOpenings: number };
+  /** Relative energy-balance error; null when almost no heat moved (less than would warm the contents by 1 mK), where a ratio means nothing. */
+  energyBalanceError: number | null;
+  energyBalanceError_J: number;
   steps: number;
   newtonIterations: number;
   series: HoldSeriesPoint[];
@@ -70,6 +80,8 @@ export interface HoldResult extends HoldRun {
   outerH_W_m2K: number[];
   innerH_W_m2K: number;
   hasDryIce: boolean;
+  /** Rule-set lines for products that leave their band (time as a control, tolerance periods). */
+  compliance: ComplianceLine[];
   assumptions: string[];
   warnings: string[];
 }
@@ -92,6 +104,8 @@ interface Variant {
   insulationKScale: number;
   conditioningShift_K: number;
   keepSeries: boolean;
+  /** Stop the run at this time (s) if nothing has failed by then: the run is only asked whether it fails earlier. */
+  stopAt_s?: number;
 }
 
 interface Prepared {
@@ -99,7 +113,7 @@ interface Prepared {
   warnings: string[];
   assumptions: string[];
   bands: ProductBand[];
-  productMats: { mat: EnthalpyMaterial & { Tf_C: number }; shapeM: 0 | 1 | 2; R: number; V: number; A: number }[];
+  productMats: { mat: EnthalpyMaterial & { Tf_C: number }; shapeM: 0 | 1 | 2; R: number; V: number; A: number; footprint: number }[];
   routeLength_s: number;
   segments: { label: string; start_s: number; end_s: number; seg: HoldParsed["route"]["segments"][number] }[];
   openings: { start_s: number; end_s: number }[];
@@ -113,6 +127,9 @@ interface Prepared {
   airVolume_m3: number;
   kScaleForUA: number;
   hasDryIce: boolean;
+  layout: Layout;
+  /** Open part of the horizontal mid-plane between the two halves of the inside air, m². */
+  midPlane_m2: number;
 }
 
 function prepare(inp: HoldParsed): Prepared {
@@ -164,7 +181,10 @@ function prepare(inp: HoldParsed): Prepared {
     if (typeof b === "string") throw new PhysicsInputError(`products.${i}.start_C`, `${line.product.name} is ${b}`);
     bands.push(b);
     const m = shape.oneD.shape === "slab" ? 0 : shape.oneD.shape === "cylinder" ? 1 : 2;
-    productMats.push({ mat: f, shapeM: m, R: ((m + 1) * shape.volume_m3) / shape.area_m2, V: shape.volume_m3, A: shape.area_m2 });
+    const cv = shape.convection;
+    // The area it rests on: a block or slab lies flat, a cylinder stands upright, a sphere on its projected area.
+    const footprint = "width_m" in cv && "length_m" in cv ? cv.width_m * cv.length_m : "diameter_m" in cv ? (Math.PI / 4) * cv.diameter_m ** 2 : shape.area_m2 / 6;
+    productMats.push({ mat: f, shapeM: m, R: ((m + 1) * shape.volume_m3) / shape.area_m2, V: shape.volume_m3, A: shape.area_m2, footprint });
     contentsVolume += shape.volume_m3 * line.count;
   });
   let hasDryIce = false;
@@ -172,7 +192,17 @@ function prepare(inp: HoldParsed): Prepared {
     const p = line.pack;
     contentsVolume += p.length_m * p.width_m * p.thickness_m * line.count;
     if (p.kind === "dry_ice") hasDryIce = true;
-    if (line.conditioning_C > p.phaseChange_C) warnings.push(`${p.name} is conditioned at ${line.conditioning_C} °C, above its ${p.kind === "dry_ice" ? "sublimation" : "melt"} point (${p.phaseChange_C} °C): it starts melted and gives sensible cooling only`);
+    const w = packMeltBand_K(p);
+    if (p.kind === "dry_ice" && line.conditioning_C > p.phaseChange_C) {
+      warnings.push(`${p.name} is given at ${line.conditioning_C} °C, above its sublimation point (${p.phaseChange_C} °C), where dry ice cannot exist at atmospheric pressure: it is modelled as solid at ${p.phaseChange_C} °C`);
+    } else if (line.conditioning_C >= p.phaseChange_C + w / 2) {
+      warnings.push(`${p.name} is conditioned at ${line.conditioning_C} °C, above its melt point (${p.phaseChange_C} °C): it starts melted and gives sensible cooling only`);
+    } else if (p.kind !== "dry_ice" && line.conditioning_C <= p.phaseChange_C && line.conditioning_C >= p.phaseChange_C - w / 2) {
+      warnings.push(`${p.name} is conditioned at ${line.conditioning_C} °C, at its melt point: modelled as fully frozen, as meant — a cabinet that warm cannot freeze it through, so it must have been frozen colder first`);
+    } else if (line.conditioning_C > p.phaseChange_C) {
+      const f = (line.conditioning_C - p.phaseChange_C) / (w / 2);
+      warnings.push(`${p.name} is conditioned at ${line.conditioning_C} °C, just above its melt point (${p.phaseChange_C} °C): it is modelled as ${Math.round(f * 100)} % melted when packed. Condition it at or below ${p.phaseChange_C} °C to start it frozen`);
+    }
   });
   if (contentsVolume > innerVolume) {
     throw new PhysicsInputError("products", `the contents (${(contentsVolume * 1000).toFixed(1)} L) are larger than the box's inner volume (${(innerVolume * 1000).toFixed(1)} L)`);
@@ -235,15 +265,37 @@ function prepare(inp: HoldParsed): Prepared {
     `Walls and base: ${s.wallLayers.map((l) => `${(l.thickness_m * 1000).toFixed(0)} mm ${l.material}`).join(" + ")}; lid: ${(s.lidLayers ?? s.wallLayers).map((l) => `${(l.thickness_m * 1000).toFixed(0)} mm ${l.material}`).join(" + ")}. Areas are the inner faces; the 12 edges and 8 corners add conduction shape factors S = 0.54·D and 0.15·L (Incropera & DeWitt Table 4.1)`,
   );
   assumptions.push(
-    `Inside, every surface exchanges with one well-mixed inside node at ${innerH.toFixed(1)} W/(m²·K) (natural convection ${inp.overrides.innerH_W_m2K ? "and radiation as given" : `${INNER_CONVECTIVE_W_M2K} + linearised radiation`}); stratification inside the box is not modelled`,
+    `Inside, the air is two well-mixed halves, lower and upper; every surface open to the air exchanges with its half at ${innerH.toFixed(1)} W/(m²·K) (natural convection ${inp.overrides.innerH_W_m2K ? "and radiation as given" : `${INNER_CONVECTIVE_W_M2K} + linearised radiation`}). Cold air sinks: when the upper half is colder (packs on top) the halves mix by natural convection (Globe–Dropkin correlation for a horizontal air layer heated from below); when the lower half is colder (packs underneath) the air is stably stratified and only conduction and radiation cross between the halves, so the top of the box stays warmer`,
   );
   assumptions.push(`Sun: the lid takes all of it, the sides ${Math.round(inp.overrides.sunShareSides * 100)} %, the base none, through the sol-air temperature with the finish "${finish.name}" (α = ${finish.solarAbsorptivity}, ε = ${finish.emissivity})`);
   assumptions.push(`Lid openings replace inside air at ${inp.overrides.lidOpenAirChangesPerMinute} air changes per minute while open; moisture and frost are ignored`);
-  assumptions.push("Products and packs are each modelled in one dimension with their real volume and surface; packs touch products only where a contact is set");
+  assumptions.push(
+    "Products and packs are each modelled in one dimension with their real volume and surface. The load rests on the base; packs underneath lie on the base under it, packs on top lie on it under the lid, packs at the sides stand between it and the side walls, and \"around\" shares a line's packs over the three (the remainder on top first, then underneath). Packs cover the part of the face they lie against — that part exchanges heat with the packs directly, not with the inside air — and touch the load's face towards them (the whole load by area, or the one product a line names), all through the line's contact coefficient; the rest of their surface faces the air. The product's surface layer where a pack touches it (one node spacing deep, with its own heat capacity and latent heat) is followed between the product's interior and the coldest touching pack, and checked against any lower limit",
+  );
   assumptions.push(`The box and inside air start at ${inp.boxStart_C ?? inp.route.segments[0].airTemp_C} °C`);
+  if (inp.packs.length) {
+    assumptions.push(
+      "A pack conditioned at or below its melt (or sublimation) point starts fully frozen. The model melts it over a narrow band centred on that point (0.5 K; 0.2 K for dry ice); a conditioning temperature in the upper half of that band, just above the melt point, starts the pack partly melted in proportion, and anything warmer fully melted. The conditioning uncertainty moves a frozen pack's starting temperature but never melts it; dry ice always starts solid",
+    );
+  }
   if (hasDryIce) assumptions.push("Dry ice stays at −78.5 °C while any is left; the CO₂ gas leaves the box. Temperatures next to dry ice can fall below −78.5 °C in real shippers (published measurements show −93 °C); not modelled");
 
-  return { inp, warnings, assumptions, bands, productMats, routeLength_s, segments, openings, finish, wallLayers, lidLayers, inner, outer, edgeG, innerH, airVolume_m3, kScaleForUA, hasDryIce };
+  const layout = layoutBox(
+    inner,
+    inp.products.map((l, i) => ({ area_m2: productMats[i].A, footprint_m2: productMats[i].footprint, count: l.count })),
+    inp.packs.map((l) => ({
+      face_m2: l.pack.length_m * l.pack.width_m,
+      area_m2: 2 * (l.pack.length_m * l.pack.width_m + l.pack.length_m * l.pack.thickness_m + l.pack.width_m * l.pack.thickness_m),
+      count: l.count,
+      placement: l.placement,
+      contactWith: l.contactWith,
+    })),
+  );
+  warnings.push(...layout.warnings);
+  // The load blocks the middle of the box: the halves of the air meet over the rest of the mid-plane (at least a tenth of it).
+  const midPlane_m2 = Math.max(inner.L * inner.W - layout.loadFootprint_m2, 0.1 * inner.L * inner.W);
+
+  return { inp, warnings, assumptions, bands, productMats, routeLength_s, segments, openings, finish, wallLayers, lidLayers, inner, outer, edgeG, innerH, airVolume_m3, kScaleForUA, hasDryIce, layout, midPlane_m2 };
 }
 
 export function steadyUA(
@@ -264,7 +316,15 @@ export function steadyUA(
   return { walls_W_K: walls, lid_W_K: lid, edges_W_K: edges, total_W_K: walls + lid + edges };
 }
 
-/** A coolant pack as an enthalpy material (melt or sublimation over a narrow band). */
+/**
+ * Width of a pack's modelled melting (or sublimation) band, K: the latent heat is spread over
+ * [T_pc − w/2, T_pc + w/2], centred on the phase-change point T_pc so the pack melts at its own temperature.
+ */
+export function packMeltBand_K(p: Pick<Pack, "kind">): number {
+  return p.kind === "dry_ice" ? 0.2 : 0.5;
+}
+
+/** A coolant pack as an enthalpy material (melt or sublimation over a narrow band centred on its phase-change point). */
 export function packMaterial(p: Pack): EnthalpyMaterial & { Tf_C: number } {
   const [ks, kl] = PACK_K[p.kind];
   const rho = p.mass_kg / (p.length_m * p.width_m * p.thickness_m);
@@ -277,8 +337,57 @@ export function packMaterial(p: Pack): EnthalpyMaterial & { Tf_C: number } {
     kLiquid_W_mK: kl,
     melt_C: p.phaseChange_C,
     latent_J_kg: p.latentHeat_J_kg,
-    mushy_K: p.kind === "dry_ice" ? 0.2 : 0.5,
+    mushy_K: packMeltBand_K(p),
   }) as EnthalpyMaterial & { Tf_C: number };
+}
+
+/**
+ * The model temperature a pack line starts at, for a conditioning temperature (plus the shift of an
+ * uncertainty corner), so that it starts in the state the user means:
+ * - at or below the phase-change point T_pc: fully solid, just below the modelled band (at most
+ *   T_pc − w/2; the sensible heat of that w/2 is under 0.2 % of the latent heat). The conditioning shift
+ *   moves its temperature but never melts it.
+ * - between T_pc and T_pc + w/2: melted in proportion, (T − T_pc)/(w/2);
+ * - above: fully melted (sensible cooling only).
+ * - Dry ice exists only at or below its sublimation point at 1 atm: it always starts solid, and takes no shift.
+ */
+export function packStart_C(p: Pack, conditioning_C: number, shift_K: number): number {
+  const Tm = p.phaseChange_C;
+  const half = packMeltBand_K(p) / 2;
+  const solidTop = Tm - half;
+  if (p.kind === "dry_ice") return Math.min(conditioning_C, solidTop);
+  if (conditioning_C <= Tm) return Math.min(conditioning_C + shift_K, solidTop);
+  const x = conditioning_C + shift_K;
+  if (x <= Tm) return Math.min(x, solidTop);
+  if (x < Tm + half) return solidTop + 2 * (x - Tm);
+  return x;
+}
+
+/**
+ * Exchange between the lower and upper halves of the inside air across the open part of the mid-plane,
+ * W/K: natural convection of a horizontal air layer of depth δ = H/2 plus radiation across it.
+ * - Colder above than below (a pack on top: unstable, cold air sinks): Nu = 0.069 Ra^(1/3) Pr^0.074,
+ *   Globe & Dropkin for a horizontal cavity heated from below, 3×10⁵ < Ra < 7×10⁹ [globeDropkin1959];
+ *   below the onset (Ra < 1708) and never less than conduction, Nu = 1 [incroperaEnclosure].
+ * - Colder below than above (a pack underneath: stably stratified, the warm air stays on top): no
+ *   convection, Nu = 1 (conduction only) [incroperaEnclosure].
+ * - Radiation between the surfaces of the two halves crosses either way: linearised black-body
+ *   coefficient 4σT³ with two grey surfaces of ε = 0.9, 1/(1/ε + 1/ε − 1) [incroperaRadiation].
+ */
+export function zoneExchange_W_K(lower_C: number, upper_C: number, area_m2: number, depth_m: number, warnings?: Set<string>): number {
+  const mean = (lower_C + upper_C) / 2;
+  const ap = airProps(Math.max(-50, Math.min(150, mean)));
+  const dT = lower_C - upper_C;
+  let Nu = 1;
+  if (dT > 0) {
+    const Ra = rayleigh(ap, dT, depth_m);
+    if (Ra > 1708) Nu = Math.max(1, 0.069 * Math.cbrt(Ra) * Math.pow(ap.Pr, 0.074));
+    if (Ra > 7e9) warnings?.add("The inside air layer's Rayleigh number is above 7×10⁹, outside the Globe–Dropkin range: the exchange between the halves of the box is extrapolated");
+  }
+  const eps = 1 / (1 / 0.9 + 1 / 0.9 - 1);
+  const T = mean + KELVIN_OFFSET;
+  const hRad = 4 * eps * SIGMA_W_M2K4 * T * T * T;
+  return ((Nu * ap.k_W_mK) / depth_m + hRad) * area_m2;
 }
 
 function runOnce(P: Prepared, v: Variant): HoldRun {
@@ -288,9 +397,6 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
   const scaleLayers = (ls: WallLayerSpec[]) => ls.map((l) => ({ ...l, k_W_mK: l.k_W_mK * kScale * (l.insulation ? v.insulationKScale : 1) }));
   const wallLayers = scaleLayers(P.wallLayers);
   const lidLayers = scaleLayers(P.lidLayers);
-  const Aw = 2 * (P.inner.L + P.inner.W) * P.inner.H + P.inner.L * P.inner.W;
-  const Al = P.inner.L * P.inner.W;
-  const Aside = 2 * (P.inner.L + P.inner.W) * P.inner.H;
   const hot = P.bands.some((b) => b.mode === "hot");
   const extendTo = P.routeLength_s * (1 + inp.extendFraction);
   const lastSeg = P.segments[P.segments.length - 1];
@@ -311,15 +417,20 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
     const seg = P.segments[i].seg;
     const h = hOuter[i];
     const sun = t < P.routeLength_s ? seg.sun_W_m2 : lastSeg.seg.sun_W_m2;
-    const lidTe = solAirTemperature({ airTemp_C: seg.airTemp_C, solarAbsorptivity: P.finish.solarAbsorptivity, irradiance_W_m2: sun, hOuter_W_m2K: h, emissivity: P.finish.emissivity, facingSky: sun > 0 });
-    const wallTe = seg.airTemp_C + (P.finish.solarAbsorptivity * sun * o.sunShareSides * Aside) / (Aw * h);
+    const lid = solAirTemperature({ airTemp_C: seg.airTemp_C, solarAbsorptivity: P.finish.solarAbsorptivity, irradiance_W_m2: sun, hOuter_W_m2K: h, emissivity: P.finish.emissivity, facingSky: sun > 0 });
+    // The sides take a share of the sun on the lid's area spread over their own area; the base none.
+    const sides = seg.airTemp_C + (P.finish.solarAbsorptivity * sun * o.sunShareSides) / h;
     let open = 0;
     if (t < P.routeLength_s) for (const op of P.openings) if (t >= op.start_s && t < op.end_s) open = openG;
-    return { air_C: seg.airTemp_C, wallSolAir_C: wallTe, lidSolAir_C: lidTe, outerH_W_m2K: h, openExchange_W_K: open };
+    return { air_C: seg.airTemp_C, solAir_C: { base: seg.airTemp_C, sidesLower: sides, sidesUpper: sides, lid }, outerH_W_m2K: h, openExchange_W_K: open };
   };
 
+  // Bodies: each pack line's packs at each position (underneath, on top, at the sides), then the products.
+  const L = P.layout;
+  const hi = P.innerH;
   const bodies: BodySpec[] = [];
-  inp.packs.forEach((line) => {
+  L.groups.forEach((g) => {
+    const line = inp.packs[g.line];
     const p = line.pack;
     const V = p.length_m * p.width_m * p.thickness_m;
     const A = 2 * (p.length_m * p.width_m + p.length_m * p.thickness_m + p.width_m * p.thickness_m);
@@ -330,26 +441,61 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
       halfSize_m: V / A,
       volume_m3: V,
       area_m2: A,
-      count: line.count,
+      count: g.count,
       nodes: p.kind === "dry_ice" ? 1 : 5 * (v.resolution ?? 1),
-      // Dry ice cannot be conditioned warmer or colder than its sublimation point.
-      start_C: p.kind === "dry_ice" ? line.conditioning_C : line.conditioning_C + v.conditioningShift_K,
+      start_C: packStart_C(p, line.conditioning_C, v.conditioningShift_K),
+      zoneG_W_K: [hi * g.exposed_m2 * g.zoneShare[0], hi * g.exposed_m2 * g.zoneShare[1]],
     });
   });
-  const nPacks = bodies.length;
+  const nGroups = bodies.length;
   inp.products.forEach((line, i) => {
     const pm = P.productMats[i];
-    bodies.push({ label: line.product.name, material: pm.mat, shapeM: pm.shapeM, halfSize_m: pm.R, volume_m3: pm.V, area_m2: pm.A, count: line.count, nodes: 9 * (v.resolution ?? 1), start_C: line.start_C });
+    const ex = L.products[i].exposed_m2;
+    bodies.push({ label: line.product.name, material: pm.mat, shapeM: pm.shapeM, halfSize_m: pm.R, volume_m3: pm.V, area_m2: pm.A, count: line.count, nodes: 9 * (v.resolution ?? 1), start_C: line.start_C, zoneG_W_K: [hi * ex[0], hi * ex[1]] });
   });
-  const contacts = inp.packs
-    .map((line, i) => {
-      if (line.contactWith === null) return null;
-      const prod = P.productMats[line.contactWith];
-      const prodLine = inp.products[line.contactWith];
-      const area = Math.min(line.pack.length_m * line.pack.width_m * line.count, (prod.A * prodLine.count) / 2);
-      return { a: i, b: nPacks + line.contactWith, conductance_W_K: line.contact_W_m2K * area };
-    })
-    .filter((c): c is { a: number; b: number; conductance_W_K: number } => c !== null);
+  const contacts: { a: number; b: number; conductance_W_K: number }[] = [];
+  L.groups.forEach((g, k) => g.load_m2.forEach((a, j) => a > 0 && contacts.push({ a: k, b: nGroups + j, conductance_W_K: inp.packs[g.line].contact_W_m2K * a })));
+  // Faces: the open part of each exchanges with its half of the inside air; covered parts touch packs or the load.
+  const faces: FaceSpec[] = [];
+  const add = (kind: FaceSpec["kind"], layers: WallLayerSpec[], area: number, inner: FaceSpec["inner"]) => {
+    if (area > 1e-9) faces.push({ kind, layers, area_m2: area, inner });
+  };
+  add("base", wallLayers, L.open.base, { zone: 0, h_W_m2K: hi });
+  add("sidesLower", wallLayers, L.open.sides / 2, { zone: 0, h_W_m2K: hi });
+  add("sidesUpper", wallLayers, L.open.sides / 2, { zone: 1, h_W_m2K: hi });
+  add("lid", lidLayers, L.open.lid, { zone: 1, h_W_m2K: hi });
+  L.groups.forEach((g, k) => {
+    const hc = inp.packs[g.line].contact_W_m2K;
+    if (g.position === "bottom") add("base", wallLayers, g.cover_m2, { body: k, h_W_m2K: hc });
+    if (g.position === "top") add("lid", lidLayers, g.cover_m2, { body: k, h_W_m2K: hc });
+    if (g.position === "side") {
+      add("sidesLower", wallLayers, g.cover_m2 / 2, { body: k, h_W_m2K: hc });
+      add("sidesUpper", wallLayers, g.cover_m2 / 2, { body: k, h_W_m2K: hc });
+    }
+  });
+  L.products.forEach((pr, j) => add("base", wallLayers, pr.onBase_m2, { body: nGroups + j, h_W_m2K: DEFAULT_CONTACT_W_M2K }));
+
+  // Freeze check next to packs: the product's surface layer where a pack touches it (depth Δr, one node
+  // spacing) as its own small node, coupled to the node under it (k/Δr) and to the coldest touching pack's
+  // surface (the contact coefficient), with its own heat capacity including latent heat, integrated
+  // implicitly with the model's steps. It starts at the product's packing temperature.
+  const touching = inp.products.map((_, j) => L.groups.map((g, k) => ({ k, hc: inp.packs[g.line].contact_W_m2K, a: g.load_m2[j] })).filter((x) => x.a > 0));
+  const patch = inp.products.map((l) => l.start_C);
+  const contactPoint = (j: number, st: { bodySurface_C: Float64Array; bodySub_C: Float64Array }, dt: number) => {
+    const pm = P.productMats[j];
+    const sub = st.bodySub_C[nGroups + j];
+    const dr = pm.R / Math.max(1, 9 * (v.resolution ?? 1) - 1);
+    const T0 = patch[j];
+    const K = pm.mat.k_W_mK(T0) / dr;
+    const C = (pm.mat.rho_kg_m3 * pm.mat.c_J_kgK(T0) * dr) / dt;
+    let coldest = Infinity;
+    for (const x of touching[j]) {
+      const T = (C * T0 + K * sub + x.hc * st.bodySurface_C[x.k]) / (C + K + x.hc);
+      if (T < coldest) coldest = T;
+    }
+    patch[j] = coldest;
+    return coldest;
+  };
 
   const breakpoints = [...P.segments.map((s) => s.end_s), ...P.openings.flatMap((op) => [op.start_s, op.end_s])];
   let holdTime: number | null = null;
@@ -357,24 +503,38 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
   const series: HoldSeriesPoint[] = [];
   const prevC = new Float64Array(inp.products.length);
   const prevS = new Float64Array(inp.products.length);
+  const prevX = new Float64Array(inp.products.length);
   let prevT = 0;
-  let routeGains: { walls: number; lid: number; edges: number; sun: number; openings: number } | null = null;
-  const dryIdx = inp.packs.map((l, k) => (l.pack.kind === "dry_ice" ? k : -1)).filter((k) => k >= 0);
-  let dryIceGone: number | null = null;
-  const packLatent = inp.packs.map((line) => {
-    const m = bodies[inp.packs.indexOf(line)].material;
-    const w = line.pack.kind === "dry_ice" ? 0.2 : 0.5;
-    return { Htop: m.H_J_kg(line.pack.phaseChange_C + w / 2), L: line.pack.latentHeat_J_kg };
+  let routeGains: Gains | null = null;
+  const groupLatent = L.groups.map((g) => {
+    const line = inp.packs[g.line];
+    return { Htop: packMaterial(line.pack).H_J_kg(line.pack.phaseChange_C + packMeltBand_K(line.pack) / 2), L: line.pack.latentHeat_J_kg };
   });
+  const dryGroups = L.groups.map((g, k) => (inp.packs[g.line].pack.kind === "dry_ice" ? k : -1)).filter((k) => k >= 0);
+  let dryIceGone: number | null = null;
+  const latentLeft = (k: number, st: NetworkState) => Math.min(1, Math.max(0, (groupLatent[k].Htop - st.bodyMeanH_J_kg[k]) / groupLatent[k].L));
+  const lineState = (st: NetworkState) =>
+    inp.packs.map((line, i) => {
+      let left = 0;
+      let T = 0;
+      for (let k = 0; k < L.groups.length; k++) {
+        if (L.groups[k].line !== i) continue;
+        left += (latentLeft(k, st) * L.groups[k].count) / line.count;
+        T += (st.bodySurface_C[k] * L.groups[k].count) / line.count;
+      }
+      return { T_C: T, latentLeft: left, massLeft_kg: line.pack.kind === "dry_ice" ? line.pack.mass_kg * line.count * left : line.pack.mass_kg * line.count };
+    });
+  let lastLines: HoldSeriesPoint["packs"] = [];
   const net = runNetwork({
-    innerArea: { walls_m2: Aw, lid_m2: Al },
-    wallLayers,
-    lidLayers,
+    faces,
+    zones: [{ volume_m3: P.airVolume_m3 / 2 }, { volume_m3: P.airVolume_m3 / 2 }],
+    // Well mixed on request: a conductance between the halves far above every other path (10⁴ W/K).
+    zoneExchange: o.wellMixedInside ? () => 1e4 : (z) => zoneExchange_W_K(z[0], z[1], P.midPlane_m2, P.inner.H / 2),
     edgeConductance_W_K: P.edgeG * kScale * v.insulationKScale,
-    airVolume_m3: P.airVolume_m3,
+    edgeZoneShare: [0.5, 0.5],
+    openZoneShare: [0.5, 0.5],
     bodies,
     contacts,
-    innerH_W_m2K: P.innerH,
     boxStart_C: inp.boxStart_C ?? inp.route.segments[0].airTemp_C,
     ambient,
     breakpoints_s: [...breakpoints, P.routeLength_s],
@@ -384,61 +544,67 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
     targetChange_K: 2 / (v.resolution ?? 1),
     onStep: (t, st) => {
       // Band check on every product's centre and surface (no allocation: this runs every step).
-      const check = (j: number, point: "centre" | "surface", T: number, Tp: number, limit: "upper" | "lower", L: number | null) => {
-        if (L === null) return;
-        const out = limit === "upper" ? T > L : T < L;
+      const check = (j: number, point: HoldPoint, T: number, Tp: number, limit: "upper" | "lower", Lim: number | null) => {
+        if (Lim === null) return;
+        const out = limit === "upper" ? T > Lim : T < Lim;
         if (!out) return;
-        const f = t === 0 || T === Tp ? 1 : (L - Tp) / (T - Tp);
+        const f = t === 0 || T === Tp ? 1 : (Lim - Tp) / (T - Tp);
         const tc = t === 0 ? 0 : prevT + Math.min(1, Math.max(0, f)) * (t - prevT);
         if (holdTime === null || tc < holdTime) {
           holdTime = tc;
-          failsFirst = { product: inp.products[j].product.name, line: j, point, limit, limit_C: L };
+          failsFirst = { product: inp.products[j].product.name, line: j, point, limit, limit_C: Lim };
         }
       };
       for (let j = 0; j < inp.products.length; j++) {
         const b = P.bands[j];
-        const c = st.bodyCenter_C[nPacks + j];
-        const s = st.bodySurface_C[nPacks + j];
+        const c = st.bodyCenter_C[nGroups + j];
+        const s = st.bodySurface_C[nGroups + j];
         check(j, "surface", s, prevS[j], "upper", b.upper_C);
         check(j, "surface", s, prevS[j], "lower", b.lower_C);
         check(j, "centre", c, prevC[j], "upper", b.upper_C);
         check(j, "centre", c, prevC[j], "lower", b.lower_C);
+        if (b.lower_C !== null && touching[j].length) {
+          if (t > 0) {
+            const x = contactPoint(j, st, t - prevT);
+            check(j, "next to a pack", x, prevX[j], "lower", b.lower_C);
+            prevX[j] = x;
+          } else prevX[j] = patch[j];
+        }
         prevC[j] = c;
         prevS[j] = s;
       }
       prevT = t;
-      if (routeGains === null && t >= P.routeLength_s - 1e-6) routeGains = { ...st.gains };
-      if (dryIdx.length && dryIceGone === null && dryIdx.every((k) => st.bodyMeanH_J_kg[k] >= packLatent[k].Htop)) dryIceGone = t;
+      if (routeGains === null && t >= P.routeLength_s - 1e-6) routeGains = { ...st.gains, faces: { ...st.gains.faces } };
+      if (dryGroups.length && dryIceGone === null && dryGroups.every((k) => st.bodyMeanH_J_kg[k] >= groupLatent[k].Htop)) dryIceGone = t;
       if (v.keepSeries) {
+        lastLines = lineState(st);
         series.push({
           t_s: t,
           air_C: st.air_C,
-          products: inp.products.map((_, j) => ({ center_C: st.bodyCenter_C[nPacks + j], surface_C: st.bodySurface_C[nPacks + j] })),
-          packs: inp.packs.map((line, k) => {
-            const left = Math.min(1, Math.max(0, (packLatent[k].Htop - st.bodyMeanH_J_kg[k]) / packLatent[k].L));
-            return { T_C: st.bodySurface_C[k], latentLeft: left, massLeft_kg: line.pack.kind === "dry_ice" ? line.pack.mass_kg * line.count * left : line.pack.mass_kg * line.count };
-          }),
+          airLower_C: st.zone_C[0],
+          airUpper_C: st.zone_C[1],
+          products: inp.products.map((_, j) => ({ center_C: st.bodyCenter_C[nGroups + j], surface_C: st.bodySurface_C[nGroups + j] })),
+          packs: lastLines,
         });
-      }
+      } else if (dryGroups.length) lastLines = lineState(st);
       // Past the end of the route, stop as soon as the band is left (the margin is known then).
-      return holdTime !== null && !v.keepSeries;
+      return (holdTime !== null && !v.keepSeries) || (v.stopAt_s !== undefined && t >= v.stopAt_s);
     },
   });
-  const dryIceSublimated = inp.packs.reduce((a, line, k) => {
-    if (line.pack.kind !== "dry_ice") return a;
-    const last = series.length ? series[series.length - 1].packs[k].latentLeft : 0;
-    return a + line.pack.mass_kg * line.count * (1 - last);
-  }, 0);
+  const dryIceSublimated = inp.packs.reduce((a, line, k) => (line.pack.kind !== "dry_ice" ? a : a + line.pack.mass_kg * line.count * (1 - (lastLines[k]?.latentLeft ?? 1))), 0);
   const all = net.gains_J;
-  const totalIn = all.walls + all.lid + all.edges + all.sun + all.openings;
+  const moved = Math.abs(all.faces.base) + Math.abs(all.faces.sidesLower) + Math.abs(all.faces.sidesUpper) + Math.abs(all.faces.lid) + Math.abs(all.edges) + Math.abs(all.openings);
   // The breakdown the user sees covers the route itself, not the extension used for the margin.
-  const g = routeGains ?? all;
+  const g: Gains = routeGains ?? all;
+  // A relative balance error means nothing when almost no heat moves: less than would warm the contents by 1 mK.
+  const meaningful = Math.max(moved, Math.abs(net.storedChange_J)) >= 1e-3 * net.heatCapacity_J_K;
   return {
     holdTime_s: holdTime,
     failsFirst,
     endTime_s: net.t_end_s,
-    heatGain_J: { walls: g.walls, lid: g.lid, edgesAndCorners: g.edges, sun: g.sun, lidOpenings: g.openings },
-    energyBalanceError: Math.abs(net.energyError_J) / Math.max(Math.abs(totalIn), Math.abs(net.storedChange_J), 1e-9),
+    heatGain_J: { sides: g.faces.sidesLower + g.faces.sidesUpper, base: g.faces.base, lid: g.faces.lid, edgesAndCorners: g.edges, lidOpenings: g.openings },
+    energyBalanceError: meaningful ? Math.abs(net.energyError_J) / Math.max(moved, Math.abs(net.storedChange_J)) : null,
+    energyBalanceError_J: net.energyError_J,
     steps: net.steps,
     newtonIterations: net.newtonIterations,
     series: v.keepSeries ? downsample(series) : [],
@@ -469,31 +635,63 @@ export interface HoldCorner {
 }
 
 /**
- * Only the hold runs asked for, without curves, each stopping at its first failure: what the pack-out
- * sizer needs. Throws PhysicsInputError for contents that do not fit or a product with no band.
+ * The uncertainty sample, shared by the hold planner's band and the sizer's judging (one list): the central
+ * run first, then every corner of (outer h ± f, insulation k ± f, conditioning ± K), a spread of zero giving
+ * one value instead of two. No corner is assumed the worst: with sun, a higher outer coefficient lowers the
+ * sol-air excess αI/h_o and can lengthen the hold [ashraeSolAir], so the low end is the minimum over all.
  */
-export function holdRuns(inp: HoldParsed, corners: HoldCorner[]): { runs: HoldRun[]; routeLength_s: number; hasLowerLimit: boolean } {
+export function uncertaintyCorners(u: HoldParsed["uncertainty"]): HoldCorner[] {
+  const out: HoldCorner[] = [{ outerHScale: 1, insulationKScale: 1, conditioningShift_K: 0 }];
+  const signs = (x: number) => (x === 0 ? [0] : [-1, 1]);
+  for (const sh of signs(u.outerH_frac)) for (const sk of signs(u.insulationK_frac)) for (const sc of signs(u.conditioning_K)) {
+    if (sh === 0 && sk === 0 && sc === 0) continue;
+    out.push({ outerHScale: 1 + sh * u.outerH_frac, insulationKScale: 1 + sk * u.insulationK_frac, conditioningShift_K: sc * u.conditioning_K });
+  }
+  return out;
+}
+
+/**
+ * Runs the corners asked for, without curves, each stopping at its first failure: what the pack-out sizer
+ * needs. With `lowOnly`, each run after the first also stops at the earliest failure found so far (it can
+ * only lower the minimum before then), so the minimum hold over the corners is exact and found sooner.
+ * With `stopBelow_s`, the corners stop once the minimum is below it (`complete: false`: the minimum
+ * found is then an upper bound of the low end).
+ * Throws PhysicsInputError for contents that do not fit or a product with no band.
+ */
+export function holdRuns(
+  inp: HoldParsed,
+  corners: HoldCorner[],
+  opts: { lowOnly?: boolean; stopBelow_s?: number } = {},
+): { runs: HoldRun[]; routeLength_s: number; hasLowerLimit: boolean; complete: boolean } {
   const P = prepare(inp);
-  return {
-    runs: corners.map((c) => runOnce(P, { ...c, keepSeries: false })),
-    routeLength_s: P.routeLength_s,
-    hasLowerLimit: P.bands.some((b) => b.lower_C !== null),
-  };
+  const runs: HoldRun[] = [];
+  let low = Infinity;
+  // Where only the minimum matters, drop the corners that provably cannot give it: the box network is
+  // cooperative (every coupling moves heat from warm to cold), so warmer packs at the start keep every
+  // temperature at least as warm at every later time (comparison principle for cooperative systems,
+  // [smith1995Monotone]). With upper limits only, the colder-conditioning corners fail no earlier than
+  // their warmer twins; with lower limits only, the warmer ones. Sun, h and k are not pruned.
+  const hasUpper = P.bands.some((b) => b.upper_C !== null);
+  const hasLower = P.bands.some((b) => b.lower_C !== null);
+  const list = opts.lowOnly ? corners.filter((c, i) => i === 0 || (hasUpper && hasLower) || (hasUpper ? c.conditioningShift_K >= 0 : c.conditioningShift_K <= 0)) : corners;
+  for (const c of list) {
+    const r = runOnce(P, { ...c, keepSeries: false, stopAt_s: opts.lowOnly && Number.isFinite(low) ? low : undefined });
+    runs.push(r);
+    if (r.holdTime_s !== null && r.holdTime_s < low) low = r.holdTime_s;
+    // Asked only for the minimum down to a threshold: once below it, the rest cannot change the verdict.
+    if (opts.stopBelow_s !== undefined && low < opts.stopBelow_s && runs.length < list.length) {
+      return { runs, routeLength_s: P.routeLength_s, hasLowerLimit: hasLower, complete: false };
+    }
+  }
+  return { runs, routeLength_s: P.routeLength_s, hasLowerLimit: hasLower, complete: true };
 }
 
 export function runHoldParsed(inp: HoldParsed, opts: { resolution?: number } = {}): HoldResult {
   const P = prepare(inp);
   const central = runOnce(P, { resolution: opts.resolution, outerHScale: 1, insulationKScale: 1, conditioningShift_K: 0, keepSeries: true });
-  // Uncertainty: all eight corners of (outer h ± f, insulation k ± f, conditioning ± K).
-  const u = inp.uncertainty;
+  // Uncertainty: the central run and every corner of the shared sample.
   const holds: (number | null)[] = [central.holdTime_s];
-  for (const sh of [-1, 1]) for (const sk of [-1, 1]) for (const sc of [-1, 1]) {
-    if (u.outerH_frac === 0 && sh === 1) continue;
-    if (u.insulationK_frac === 0 && sk === 1) continue;
-    if (u.conditioning_K === 0 && sc === 1) continue;
-    const r = runOnce(P, { resolution: opts.resolution, outerHScale: 1 + sh * u.outerH_frac, insulationKScale: 1 + sk * u.insulationK_frac, conditioningShift_K: sc * u.conditioning_K, keepSeries: false });
-    holds.push(r.holdTime_s);
-  }
+  for (const c of uncertaintyCorners(inp.uncertainty).slice(1)) holds.push(runOnce(P, { ...c, resolution: opts.resolution, keepSeries: false }).holdTime_s);
   const asNumber = (x: number | null) => (x === null ? Infinity : x);
   const low = Math.min(...holds.map(asNumber));
   const high = Math.max(...holds.map(asNumber));
@@ -506,7 +704,7 @@ export function runHoldParsed(inp: HoldParsed, opts: { resolution?: number } = {
   const ua = steadyUA(P.wallLayers, P.lidLayers, P.inner, hOuter[0], P.innerH, P.kScaleForUA, P.edgeG);
   const assumptions = [...P.assumptions];
   assumptions.push(
-    `Uncertainty band: the lowest and highest hold over 8 runs with outer coefficient ±${Math.round(inp.uncertainty.outerH_frac * 100)} %, insulation conductivity ±${Math.round(inp.uncertainty.insulationK_frac * 100)} % and pack conditioning ±${inp.uncertainty.conditioning_K} K`,
+    `Uncertainty band: the lowest and highest hold over the central run and every corner of outer coefficient ±${Math.round(inp.uncertainty.outerH_frac * 100)} %, insulation conductivity ±${Math.round(inp.uncertainty.insulationK_frac * 100)} % and pack conditioning ±${inp.uncertainty.conditioning_K} K`,
   );
   assumptions.push(`After the route ends, the last segment's conditions are continued for ${Math.round(inp.extendFraction * 100)} % of the route length to measure the margin`);
   return {
@@ -527,6 +725,7 @@ export function runHoldParsed(inp: HoldParsed, opts: { resolution?: number } = {
     outerH_W_m2K: hOuter,
     innerH_W_m2K: P.innerH,
     hasDryIce: P.hasDryIce,
+    compliance: holdCompliance(inp.ruleSet, inp.products.map((l, j) => ({ name: l.product.name, start_C: l.start_C, mode: P.bands[j].mode })), central.series, route, Number.isFinite(low) ? low : null),
     assumptions,
     warnings,
   };

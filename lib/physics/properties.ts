@@ -8,15 +8,23 @@
  *   to the unfrozen value as the ice fraction goes to zero (no jump at t_f) and gives about
  *   1.3 W/(m·K) for frozen lean beef at −20 °C, where ice-dispersed gives about 1.0.
  * - Ice fraction below the initial freezing point t_f: x_ice = (x_wo − x_b)(1 − t_f/t), bound water
- *   x_b = 0.4 x_protein [ashraeFoodProps, schwartzberg1976].
+ *   x_b = 0.4 x_protein [ashraeFoodProps, schwartzberg1976]. A food without solutes (t_f at or above
+ *   −0.05 °C, pure water) melts at a sharp front: all its freezable water melts over the 0.1 K just
+ *   below t_f, as for a pure substance [carslawJaeger].
  * - Latent heat of the food: L = x_wo × 333.6 kJ/kg [latentWater].
- * - Enthalpy H(T) is the integral of the apparent specific heat c_app(T) = c_sens(T) − L0 dx_ice/dT,
- *   tabulated on a 0.05 K grid, so H and c are consistent by construction (test/unit/properties.test.ts).
- * - Missing initial freezing point: Pham (1996) for meat, θ_F = −4.66 x_o/x_w − 46.4 x_a/x_w [pham1996Tf].
+ * - Enthalpy H(T) = ∫ c_sens dT − L0 x_ice(T): the sensible part integrated (Simpson) and the latent
+ *   part exact, tabulated on a 0.1 K grid; the apparent specific heat c_app = dH/dT is the slope of the
+ *   same table, so H and c are consistent by construction (test/unit/physics.test.ts).
+ * - Missing initial freezing point: Pham (1996) for meat, θ_F = −4.66 x_o/x_w − 46.4 x_a/x_w [pham1996Tf],
+ *   bounded to TF_ESTIMATE_FLOOR_C…0 °C, with a warning outside the water contents it suits.
+ * - Porosity: an item whose density (the override, or mass ÷ volume) is well below the composition
+ *   density holds air; the air is kept in the conductivity (Maxwell–Eucken, air dispersed) [maxwellEucken].
  *
  * Explicit overrides from the product template always win.
  */
 import { PhysicsInputError, requireFraction, requirePositive, requireTemperature, warnRange } from "./validation";
+import type { Product } from "../schemas/templates";
+import type { ItemShape } from "./geometry";
 
 export interface Composition {
   water: number;
@@ -89,15 +97,54 @@ export function validateComposition(c: Composition): void {
 
 /** Initial freezing point estimate, Pham (1996) for meat [pham1996Tf]. T in °C. */
 export function estimateInitialFreezing_C(c: Composition): number {
-  if (c.water <= 0) return -40;
-  const other = c.protein + c.fat + c.carbohydrate + c.fibre;
-  return -4.66 * (other / c.water) - 46.4 * (c.ash / c.water);
+  return initialFreezingEstimate(c).Tf_C;
 }
+
+/**
+ * Lowest initial freezing point the estimate may return, −20 °C. The lowest initial freezing points in the
+ * ASHRAE table of foods are about −16 °C (dried dates; ASHRAE Refrigeration Handbook 2006, Ch. 9, Table 3,
+ * from memory), and NaCl brine, the strongest common food solute, freezes no lower than its eutectic,
+ * −21.1 °C (published-values.md §5.3, from memory). Pham's formula, linear in solids ÷ water, runs far
+ * below this for dry foods (below −800 °C at 1 % water), where a food barely freezes at all.
+ */
+export const TF_ESTIMATE_FLOOR_C = -20;
+/**
+ * Water contents Pham's (1996) meat formula suits: about 55–82 % (lean and fatty meats, poultry and fish;
+ * our reading of the fitted data, from memory). Outside it the estimate carries a warning.
+ */
+export const PHAM_TF_WATER_RANGE = [0.55, 0.82] as const;
+
+/** Pham (1996) estimate bounded to [TF_ESTIMATE_FLOOR_C, 0] °C, with the raw value and warnings [pham1996Tf]. */
+export function initialFreezingEstimate(c: Composition): { Tf_C: number; raw_C: number; warnings: string[] } {
+  const warnings: string[] = [];
+  const other = c.protein + c.fat + c.carbohydrate + c.fibre;
+  const raw = c.water > 0 ? -4.66 * (other / c.water) - 46.4 * (c.ash / c.water) : -Infinity;
+  let Tf = Math.min(0, raw);
+  const [lo, hi] = PHAM_TF_WATER_RANGE;
+  if (c.water < lo || c.water > hi) {
+    warnings.push(
+      `The composition has ${(c.water * 100).toFixed(0)} % water, outside the ${Math.round(lo * 100)}–${Math.round(hi * 100)} % that Pham's (1996) freezing-point formula was fitted to: the estimate is rough, give the measured initial freezing point if you have it`,
+    );
+  }
+  if (!(Tf >= TF_ESTIMATE_FLOOR_C)) {
+    warnings.push(
+      `The formula gives ${Number.isFinite(raw) ? raw.toFixed(0) + " °C" : "no value"} for so little water, which is not physical; bounded at ${TF_ESTIMATE_FLOOR_C} °C (no food in the published tables starts freezing below about −16 °C). A food this dry may hardly freeze: treat every freezing or thawing figure for it as uncertain`,
+    );
+    Tf = TF_ESTIMATE_FLOOR_C;
+  }
+  return { Tf_C: Tf, raw_C: raw, warnings };
+}
+
+/** Initial freezing points at or above this (°C) mean a food without solutes, which melts at a sharp front. */
+export const SHARP_FRONT_TF_C = -0.05;
+/** Width of the melting band of a food without solutes, 0.1 K (a numerical stand-in for a sharp front, as for packs). */
+export const SHARP_MELT_BAND_K = 0.1;
 
 /** Ice mass fraction at T (°C) for a food with initial freezing point Tf (°C) [ashraeFoodProps]. */
 export function iceFraction(c: Composition, Tf_C: number, T_C: number): number {
   if (T_C >= Tf_C) return 0;
   const freezable = Math.max(0, c.water - BOUND_WATER_PER_PROTEIN * c.protein);
+  if (Tf_C >= SHARP_FRONT_TF_C) return freezable * Math.min(1, (Tf_C - T_C) / SHARP_MELT_BAND_K);
   return Math.min(freezable, Math.max(0, freezable * (1 - Tf_C / T_C)));
 }
 
@@ -105,6 +152,7 @@ export function iceFraction(c: Composition, Tf_C: number, T_C: number): number {
 function iceFractionSlope(c: Composition, Tf_C: number, T_C: number): number {
   if (T_C >= Tf_C) return 0;
   const freezable = Math.max(0, c.water - BOUND_WATER_PER_PROTEIN * c.protein);
+  if (Tf_C >= SHARP_FRONT_TF_C) return T_C > Tf_C - SHARP_MELT_BAND_K ? -freezable / SHARP_MELT_BAND_K : 0;
   return (freezable * Tf_C) / (T_C * T_C); // negative: ice grows as T falls
 }
 
@@ -153,6 +201,8 @@ export interface FoodInput {
   volume_m3?: number;
   /** Whether Pham's meat formula suits this product when no freezing point is given. */
   isMeatLike?: boolean;
+  /** A hollow item (shell around a cavity): its volume is the shell's, so a mismatch is a size error, not air. */
+  hollow?: boolean;
 }
 
 /** Everything the solvers need, tabulated for speed. Temperatures in °C; H relative to −40 °C. */
@@ -170,8 +220,12 @@ export interface FoodThermal {
   k_W_mK(T_C: number): number;
   /** Ice mass fraction. */
   ice(T_C: number): number;
-  /** The analytic apparent specific heat that the enthalpy table integrates (for checks). */
+  /** The analytic apparent specific heat whose integral the enthalpy table holds (for checks). */
   cAnalytic_J_kgK(T_C: number): number;
+  /** Sensible specific heat without latent heat, J/(kg·K) (overrides applied): what Plank and Pham need. */
+  cSensible_J_kgK(T_C: number): number;
+  /** Latent heat still held as ice at T, J/kg: what the enthalpy model releases warming from T to above t_f. */
+  latentHeld_J_kg(T_C: number): number;
 }
 
 const T_MIN = -100;
@@ -185,7 +239,7 @@ const CACHE_SIZE = 64;
 
 /** Properties of a food, tabulated once per distinct input (the tables are reused across runs). */
 export function foodThermal(input: FoodInput): FoodThermal {
-  const key = JSON.stringify([input.composition, input.initialFreezing_C ?? null, input.overrides ?? {}, input.mass_kg ?? null, input.volume_m3 ?? null, input.isMeatLike ?? null]);
+  const key = JSON.stringify([input.composition, input.initialFreezing_C ?? null, input.overrides ?? {}, input.mass_kg ?? null, input.volume_m3 ?? null, input.isMeatLike ?? null, input.hollow ?? false]);
   const hit = CACHE.get(key);
   if (hit) return { ...hit, warnings: [...hit.warnings] };
   const made = buildFoodThermal(input);
@@ -201,14 +255,16 @@ function buildFoodThermal(input: FoodInput): FoodThermal {
   const warnings: string[] = [];
   let Tf = input.initialFreezing_C ?? null;
   if (Tf === null || Tf === undefined) {
-    Tf = estimateInitialFreezing_C(c);
+    const est = initialFreezingEstimate(c);
+    Tf = est.Tf_C;
     warnings.push(
       `Initial freezing point not given; estimated ${Tf.toFixed(1)} °C from composition by Pham (1996)${input.isMeatLike === false ? ", a formula fitted to meats: give the measured value if you have it" : ""}`,
+      ...est.warnings,
     );
   } else requireTemperature("initialFreezing_C", Tf);
-  if (Tf > -0.05) {
-    warnings.push(`Initial freezing point ${Tf} °C treated as −0.05 °C so the ice-fraction model stays defined`);
-    Tf = -0.05;
+  if (Tf > 0) Tf = 0;
+  if (Tf >= SHARP_FRONT_TF_C) {
+    warnings.push(`Initial freezing point ${Tf.toFixed(2)} °C: treated as a food without solutes, which melts at a sharp front (within ${SHARP_MELT_BAND_K} K below it)`);
   }
   for (const [k, v] of Object.entries(o)) if (v !== null && v !== undefined) requirePositive(`overrides.${k}`, v as number);
 
@@ -217,16 +273,33 @@ function buildFoodThermal(input: FoodInput): FoodThermal {
   const latent = o.latentHeat_J_kg ?? latentModel;
   const latentScale = latentModel > 0 ? latent / latentModel : 0;
 
-  // Density: composition, or override; porous if the item's own mass/volume is well below it.
+  // Density: composition, or override; porous if the override or the item's own mass/volume is well below it.
   const rhoSolid = mixtureDensity(c, 0, Math.max(Tf, 0) + 1);
   let rho = o.density_kg_m3 ?? rhoSolid;
   let porosity = 0;
-  if (input.mass_kg && input.volume_m3) {
-    const rhoBulk = input.mass_kg / input.volume_m3;
-    if (o.density_kg_m3) {
+  if (o.density_kg_m3) {
+    if (input.mass_kg && input.volume_m3) {
+      const rhoBulk = input.mass_kg / input.volume_m3;
       if (Math.abs(rhoBulk / rho - 1) > 0.15) {
         warnings.push(`Mass ÷ volume is ${rhoBulk.toFixed(0)} kg/m³ but the density override is ${rho.toFixed(0)} kg/m³; the override is used`);
       }
+    }
+    if (rho < 0.9 * rhoSolid) {
+      // The same air as without the override: the override sets how much of the item is air.
+      porosity = 1 - rho / rhoSolid;
+      warnings.push(
+        `The density override (${rho.toFixed(0)} kg/m³) is below the composition density (${rhoSolid.toFixed(0)} kg/m³): treated as porous with ${(porosity * 100).toFixed(0)} % air, conductivity by Maxwell–Eucken with air pores. Airy items are the least certain case`,
+      );
+    }
+  } else if (input.mass_kg && input.volume_m3) {
+    const rhoBulk = input.mass_kg / input.volume_m3;
+    if (input.hollow && Math.abs(rhoBulk / rhoSolid - 1) > 0.1) {
+      warnings.push(
+        `The hollow item's shell holds ${((rhoSolid * input.volume_m3)).toFixed(2)} kg at the composition density (${rhoSolid.toFixed(0)} kg/m³), not the stated ${input.mass_kg} kg: check the outer size and the wall thickness. The stated mass is used`,
+      );
+      rho = rhoBulk;
+    } else if (input.hollow) {
+      // Consistent within 10 %: keep the composition density.
     } else if (rhoBulk < 0.9 * rhoSolid) {
       porosity = 1 - rhoBulk / rhoSolid;
       rho = rhoBulk;
@@ -239,12 +312,13 @@ function buildFoodThermal(input: FoodInput): FoodThermal {
     }
   }
 
-  const cAnalytic = (T: number): number => {
+  const cSens = (T: number): number => {
     const frozen = T < Tf!;
     const x = iceFraction(c, Tf!, T);
-    const sens = frozen ? o.cpFrozen_J_kgK ?? sensibleSpecificHeat(c, x, T) : o.cpUnfrozen_J_kgK ?? sensibleSpecificHeat(c, 0, T);
-    return sens - latentScale * L0_J_KG * iceFractionSlope(c, Tf!, T);
+    return frozen ? o.cpFrozen_J_kgK ?? sensibleSpecificHeat(c, x, T) : o.cpUnfrozen_J_kgK ?? sensibleSpecificHeat(c, 0, T);
   };
+  const cAnalytic = (T: number): number => cSens(T) - latentScale * L0_J_KG * iceFractionSlope(c, Tf!, T);
+  const latentHeld = (T: number): number => latentScale * L0_J_KG * iceFraction(c, Tf!, T);
   const xIceRef = iceFraction(c, Tf, -40) || 1;
   const kAt = (T: number): number => {
     const x = iceFraction(c, Tf!, T);
@@ -257,26 +331,28 @@ function buildFoodThermal(input: FoodInput): FoodThermal {
     return porosity > 0 ? maxwellEucken(k, AIR_K_W_MK, porosity) : k;
   };
 
-  // Tabulate H by integrating c_app cell by cell (Simpson, split at Tf), and k.
+  // Tabulate H: the sensible part by integrating c_sens cell by cell (Simpson, split at Tf; the steep
+  // stretch just below Tf gets four sub-intervals), minus the latent heat still held as ice, exactly.
   const H = new Float64Array(N);
   const K = new Float64Array(N);
   for (let i = 0; i < N; i++) K[i] = kAt(T_MIN + i * DT);
-  // Simpson on each cell, sharing end values; the cell holding Tf is split there, and the steep
-  // stretch just below Tf gets four sub-intervals.
-  const simpson = (a: number, b: number, ca: number, cb: number) => ((b - a) / 6) * (ca + 4 * cAnalytic((a + b) / 2) + cb);
-  let cPrev = cAnalytic(T_MIN);
+  const simpson = (a: number, b: number, ca: number, cb: number) => ((b - a) / 6) * (ca + 4 * cSens((a + b) / 2) + cb);
+  let cPrev = cSens(T_MIN);
+  let Hs = 0;
+  H[0] = -latentHeld(T_MIN);
   for (let i = 1; i < N; i++) {
     const a = T_MIN + (i - 1) * DT;
     const b = T_MIN + i * DT;
-    const cb = cAnalytic(b);
+    const cb = cSens(b);
     let dH: number;
-    if (a < Tf && b > Tf) dH = simpson(a, Tf - 1e-9, cPrev, cAnalytic(Tf - 1e-9)) + simpson(Tf, b, cAnalytic(Tf), cb);
+    if (a < Tf && b > Tf) dH = simpson(a, Tf - 1e-9, cPrev, cSens(Tf - 1e-9)) + simpson(Tf, b, cSens(Tf), cb);
     else if (a > Tf - 5 && a < Tf) {
       dH = 0;
       const q = DT / 4;
-      for (let j = 0; j < 4; j++) dH += simpson(a + j * q, a + (j + 1) * q, cAnalytic(a + j * q), cAnalytic(a + (j + 1) * q));
+      for (let j = 0; j < 4; j++) dH += simpson(a + j * q, a + (j + 1) * q, cSens(a + j * q), cSens(a + (j + 1) * q));
     } else dH = simpson(a, b, cPrev, cb);
-    H[i] = H[i - 1] + dH;
+    Hs += dH;
+    H[i] = Hs - latentHeld(b);
     cPrev = cb;
   }
   const iRef = Math.round((H_REFERENCE_C - T_MIN) / DT);
@@ -313,6 +389,8 @@ function buildFoodThermal(input: FoodInput): FoodThermal {
     },
     ice: (T) => iceFraction(c, Tf!, T) * (freezable > 0 ? 1 : 0),
     cAnalytic_J_kgK: cAnalytic,
+    cSensible_J_kgK: cSens,
+    latentHeld_J_kg: latentHeld,
   };
 }
 
@@ -359,4 +437,35 @@ export function simpleMaterial(p: {
       return p.kSolid_W_mK + f * (p.kLiquid_W_mK - p.kSolid_W_mK);
     },
   };
+}
+
+/** Names and categories for which Pham's meat formula for the initial freezing point suits (meat, poultry, fish). */
+export const MEAT_LIKE = /meat|poultry|fish|beef|pork|lamb|chicken|turkey|cod|salmon/i;
+
+/**
+ * A product template's thermal properties: its composition and overrides, its bulk density from the
+ * template's mass over its shape's volume (porosity), and whether Pham's meat formula suits it. The one
+ * place a planner turns a product into a `FoodThermal` (the cooling planner uses it; the hold, thaw and
+ * warm-up planners still build the same input themselves).
+ */
+export function productThermal(
+  p: Pick<Product, "name" | "category" | "composition" | "initialFreezing_C" | "density_kg_m3" | "cpUnfrozen_J_kgK" | "cpFrozen_J_kgK" | "kUnfrozen_W_mK" | "kFrozen_W_mK" | "latentHeat_J_kg" | "mass_kg">,
+  shape: Pick<ItemShape, "volume_m3" | "hollow">,
+): FoodThermal {
+  return foodThermal({
+    composition: p.composition,
+    initialFreezing_C: p.initialFreezing_C,
+    overrides: {
+      density_kg_m3: p.density_kg_m3,
+      cpUnfrozen_J_kgK: p.cpUnfrozen_J_kgK,
+      cpFrozen_J_kgK: p.cpFrozen_J_kgK,
+      kUnfrozen_W_mK: p.kUnfrozen_W_mK,
+      kFrozen_W_mK: p.kFrozen_W_mK,
+      latentHeat_J_kg: p.latentHeat_J_kg,
+    },
+    mass_kg: p.mass_kg,
+    volume_m3: shape.volume_m3,
+    isMeatLike: MEAT_LIKE.test(p.category + " " + p.name),
+    hollow: shape.hollow !== null,
+  });
 }

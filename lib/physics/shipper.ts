@@ -1,22 +1,26 @@
 /**
  * The insulated-box network model, solved implicitly (backward Euler) by Newton iterations.
  *
- * Nodes: wall and lid layer nodes (constant properties), one inside-air node, each coolant pack
- * (enthalpy, distributed across its half-thickness, or one node for dry ice) and each product
- * (enthalpy, distributed, its own shape). Chains couple to the air node at one end only, so each
- * Newton step is solved exactly by eliminating every chain's tridiagonal system towards the air node
- * and solving a scalar equation for the air (a Schur complement on an "arrow" matrix).
+ * Nodes: wall and lid layer nodes (constant properties) for each face part, one or two inside-air zones
+ * (lower and upper half), each coolant pack group (enthalpy, distributed across its half-thickness, or one
+ * node for dry ice) and each product (enthalpy, distributed, its own shape). Chains couple to the zones at
+ * their end node; the end nodes of chains in surface contact (pack–load, pack–face, load–base) join the
+ * zones in a small dense system, and every other chain is eliminated onto the zones (a Schur complement
+ * on an "arrow" matrix), so each Newton step is solved exactly and contacts are implicit.
  *
  * - Outer faces: combined film h_o (convection by the core's correlations + radiation), driven by the
  *   sol-air temperature t_e = t_o + αI/h_o − εΔR/h_o [ashraeSolAir]: the lid sees all the sun and the sky
- *   correction (outdoors only, when sun > 0), the sides a share of the sun, the base none.
+ *   correction (outdoors only, when sun > 0), the sides a share of the sun, the base none. The heat booked
+ *   per face is the net heat through its outer film (air, sun and sky together).
  * - Walls: layers in series, at least one node per layer with its heat capacity; areas are the inner
  *   faces. Edges and corners add conduction shape factors S = 0.54 D per edge and S = 0.15 L per corner,
  *   with the wall's overall thickness L and effective conductivity [incropera6, Table 4.1, cases 8–9,
- *   from memory], acting between outside air and inside air.
- * - Inside: every inner surface exchanges with the air node through a combined coefficient h_i
- *   (natural convection ≈ 2–5 W/(m²·K) in closed coolers, from memory, plus linearised radiation),
- *   so the air node stands for the mixed air-and-radiant inside temperature.
+ *   from memory], acting between outside air and the inside zones.
+ * - Inside: an open inner surface exchanges with its zone through a combined coefficient h_i (natural
+ *   convection ≈ 2–5 W/(m²·K) in closed coolers, from memory, plus linearised radiation), so a zone node
+ *   stands for the mixed air-and-radiant temperature of its half; a covered part of a face exchanges with
+ *   the body lying on it through a contact coefficient instead. The zones exchange through a conductance
+ *   the caller gives (hold.ts: natural convection when colder above, conduction when stable, plus radiation).
  * - Lid openings: during each opening the inside air exchanges with outside air at a set number of
  *   air changes per minute; moisture and condensation are ignored.
  * - Dry ice: one node at the sublimation point while solid remains; sublimated CO₂ leaves the box.
@@ -43,20 +47,41 @@ export interface BodySpec {
   count: number;
   nodes: number;
   start_C: number;
+  /** Film conductance of the exposed surface to each air zone, W/K (all items together). */
+  zoneG_W_K: number[];
+}
+
+/** The parts of the box a face belongs to: sun and reporting follow the kind. */
+export type FaceKind = "base" | "sidesLower" | "sidesUpper" | "lid";
+
+/**
+ * One part of a box face: its layers (outside first) over `area_m2`, outside exchanging with the ambient
+ * through the outer film and the face kind's sol-air temperature, inside either exchanging with an air zone
+ * through the inner film or touching a body (a pack lying on it, the load resting on it) through a contact
+ * coefficient.
+ */
+export interface FaceSpec {
+  kind: FaceKind;
+  layers: WallLayerSpec[];
+  area_m2: number;
+  inner: { zone: number; h_W_m2K: number } | { body: number; h_W_m2K: number };
 }
 
 export interface NetworkSpec {
-  innerArea: { walls_m2: number; lid_m2: number };
-  wallLayers: WallLayerSpec[]; // outside first
-  lidLayers: WallLayerSpec[];
+  faces: FaceSpec[];
+  /** Inside air zones (one well-mixed zone, or lower and upper halves). */
+  zones: { volume_m3: number }[];
+  /** Conductance between zone 0 (lower) and zone 1 (upper), W/K, from the zone temperatures at the start of each step. */
+  zoneExchange?: (zone_C: number[]) => number;
   edgeConductance_W_K: number;
-  airVolume_m3: number;
+  /** Share of the edge conductance and of the lid-opening exchange that reaches each zone (sums to 1). */
+  edgeZoneShare: number[];
+  openZoneShare: number[];
   bodies: BodySpec[]; // packs then products (any order)
   contacts: { a: number; b: number; conductance_W_K: number }[]; // body indices, surfaces in contact
-  innerH_W_m2K: number;
   boxStart_C: number;
   /** Ambient conditions as step functions of time. */
-  ambient: (t_s: number) => { air_C: number; wallSolAir_C: number; lidSolAir_C: number; outerH_W_m2K: number; openExchange_W_K: number };
+  ambient: (t_s: number) => { air_C: number; solAir_C: Record<FaceKind, number>; outerH_W_m2K: number; openExchange_W_K: number };
   breakpoints_s: number[];
   tEnd_s: number;
   /** Largest step, s (default 1800), and the enthalpy change per step the step control aims at, in kelvin of a 3 kJ/(kg·K) body (default 2). */
@@ -68,24 +93,38 @@ export interface NetworkSpec {
   onStep?: (t_s: number, net: NetworkState) => boolean | void;
 }
 
+export interface Gains {
+  /** Net heat in through each kind of face (outer film, sun and sky together), J. */
+  faces: Record<FaceKind, number>;
+  edges: number;
+  openings: number;
+}
+
 export interface NetworkState {
+  /** Volume-weighted inside air, and each zone. */
   air_C: number;
+  zone_C: number[];
   /** Heat in by path so far, J (cumulative). */
-  gains: { walls: number; lid: number; edges: number; sun: number; openings: number };
-  /** For each body: centre (node 0) and surface (last node) temperatures, and the mean specific enthalpy. */
+  gains: Gains;
+  /** For each body: centre (node 0), surface (last node) and the node under the surface, and the mean specific enthalpy. */
   bodyCenter_C: Float64Array;
   bodySurface_C: Float64Array;
+  bodySub_C: Float64Array;
   bodyMeanH_J_kg: Float64Array;
 }
 
 export interface NetworkResult {
   steps: number;
   newtonIterations: number;
-  gains_J: { walls: number; lid: number; edges: number; sun: number; openings: number; contactsCheck: number };
+  gains_J: Gains;
   storedChange_J: number;
   energyError_J: number;
   t_end_s: number;
+  /** Heat capacity of everything in the model at the start, J/K (to judge whether a balance error means anything). */
+  heatCapacity_J_K: number;
 }
+
+const FACE_KINDS: FaceKind[] = ["base", "sidesLower", "sidesUpper", "lid"];
 
 interface Chain {
   n: number;
@@ -94,25 +133,22 @@ interface Chain {
   Hold: Float64Array;
   mass: Float64Array; // kg per node (enthalpy chains) or heat capacity J/K (linear chains)
   Gfac: Float64Array; // n-1 link factors: W/K per (W/(m·K)) for enthalpy chains, or W/K for linear chains
-  kLin: Float64Array | null; // per-node k for linear chains (unused: G precomputed)
   mat: EnthalpyMaterial | null;
-  Gend: number; // coupling of the last node to air, W/K
-  Gout: number; // coupling of node 0 to the outside (walls only), W/K
-  isWall: "walls" | "lid" | null;
+  /** Coupling of the last node to each air zone, W/K. */
+  U: Float64Array;
   // Newton work arrays
   a: Float64Array;
   b: Float64Array;
   c: Float64Array;
-  d: Float64Array;
   R: Float64Array;
   bp: Float64Array;
   dp: Float64Array;
-  extra: Float64Array; // explicit-in-iteration contact flux into the last node, W
-  extraDiag: Float64Array;
+  extra: number; // explicit-in-iteration contact flux into the last node, W
+  extraDiag: number;
   k: Float64Array; // node conductivities of this iteration (enthalpy chains)
 }
 
-function newChain(n: number): Chain {
+function newChain(n: number, zones: number): Chain {
   const f = () => new Float64Array(n);
   return {
     n,
@@ -121,33 +157,28 @@ function newChain(n: number): Chain {
     Hold: f(),
     mass: f(),
     Gfac: new Float64Array(Math.max(0, n - 1)),
-    kLin: null,
     mat: null,
-    Gend: 0,
-    Gout: 0,
-    isWall: null,
+    U: new Float64Array(zones),
     a: f(),
     b: f(),
     c: f(),
-    d: f(),
     R: f(),
     bp: f(),
     dp: f(),
-    extra: f(),
-    extraDiag: f(),
+    extra: 0,
+    extraDiag: 0,
     k: f(),
   };
 }
 
-/** Builds a wall chain: nodes outside → inside; first node couples to the outer film, last to the inner film. */
-function wallChain(layers: WallLayerSpec[], area: number, kind: "walls" | "lid", refine: number): { chain: Chain; halfOuter_K_W: number; halfInner_K_W: number } {
+/** Builds a wall chain: nodes outside → inside; first node couples to the outer film, last to the inner side. */
+function wallChain(layers: WallLayerSpec[], area: number, refine: number, zones: number): { chain: Chain; halfOuter_K_W: number; halfInner_K_W: number } {
   const cells: { dx: number; k: number; cap: number }[] = [];
   for (const L of layers) {
     const m = (L.insulation && L.thickness_m > 0.01 ? 2 : 1) * refine;
     for (let j = 0; j < m; j++) cells.push({ dx: L.thickness_m / m, k: L.k_W_mK, cap: L.rho_kg_m3 * L.c_J_kgK * area * (L.thickness_m / m) });
   }
-  const ch = newChain(cells.length);
-  ch.isWall = kind;
+  const ch = newChain(cells.length, zones);
   for (let i = 0; i < cells.length; i++) ch.mass[i] = cells[i].cap;
   for (let i = 0; i < cells.length - 1; i++) {
     const r = cells[i].dx / 2 / (cells[i].k * area) + cells[i + 1].dx / 2 / (cells[i + 1].k * area);
@@ -164,9 +195,9 @@ function shellVolume(m: number, a: number, b: number): number {
 }
 
 /** A body chain: nodes centre → surface (vertex-centred, half cells at both ends), scaled to the real volume and area × count. */
-function bodyChain(b: BodySpec): Chain {
+function bodyChain(b: BodySpec, zones: number): Chain {
   const n = Math.max(1, b.nodes);
-  const ch = newChain(n);
+  const ch = newChain(n, zones);
   ch.mat = b.material;
   const totalMass = b.material.rho_kg_m3 * b.volume_m3 * b.count;
   if (n === 1) {
@@ -183,41 +214,71 @@ function bodyChain(b: BodySpec): Chain {
     for (let i = 0; i < n - 1; i++) ch.Gfac[i] = (Math.pow(i * dr + dr / 2, b.shapeM) * areaScale) / dr;
   }
   ch.T.fill(b.start_C);
+  for (let z = 0; z < zones; z++) ch.U[z] = b.zoneG_W_K[z] ?? 0;
   return ch;
+}
+
+/** Solves the small dense system A x = r in place (Gaussian elimination; A is diagonally dominant). */
+function solveSmall(A: number[][], r: number[]): number[] {
+  const n = r.length;
+  for (let i = 0; i < n; i++) {
+    for (let j = i + 1; j < n; j++) {
+      const f = A[j][i] / A[i][i];
+      for (let k = i; k < n; k++) A[j][k] -= f * A[i][k];
+      r[j] -= f * r[i];
+    }
+  }
+  const x = new Array<number>(n).fill(0);
+  for (let i = n - 1; i >= 0; i--) {
+    let s = r[i];
+    for (let k = i + 1; k < n; k++) s -= A[i][k] * x[k];
+    x[i] = s / A[i][i];
+  }
+  return x;
 }
 
 export function runNetwork(spec: NetworkSpec): NetworkResult {
   if (!(spec.tEnd_s > 0)) throw new PhysicsInputError("route", "the route has no length");
+  const nZ = Math.max(1, spec.zones.length);
   const chains: Chain[] = [];
-  const hi = spec.innerH_W_m2K;
-  // Walls and lid.
-  const amb0 = spec.ambient(0);
-  const wallParts: { chain: Chain; halfOuter: number; halfInner: number; area: number }[] = [];
-  for (const [kind, layers, area] of [
-    ["walls", spec.wallLayers, spec.innerArea.walls_m2],
-    ["lid", spec.lidLayers, spec.innerArea.lid_m2],
-  ] as const) {
-    const w = wallChain(layers, area, kind, Math.max(1, Math.round(spec.refine ?? 1)));
+  const refine = Math.max(1, Math.round(spec.refine ?? 1));
+  // Faces.
+  const faceParts: { chain: Chain; halfOuter: number; area: number; kind: FaceKind; contact: { body: number; G: number } | null }[] = [];
+  for (const f of spec.faces) {
+    const w = wallChain(f.layers, f.area_m2, refine, nZ);
     w.chain.T.fill(spec.boxStart_C);
-    w.chain.Gend = 1 / (w.halfInner_K_W + 1 / (hi * area));
+    const G = 1 / (w.halfInner_K_W + 1 / (f.inner.h_W_m2K * f.area_m2));
+    let contact: { body: number; G: number } | null = null;
+    if ("zone" in f.inner) w.chain.U[f.inner.zone] = G;
+    else contact = { body: f.inner.body, G };
     chains.push(w.chain);
-    wallParts.push({ chain: w.chain, halfOuter: w.halfOuter_K_W, halfInner: w.halfInner_K_W, area });
+    faceParts.push({ chain: w.chain, halfOuter: w.halfOuter_K_W, area: f.area_m2, kind: f.kind, contact });
   }
-  const nWallChains = chains.length;
+  const nFaces = chains.length;
   // Bodies.
   const bodyStart = chains.length;
-  for (const b of spec.bodies) {
-    const ch = bodyChain(b);
-    ch.Gend = hi * b.area_m2 * b.count;
-    chains.push(ch);
-  }
+  for (const b of spec.bodies) chains.push(bodyChain(b, nZ));
+  // Every surface contact, as pairs of chain indices (last node to last node).
+  const links: { a: number; b: number; G: number }[] = [
+    ...spec.contacts.map((c) => ({ a: bodyStart + c.a, b: bodyStart + c.b, G: c.conductance_W_K })),
+    ...faceParts.flatMap((f, i) => (f.contact ? [{ a: i, b: bodyStart + f.contact.body, G: f.contact.G }] : [])),
+  ];
+  // Chains with a surface contact keep their end node in the small dense system with the zones, so
+  // contacts are solved implicitly (Newton stays quadratic and the energy balance closes to round-off).
+  const keyRow = new Int32Array(chains.length).fill(-1);
+  let nK = nZ;
+  for (const c of links) for (const ci of [c.a, c.b]) if (keyRow[ci] < 0) keyRow[ci] = nK++;
   const airRho = P_ATM_PA / (R_AIR_J_KGK * (spec.boxStart_C + KELVIN_OFFSET));
-  const Cair = Math.max(airRho * CP_AIR_J_KGK * Math.max(spec.airVolume_m3, 1e-4), 1);
-  let Tair = spec.boxStart_C;
-  let TairOld = Tair;
+  const totalVol = spec.zones.reduce((a, z) => a + z.volume_m3, 0);
+  const Cair = Array.from({ length: nZ }, (_, z) => Math.max(airRho * CP_AIR_J_KGK * Math.max(spec.zones[z]?.volume_m3 ?? totalVol, 1e-4 / nZ), 1 / nZ));
+  const Tair = new Array<number>(nZ).fill(spec.boxStart_C);
+  const TairOld = [...Tair];
+  const edgeShare = Array.from({ length: nZ }, (_, z) => spec.edgeZoneShare[z] ?? (z === 0 ? 1 : 0));
+  const openShare = Array.from({ length: nZ }, (_, z) => spec.openZoneShare[z] ?? (z === 0 ? 1 : 0));
 
   const energy = () => {
-    let e = Cair * Tair;
+    let e = 0;
+    for (let z = 0; z < nZ; z++) e += Cair[z] * Tair[z];
     for (let ci = 0; ci < chains.length; ci++) {
       const ch = chains[ci];
       for (let i = 0; i < ch.n; i++) e += ch.mat ? ch.mass[i] * ch.mat.H_J_kg(ch.T[i]) : ch.mass[i] * ch.T[i];
@@ -225,20 +286,30 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
     return e;
   };
   const E0 = energy();
-  const gains = { walls: 0, lid: 0, edges: 0, sun: 0, openings: 0, contactsCheck: 0 };
+  let heatCapacity = Cair.reduce((a, c) => a + c, 0);
+  for (const ch of chains) for (let i = 0; i < ch.n; i++) heatCapacity += ch.mat ? ch.mass[i] * ch.mat.c_J_kgK(ch.T[i]) : ch.mass[i];
+  const gains: Gains = { faces: { base: 0, sidesLower: 0, sidesUpper: 0, lid: 0 }, edges: 0, openings: 0 };
   const state: NetworkState = {
-    air_C: Tair,
+    air_C: Tair[0],
+    zone_C: [...Tair],
     gains,
     bodyCenter_C: new Float64Array(spec.bodies.length),
     bodySurface_C: new Float64Array(spec.bodies.length),
+    bodySub_C: new Float64Array(spec.bodies.length),
     bodyMeanH_J_kg: new Float64Array(spec.bodies.length),
   };
   const fillState = () => {
-    state.air_C = Tair;
+    let s = 0;
+    for (let z = 0; z < nZ; z++) {
+      state.zone_C[z] = Tair[z];
+      s += Cair[z] * Tair[z];
+    }
+    state.air_C = s / Cair.reduce((a, c) => a + c, 0);
     for (let j = 0; j < spec.bodies.length; j++) {
       const ch = chains[bodyStart + j];
       state.bodyCenter_C[j] = ch.T[0];
       state.bodySurface_C[j] = ch.T[ch.n - 1];
+      state.bodySub_C[j] = ch.T[Math.max(0, ch.n - 2)];
       let hm = 0;
       let m = 0;
       for (let i = 0; i < ch.n; i++) {
@@ -250,7 +321,7 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
   };
   fillState();
   if (spec.onStep && spec.onStep(0, state)) {
-    return { steps: 0, newtonIterations: 0, gains_J: gains, storedChange_J: 0, energyError_J: 0, t_end_s: 0 };
+    return { steps: 0, newtonIterations: 0, gains_J: gains, storedChange_J: 0, energyError_J: 0, t_end_s: 0, heatCapacity_J_K: heatCapacity };
   }
 
   const breaks = [...spec.breakpoints_s.filter((b) => b > 0 && b < spec.tEnd_s), spec.tEnd_s].sort((x, y) => x - y);
@@ -261,45 +332,72 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
   const target = spec.targetChange_K ?? 2;
   let steps = 0;
   let newton = 0;
-  let wallOuterG = [0, 0];
+  const A: number[][] = Array.from({ length: nK }, () => new Array<number>(nK).fill(0));
+  const rhs = new Array<number>(nK).fill(0);
+  const res = new Array<number>(nZ).fill(0);
 
   while (t < spec.tEnd_s - 1e-9) {
     while (nextBreak < breaks.length && breaks[nextBreak] <= t + 1e-9) nextBreak++;
     const limit = nextBreak < breaks.length ? breaks[nextBreak] : spec.tEnd_s;
     const h = Math.min(dt, limit - t);
     const tNew = t + h;
+    // Guard: a step too small to change t (below its rounding) would repeat for ever; t is then at the end.
+    if (!(tNew > t)) break;
     // Conditions hold piecewise-constant over the step: take them at its middle.
     const amb = spec.ambient(t + h / 2);
-    wallOuterG = wallParts.map((w) => 1 / (w.halfOuter + 1 / (amb.outerH_W_m2K * w.area)));
-    const Te = [amb.wallSolAir_C, amb.lidSolAir_C];
+    const outerG = faceParts.map((f) => 1 / (f.halfOuter + 1 / (amb.outerH_W_m2K * f.area)));
     const Gedge = spec.edgeConductance_W_K;
     const Gopen = amb.openExchange_W_K;
+    // Exchange between the zones, from the temperatures at the start of the step.
+    const Gzz = nZ > 1 && spec.zoneExchange ? spec.zoneExchange(Tair) : 0;
     for (const ch of chains) {
       ch.Told.set(ch.T);
       for (let i = 0; i < ch.n; i++) ch.Hold[i] = ch.mat ? ch.mat.H_J_kg(ch.T[i]) : ch.T[i];
     }
-    TairOld = Tair;
+    for (let z = 0; z < nZ; z++) TairOld[z] = Tair[z];
     let converged = false;
     let it = 0;
     for (; it < 40; it++) {
-      // Contacts: explicit within the iteration (partner temperature as known), exact at convergence.
+      // Contact fluxes at this iterate (their Jacobian is in the dense system below).
       for (const ch of chains) {
-        ch.extra.fill(0);
-        ch.extraDiag.fill(0);
+        ch.extra = 0;
+        ch.extraDiag = 0;
       }
-      for (const c of spec.contacts) {
-        const A = chains[bodyStart + c.a];
-        const B = chains[bodyStart + c.b];
-        const q = c.conductance_W_K * (B.T[B.n - 1] - A.T[A.n - 1]);
-        A.extra[A.n - 1] += q;
-        B.extra[B.n - 1] -= q;
-        A.extraDiag[A.n - 1] += c.conductance_W_K;
-        B.extraDiag[B.n - 1] += c.conductance_W_K;
+      for (const c of links) {
+        const P = chains[c.a];
+        const Q = chains[c.b];
+        const q = c.G * (Q.T[Q.n - 1] - P.T[P.n - 1]);
+        P.extra += q;
+        Q.extra -= q;
+        P.extraDiag += c.G;
+        Q.extraDiag += c.G;
+      }
+      for (let r = 0; r < nK; r++) {
+        for (let y = 0; y < nK; y++) A[r][y] = 0;
+        rhs[r] = 0;
+      }
+      for (const c of links) {
+        const ra = keyRow[c.a];
+        const rb = keyRow[c.b];
+        A[ra][rb] -= c.G;
+        A[rb][ra] -= c.G;
+      }
+      // The zones' own rows.
+      for (let z = 0; z < nZ; z++) {
+        const ge = Gedge * edgeShare[z];
+        const go = Gopen * openShare[z];
+        A[z][z] = Cair[z] / h + ge + go;
+        res[z] = (Cair[z] * (Tair[z] - TairOld[z])) / h - (ge + go) * (amb.air_C - Tair[z]);
+      }
+      if (nZ > 1 && Gzz > 0) {
+        A[0][0] += Gzz;
+        A[1][1] += Gzz;
+        A[0][1] -= Gzz;
+        A[1][0] -= Gzz;
+        res[0] -= Gzz * (Tair[1] - Tair[0]);
+        res[1] -= Gzz * (Tair[0] - Tair[1]);
       }
       // Build and forward-eliminate each chain.
-      let airDiag = Cair / h + Gedge + Gopen;
-      let airRes = (Cair * (Tair - TairOld)) / h - Gedge * (amb.air_C - Tair) - Gopen * (amb.air_C - Tair);
-      let airRhs = 0;
       for (let ci = 0; ci < chains.length; ci++) {
         const ch = chains[ci];
         const n = ch.n;
@@ -332,19 +430,22 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
           ch.c[i] = -G;
           ch.a[i + 1] = -G;
         }
-        if (ci < nWallChains) {
-          const G = wallOuterG[ci];
-          ch.R[0] -= G * (Te[ci] - ch.T[0]);
+        if (ci < nFaces) {
+          const G = outerG[ci];
+          ch.R[0] -= G * (amb.solAir_C[faceParts[ci].kind] - ch.T[0]);
           ch.b[0] += G;
         }
-        ch.R[n - 1] -= ch.extra[n - 1];
-        ch.b[n - 1] += ch.extraDiag[n - 1];
-        // Coupling to air at the last node.
-        const U = ch.Gend;
-        ch.R[n - 1] -= U * (Tair - ch.T[n - 1]);
-        ch.b[n - 1] += U;
-        airRes -= U * (ch.T[n - 1] - Tair);
-        airDiag += U;
+        ch.R[n - 1] -= ch.extra;
+        ch.b[n - 1] += ch.extraDiag;
+        // Coupling to the air zones at the last node.
+        for (let z = 0; z < nZ; z++) {
+          const U = ch.U[z];
+          if (U === 0) continue;
+          ch.R[n - 1] -= U * (Tair[z] - ch.T[n - 1]);
+          ch.b[n - 1] += U;
+          res[z] -= U * (ch.T[n - 1] - Tair[z]);
+          A[z][z] += U;
+        }
         // Forward elimination towards the air-coupled end.
         ch.bp[0] = ch.b[0];
         ch.dp[0] = -ch.R[0];
@@ -353,16 +454,43 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
           ch.bp[i] = ch.b[i] - w * ch.c[i - 1];
           ch.dp[i] = -ch.R[i] - w * ch.dp[i - 1];
         }
-        // δ_end = (dp + U δ_air)/bp
-        airDiag -= (U * U) / ch.bp[n - 1];
-        airRhs += (U * ch.dp[n - 1]) / ch.bp[n - 1];
+        const bpn = ch.bp[n - 1];
+        const row = keyRow[ci];
+        if (row >= 0) {
+          // The end node stays an unknown: bp δ_end − Σ U_z δ_z − Σ G δ_partner = dp.
+          A[row][row] += bpn;
+          rhs[row] += ch.dp[n - 1];
+          for (let z = 0; z < nZ; z++) {
+            A[row][z] -= ch.U[z];
+            A[z][row] -= ch.U[z];
+          }
+          continue;
+        }
+        // δ_end = (dp + Σ U_z δ_z)/bp: the Schur complement onto the zones.
+        for (let z = 0; z < nZ; z++) {
+          const Uz = ch.U[z];
+          if (Uz === 0) continue;
+          rhs[z] += (Uz * ch.dp[n - 1]) / bpn;
+          for (let y = 0; y < nZ; y++) if (ch.U[y] !== 0) A[z][y] -= (Uz * ch.U[y]) / bpn;
+        }
       }
-      const dAir = (-airRes + airRhs) / airDiag;
-      Tair += dAir;
-      let maxStep = Math.abs(dAir);
-      for (const ch of chains) {
+      for (let z = 0; z < nZ; z++) rhs[z] -= res[z];
+      const dAir = solveSmall(A, rhs);
+      let maxStep = 0;
+      for (let z = 0; z < nZ; z++) {
+        Tair[z] += dAir[z];
+        maxStep = Math.max(maxStep, Math.abs(dAir[z]));
+      }
+      for (let ci = 0; ci < chains.length; ci++) {
+        const ch = chains[ci];
         const n = ch.n;
-        let next = (ch.dp[n - 1] + ch.Gend * dAir) / ch.bp[n - 1];
+        let next: number;
+        if (keyRow[ci] >= 0) next = dAir[keyRow[ci]];
+        else {
+          let coupled = ch.dp[n - 1];
+          for (let z = 0; z < nZ; z++) coupled += ch.U[z] * dAir[z];
+          next = coupled / ch.bp[n - 1];
+        }
         ch.T[n - 1] += next;
         maxStep = Math.max(maxStep, Math.abs(next));
         for (let i = n - 2; i >= 0; i--) {
@@ -379,24 +507,23 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
     }
     if (!converged) {
       for (const ch of chains) ch.T.set(ch.Told);
-      Tair = TairOld;
+      for (let z = 0; z < nZ; z++) Tair[z] = TairOld[z];
       if (h < 1e-3) throw new PhysicsInputError("route", "the box model could not converge");
       dt = h / 4;
       continue;
     }
     newton += it;
-    // Book the heat that came in, by path, with the converged temperatures.
-    for (let ci = 0; ci < nWallChains; ci++) {
+    // Book the heat that came in, by path, with the converged temperatures: net through each face.
+    for (let ci = 0; ci < nFaces; ci++) {
       const ch = chains[ci];
-      const G = wallOuterG[ci];
-      const airPart = G * (amb.air_C - ch.T[0]) * h;
-      const sunPart = G * (Te[ci] - amb.air_C) * h;
-      if (ci === 0) gains.walls += airPart;
-      else gains.lid += airPart;
-      gains.sun += sunPart;
+      const G = outerG[ci];
+      const Te = amb.solAir_C[faceParts[ci].kind];
+      gains.faces[faceParts[ci].kind] += G * (Te - ch.T[0]) * h;
     }
-    gains.edges += Gedge * (amb.air_C - Tair) * h;
-    gains.openings += Gopen * (amb.air_C - Tair) * h;
+    for (let z = 0; z < nZ; z++) {
+      gains.edges += Gedge * edgeShare[z] * (amb.air_C - Tair[z]) * h;
+      gains.openings += Gopen * openShare[z] * (amb.air_C - Tair[z]) * h;
+    }
     // Adapt the step to the largest enthalpy change of any node.
     let maxChange = 0;
     for (const ch of chains) {
@@ -405,7 +532,7 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
         if (d > maxChange) maxChange = d;
       }
     }
-    maxChange = Math.max(maxChange, Math.abs(Tair - TairOld) * 0.2);
+    for (let z = 0; z < nZ; z++) maxChange = Math.max(maxChange, Math.abs(Tair[z] - TairOld[z]) * 0.2);
     t = tNew;
     steps++;
     const scale = maxChange > 0 ? target / maxChange : 2;
@@ -414,8 +541,8 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
     if (spec.onStep && spec.onStep(t, state)) break;
   }
   const stored = energy() - E0;
-  const totalIn = gains.walls + gains.lid + gains.edges + gains.sun + gains.openings;
-  return { steps, newtonIterations: newton, gains_J: gains, storedChange_J: stored, energyError_J: stored - totalIn, t_end_s: t };
+  const totalIn = FACE_KINDS.reduce((a, k) => a + gains.faces[k], 0) + gains.edges + gains.openings;
+  return { steps, newtonIterations: newton, gains_J: gains, storedChange_J: stored, energyError_J: stored - totalIn, t_end_s: t, heatCapacity_J_K: heatCapacity };
 }
 
 function harmonic(a: number, b: number): number {

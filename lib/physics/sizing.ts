@@ -4,21 +4,26 @@
  * holds for the route plus the margin, its Pareto front over packed mass, cost and outer volume, and
  * the near misses with the reason each fails.
  *
- * Judging by the low end of the uncertainty band: the model is monotone in the outer coefficient,
- * the insulation conductivity and the conditioning temperature, so the earliest upper-limit failure
- * is at the corner (h +f, k +f, conditioning +K) and the earliest lower-limit failure at the opposite
- * corner. The sizer runs those corners (one, or two when a product has a lower limit) instead of all
- * eight; the full band is computed when a candidate is opened as a plan.
+ * Judging by the low end of the uncertainty band: every candidate runs the hold planner's own sample
+ * (uncertaintyCorners: the central run and every corner), and its judged hold is the minimum, exactly the
+ * hold planner's band.low for that pack-out. No corner is assumed the worst: with sun a higher outer
+ * coefficient can lengthen the hold (sol-air), and a lower limit fails at other corners than an upper one.
+ * Each corner after the first stops at the earliest failure found so far, which keeps the minimum exact.
  *
- * Pruning: with no lower limit in play, more of the same pack never shortens the hold, so a count
- * vector that is componentwise at least one that holds (same box, same conditioning) holds too, and
- * is never on the Pareto front (it only adds mass and cost). Such candidates are marked without a run.
+ * Pruning: with no lower limit in play, more of the same pack at the same conditioning never shortens the
+ * hold at any corner: the box network is a cooperative (monotone) system — every coupling moves heat from
+ * warm to cold, so adding a colder body, or covering more of a face with one, can only lower every
+ * temperature (Kamke's comparison theorem for cooperative systems, e.g. Smith 1995) — and sun only changes
+ * the outside driving temperature, which more packs do not touch. So a count vector that is componentwise
+ * at least one that holds (same box, same conditioning) holds too, and is never on the Pareto front (it only
+ * adds mass and cost). Such candidates are marked without a run; the tests check that pruning gives the
+ * same answer as brute force, on shaded and sunny routes.
  */
 import type { SizeParsed } from "../schemas/size";
 import { MAX_CANDIDATES } from "../schemas/size";
 import type { HoldParsed } from "../schemas/hold";
 import type { Shipper, Material } from "../schemas/templates";
-import { holdRuns, type HoldCorner } from "./hold";
+import { holdRuns, uncertaintyCorners } from "./hold";
 import { PhysicsInputError } from "./validation";
 
 export interface Candidate {
@@ -41,6 +46,8 @@ export interface CandidateResult {
   hold_s: number | null;
   /** Hold at the other judging points, when run. */
   central_s: number | null;
+  /** True when the corners stopped early, the candidate already far short: hold_s is then "at most". */
+  holdIsUpperBound: boolean;
   reason: string | null;
   failsFirst: { product: string; point: string; limit: "upper" | "lower" } | null;
   dryIceGone_s: number | null;
@@ -98,20 +105,33 @@ function outerDims(s: Shipper) {
   return { L: s.innerLength_m + 2 * tw, W: s.innerWidth_m + 2 * tw, H: s.innerHeight_m + tw + tl };
 }
 
-/** Box mass: the template's empty mass, plus or minus the varied layer's material. */
-function boxMass(base: Shipper, variant: Shipper, materials: Material[]): number {
-  const shell = (s: Shipper) => {
+/**
+ * Mass and cost of a candidate box. A thickness variant changes the shell by ΔV = V_outer(variant) −
+ * V_outer(box) (the inner size is kept): the varied insulation's density × ΔV is added to the empty mass,
+ * and ΔV × the insulation's cost per m³ to the cost. That cost is the box's own figure when given
+ * (`extraInsulationCost_per_m3`), else the box's price spread over its shell volume — as if the box's
+ * price were all insulation, stated with the answer.
+ */
+export function boxMassAndCost(b: SizeParsed["boxes"][number], variant: Shipper, materials: Material[]): { mass_kg: number; cost: number; costPerM3: number } {
+  const base = b.shipper;
+  const vol = (s: Shipper) => {
     const o = outerDims(s);
-    let m = 0;
-    const layerMass = (layers: { material: string; thickness_m: number }[], area: number) => {
-      for (const l of layers) m += (materials.find((x) => x.name === l.material)?.density_kg_m3 ?? 0) * l.thickness_m * area;
-    };
-    layerMass(s.wallLayers, 2 * (o.L + o.W) * o.H + o.L * o.W);
-    layerMass(s.lidLayers ?? s.wallLayers, o.L * o.W);
-    return m;
+    return o.L * o.W * o.H;
   };
-  return Math.max(0, base.emptyMass_kg + shell(variant) - shell(base));
+  const inner = base.innerLength_m * base.innerWidth_m * base.innerHeight_m;
+  const shell = Math.max(vol(base) - inner, 1e-9);
+  const costPerM3 = b.extraInsulationCost_per_m3 ?? base.cost / shell;
+  if (variant === base) return { mass_kg: base.emptyMass_kg, cost: base.cost, costPerM3 };
+  const dV = vol(variant) - vol(base);
+  // The varied layer's material: the thickest insulation layer of the walls (as boxVariant chooses it).
+  const ins = materials.filter((m) => m.category === "insulation");
+  const layer = [...base.wallLayers].filter((l) => ins.some((m) => m.name === l.material)).sort((x, y) => y.thickness_m - x.thickness_m)[0];
+  const rho = ins.find((m) => m.name === layer?.material)?.density_kg_m3 ?? 0;
+  return { mass_kg: Math.max(0, base.emptyMass_kg + rho * dV), cost: Math.max(0, base.cost + costPerM3 * dV), costPerM3 };
 }
+
+/** A failing candidate that reaches at least this fraction of the required hold is a near miss. */
+export const NEAR_MISS_FRACTION = 0.75;
 
 export function requiredHold(inp: SizeParsed, routeLength_s: number): number {
   return inp.margin.kind === "percent" ? routeLength_s * (1 + inp.margin.value / 100) : routeLength_s + inp.margin.value * 3600;
@@ -180,13 +200,13 @@ export function candidateHoldInput(inp: SizeParsed, c: Candidate, extendFraction
     shipper,
     materials: inp.materials,
     packs: inp.packs
-      .map((p, i) => ({ pack: p.pack, count: c.counts[i], conditioning_C: c.conditioning_C[i], placement: p.placement, contactWith: null, contact_W_m2K: 50 }))
+      .map((p, i) => ({ pack: p.pack, count: c.counts[i], conditioning_C: c.conditioning_C[i], placement: p.placement, contactWith: p.touchesLoad ? null : ("none" as const), contact_W_m2K: 50 }))
       .filter((l) => l.count > 0),
     route: inp.route,
     ruleSet: inp.ruleSet,
     boxStart_C: inp.boxStart_C,
-    overrides: { outerH_W_m2K: null, innerH_W_m2K: null, wallUA_W_K: null, sunShareSides: 0.25, lidOpenAirChangesPerMinute: 6 },
-    uncertainty: { outerH_frac: 0, insulationK_frac: 0, conditioning_K: 0 },
+    overrides: { outerH_W_m2K: null, innerH_W_m2K: null, wallUA_W_K: null, sunShareSides: 0.25, lidOpenAirChangesPerMinute: 6, wellMixedInside: inp.wellMixedInside },
+    uncertainty: inp.uncertainty,
     extendFraction,
   };
 }
@@ -194,19 +214,18 @@ export function candidateHoldInput(inp: SizeParsed, c: Candidate, extendFraction
 /** Runs one candidate through the hold model at the judging corner(s). Pure: safe to call in a worker. */
 export function evaluateCandidate(inp: SizeParsed, c: Candidate, required_s: number, routeLength_s: number): CandidateResult {
   const extend = Math.max(0.05, required_s / routeLength_s - 1 + 0.02);
-  const u = inp.uncertainty;
-  const hot: HoldCorner = { outerHScale: 1 + u.outerH_frac, insulationKScale: 1 + u.insulationK_frac, conditioningShift_K: u.conditioning_K };
-  const cold: HoldCorner = { outerHScale: 1 - u.outerH_frac, insulationKScale: 1 - u.insulationK_frac, conditioningShift_K: -u.conditioning_K };
-  const central: HoldCorner = { outerHScale: 1, insulationKScale: 1, conditioningShift_K: 0 };
   let out;
   try {
     const hold = candidateHoldInput(inp, c, extend);
-    // The central run tells whether a lower limit is in play; the low end adds the worst corners.
-    out = holdRuns(hold, inp.judgeBy === "central" ? [central] : [hot]);
-    if (inp.judgeBy === "low" && out.hasLowerLimit) out.runs.push(holdRuns(hold, [cold]).runs[0]);
+    // The low end: the minimum over the hold planner's own uncertainty sample (central run first).
+    // A candidate already below 75 % of the required hold is no near miss: its remaining corners are skipped.
+    out = holdRuns(hold, inp.judgeBy === "central" ? uncertaintyCorners({ outerH_frac: 0, insulationK_frac: 0, conditioning_K: 0 }) : uncertaintyCorners(inp.uncertainty), {
+      lowOnly: true,
+      stopBelow_s: NEAR_MISS_FRACTION * required_s,
+    });
   } catch (e) {
     if (e instanceof PhysicsInputError && /larger than the box/.test(e.message)) {
-      return { index: c.index, verdict: "does not fit", hold_s: null, central_s: null, reason: "the contents do not fit", failsFirst: null, dryIceGone_s: null, pruned: false };
+      return { index: c.index, verdict: "does not fit", hold_s: null, central_s: null, holdIsUpperBound: false, reason: "the contents do not fit", failsFirst: null, dryIceGone_s: null, pruned: false };
     }
     throw e;
   }
@@ -225,7 +244,8 @@ export function evaluateCandidate(inp: SizeParsed, c: Candidate, required_s: num
     index: c.index,
     verdict: holds ? "holds" : "fails",
     hold_s: hold,
-    central_s: inp.judgeBy === "central" ? hold : null,
+    central_s: out.runs[0].holdTime_s,
+    holdIsUpperBound: !out.complete,
     reason,
     failsFirst: worst.failsFirst ? { product: worst.failsFirst.product, point: worst.failsFirst.point, limit: worst.failsFirst.limit } : null,
     dryIceGone_s: worst.dryIceGone_s,
@@ -267,7 +287,7 @@ export async function runSizing(
       const c = plan.candidates[i];
       const holding = holdingByGroup.get(c.group);
       if (prune && holding && holding.some((h) => h.every((n, k) => c.counts[k] >= n))) {
-        results[i] = { index: i, verdict: "holds", hold_s: null, central_s: null, reason: null, failsFirst: null, dryIceGone_s: null, pruned: true };
+        results[i] = { index: i, verdict: "holds", hold_s: null, central_s: null, holdIsUpperBound: false, reason: null, failsFirst: null, dryIceGone_s: null, pruned: true };
         pruned++;
         done++;
       } else toRun.push(i);
@@ -295,6 +315,7 @@ export async function runSizing(
     if (!r) continue;
     const b = inp.boxes[c.box];
     const s = boxVariant(b.shipper, inp.materials, c.variant_m);
+    const box = boxMassAndCost(b, s, inp.materials);
     const o = outerDims(s);
     const inner = s.innerLength_m * s.innerWidth_m * s.innerHeight_m;
     const contents =
@@ -307,8 +328,8 @@ export async function runSizing(
       verdict,
       boxName: s.name,
       packs: inp.packs.map((p, i) => ({ name: p.pack.name, count: c.counts[i], conditioning_C: c.conditioning_C[i] })).filter((p) => p.count > 0),
-      mass_kg: boxMass(b.shipper, s, inp.materials) + inp.packs.reduce((a, p, i) => a + p.pack.mass_kg * c.counts[i], 0) + inp.products.reduce((a, l) => a + l.product.mass_kg * l.count, 0),
-      cost: b.shipper.cost + inp.packs.reduce((a, p, i) => a + p.unitCost * c.counts[i], 0),
+      mass_kg: box.mass_kg + inp.packs.reduce((a, p, i) => a + p.pack.mass_kg * c.counts[i], 0) + inp.products.reduce((a, l) => a + l.product.mass_kg * l.count, 0),
+      cost: box.cost + inp.packs.reduce((a, p, i) => a + p.unitCost * c.counts[i], 0),
       outerVolume_m3: o.L * o.W * o.H,
       holds: verdict === "holds",
     });
@@ -319,7 +340,7 @@ export async function runSizing(
     .map((r) => r.index)
     .sort((x, y) => x - y);
   const nearMisses = rows
-    .filter((r) => r.verdict === "fails" && r.hold_s !== null && r.hold_s >= 0.75 * plan.required_s)
+    .filter((r) => r.verdict === "fails" && r.hold_s !== null && r.hold_s >= NEAR_MISS_FRACTION * plan.required_s)
     .sort((a, b) => (b.hold_s ?? 0) - (a.hold_s ?? 0))
     .slice(0, 12)
     .map((r) => ({ index: r.index, reason: r.reason ?? "fails", hold_s: r.hold_s }));

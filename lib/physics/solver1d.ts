@@ -3,7 +3,9 @@
  * finite-volume scheme on an enthalpy formulation [patankar1980, voller1990].
  *
  * - Geometry: slab (half-thickness L, symmetric), infinite cylinder or sphere (radius R), vertex-centred
- *   grid with half cells at the centre and at the surface, so both temperatures are node values.
+ *   grid with half cells at the centre and at the surface, so both temperatures are node values. A
+ *   hollow cylinder or sphere (a shell from `innerRadius_m` to R with an insulated inner face, a closed
+ *   cavity) uses the same grid between the two faces; its "centre" is the inner face.
  * - Unknowns: node temperatures; the stored quantity is ρ·H(T) with the material's tabulated enthalpy,
  *   so latent heat is released across the freezing range without tracking a front.
  * - Each step solves the nonlinear balance by Newton iterations on a tridiagonal system, with the
@@ -11,6 +13,9 @@
  *   half the time step. Interface conductance is the harmonic mean of the nodes' k(T).
  * - Boundary: convection plus radiation to time-varying temperatures (radiation exact, σT⁴), a fixed
  *   temperature, or a coupled lumped node (a tray) with its own capacity and its own exchange with air.
+ *   A convective boundary may add a heat flux that depends on the surface temperature, with its slope
+ *   (evaporation). A slab may also exchange at its other face (`innerBoundary`, x* = 0): then it is not
+ *   symmetric, `halfSize_m` is its full thickness and `center_C` is the temperature of that face.
  * - Energy bookkeeping: after convergence the change of stored enthalpy equals the boundary heat
  *   integrated over the steps to round-off (internal fluxes cancel pairwise); `energyError_J` reports it.
  *
@@ -39,6 +44,8 @@ export type Boundary =
       radiant_C?: (t_s: number) => number;
       /** Extra heat flux into the surface, W/m² (e.g. absorbed sun). */
       extraFlux_W_m2?: (t_s: number) => number;
+      /** Heat flux into the surface that depends on its temperature (e.g. evaporation, negative), W/m², and its slope d q/d Ts, W/(m²·K). */
+      surfaceFlux?: (t_s: number, Ts_C: number) => { q_W_m2: number; dq_dT_W_m2K: number };
     }
   | { kind: "fixed"; T_C: (t_s: number) => number }
   | {
@@ -58,10 +65,14 @@ export type Boundary =
 export interface Solver1DInput {
   shape: Shape1D;
   halfSize_m: number;
+  /** Hollow cylinder or sphere: radius of the insulated inner face (0 or omitted: solid). */
+  innerRadius_m?: number;
   nodes: number;
   material: EnthalpyMaterial;
   initial_C: number | ((xStar: number) => number);
   boundary: Boundary;
+  /** Slab only: a convective exchange at the face x* = 0 too (instead of symmetry). */
+  innerBoundary?: Extract<Boundary, { kind: "convective" }>;
   tEnd_s: number;
   dt_s: number;
   /** Stop early once this returns true (checked after every step). */
@@ -82,6 +93,8 @@ export interface StepState {
   surface_C: number;
   mean_C: number;
   node_C: number | null;
+  /** Warmest node. */
+  max_C: number;
 }
 
 export interface Solver1DResult {
@@ -90,6 +103,8 @@ export interface Solver1DResult {
   surface_C: number[];
   mean_C: number[];
   node_C: number[] | null;
+  /** Warmest node at each recorded step (the slowest point of a cooling, wherever it sits). */
+  max_C?: number[];
   steps: number;
   newtonIterations: number;
   /** Stored enthalpy change of the item (and node), J per unit surface measure × area factor. */
@@ -118,18 +133,23 @@ export function solve1D(inp: Solver1DInput): Solver1DResult {
   requirePositive("dt_s", inp.dt_s);
   const n = inp.nodes;
   const m = M_OF[inp.shape];
-  const dr = L / (n - 1);
-  const r = Float64Array.from({ length: n }, (_, i) => i * dr);
+  const r0 = inp.innerRadius_m ?? 0;
+  if (!(r0 >= 0 && r0 < L)) throw new PhysicsInputError("innerRadius_m", "the inner radius must be at least 0 and smaller than the outer one");
+  if (r0 > 0 && m === 0) throw new PhysicsInputError("innerRadius_m", "a slab cannot be hollow");
+  const ib = inp.innerBoundary;
+  if (ib && m !== 0) throw new PhysicsInputError("innerBoundary", "only a slab has a second face");
+  const dr = (L - r0) / (n - 1);
+  const r = Float64Array.from({ length: n }, (_, i) => r0 + i * dr);
   const vol = new Float64Array(n);
   const area = new Float64Array(n); // area of face between i and i+1
-  for (let i = 0; i < n; i++) vol[i] = shellVolume(m, Math.max(0, r[i] - dr / 2), Math.min(L, r[i] + dr / 2));
+  for (let i = 0; i < n; i++) vol[i] = shellVolume(m, Math.max(r0, r[i] - dr / 2), Math.min(L, r[i] + dr / 2));
   for (let i = 0; i < n - 1; i++) area[i] = Math.pow(r[i] + dr / 2, m);
   const Asurf = Math.pow(L, m);
   const rho = requirePositive("density", inp.material.rho_kg_m3);
   const { H_J_kg: H, c_J_kgK: cOf, k_W_mK: kOf } = inp.material;
 
   const T = new Float64Array(n);
-  for (let i = 0; i < n; i++) T[i] = typeof inp.initial_C === "number" ? inp.initial_C : inp.initial_C(r[i] / L);
+  for (let i = 0; i < n; i++) T[i] = typeof inp.initial_C === "number" ? inp.initial_C : inp.initial_C(i / (n - 1));
   for (let i = 0; i < n; i++) requireTemperature("initial temperature", T[i]);
   const Hold = new Float64Array(n);
   const Told = new Float64Array(n);
@@ -150,6 +170,11 @@ export function solve1D(inp: Solver1DInput): Solver1DResult {
   const Cnode = hasNode ? bc.capacity_J_m2K * Asurf : 0;
 
   const volTotal = vol.reduce((s, v) => s + v, 0);
+  const maxT = () => {
+    let s = -Infinity;
+    for (let i = 0; i < n; i++) if (T[i] > s) s = T[i];
+    return s;
+  };
   const meanT = () => {
     let s = 0;
     for (let i = 0; i < n; i++) s += vol[i] * T[i];
@@ -168,6 +193,7 @@ export function solve1D(inp: Solver1DInput): Solver1DResult {
     surface_C: [T[n - 1]],
     mean_C: [meanT()],
     node_C: hasNode ? [Tn] : null,
+    max_C: [maxT()],
     steps: 0,
     newtonIterations: 0,
     storedChange_J: 0,
@@ -183,29 +209,40 @@ export function solve1D(inp: Solver1DInput): Solver1DResult {
   let t = 0;
 
   // Boundary heat flow into the surface node (W per area-measure) and its derivative w.r.t. Ts.
+  const convectiveFlow = (c: NonNullable<Extract<Boundary, { kind: "node" }>["air"]> | Extract<Boundary, { kind: "convective" }>, tNew: number, Ts: number, A: number): [number, number] => {
+    const h = c.h_W_m2K(tNew, Ts);
+    let q = h * (c.fluid_C(tNew) - Ts);
+    let dq = -h;
+    if (c.emissivity && c.emissivity > 0) {
+      const Tr = (c.radiant_C ? c.radiant_C(tNew) : c.fluid_C(tNew)) + KELVIN_OFFSET;
+      const Tk = Ts + KELVIN_OFFSET;
+      q += c.emissivity * SIGMA_W_M2K4 * (Tr ** 4 - Tk ** 4);
+      dq -= 4 * c.emissivity * SIGMA_W_M2K4 * Tk ** 3;
+    }
+    if ("kind" in c) {
+      if (c.extraFlux_W_m2) q += c.extraFlux_W_m2(tNew);
+      if (c.surfaceFlux) {
+        const f = c.surfaceFlux(tNew, Ts);
+        q += f.q_W_m2;
+        dq += f.dq_dT_W_m2K;
+      }
+    }
+    return [q * A, dq * A];
+  };
   const surfaceFlow = (tNew: number, Ts: number): [number, number] => {
     const c = bc.kind === "convective" ? bc : bc.kind === "node" ? bc.air : undefined;
-    if (c) {
-      const h = c.h_W_m2K(tNew, Ts);
-      let q = h * (c.fluid_C(tNew) - Ts);
-      let dq = -h;
-      if (c.emissivity && c.emissivity > 0) {
-        const Tr = (c.radiant_C ? c.radiant_C(tNew) : c.fluid_C(tNew)) + KELVIN_OFFSET;
-        const Tk = Ts + KELVIN_OFFSET;
-        q += c.emissivity * SIGMA_W_M2K4 * (Tr ** 4 - Tk ** 4);
-        dq -= 4 * c.emissivity * SIGMA_W_M2K4 * Tk ** 3;
-      }
-      if (bc.kind === "convective" && bc.extraFlux_W_m2) q += bc.extraFlux_W_m2(tNew);
-      return [q * Asurf, dq * Asurf];
-    }
-    return [0, 0];
+    return c ? convectiveFlow(c, tNew, Ts, Asurf) : [0, 0];
   };
+  // The slab's other face (x* = 0) has unit area.
+  const innerFlow = (tNew: number, T0: number): [number, number] => (ib ? convectiveFlow(ib, tNew, T0, 1) : [0, 0]);
 
   let dt = inp.dt_s;
   let step = 0;
   while (t < inp.tEnd_s - 1e-9) {
     const dtStep = Math.min(dt, inp.tEnd_s - t);
     const tNew = t + dtStep;
+    // Guard: a step too small to change t (below its rounding) would repeat for ever; t is then at tEnd.
+    if (!(tNew > t)) break;
     Told.set(T);
     TnOld = Tn;
     for (let i = 0; i < n; i++) Hold[i] = H(T[i]);
@@ -253,6 +290,11 @@ export function solve1D(inp: Solver1DInput): Solver1DResult {
         maxRel = Math.max(maxRel, Math.abs(R) / scale);
       }
       const s = n - 1;
+      if (ib) {
+        const [q0, dq0] = innerFlow(tNew, T[0]);
+        Rr[0] -= q0;
+        b[0] -= dq0;
+      }
       if (bc.kind === "convective") {
         const [q, dq] = surfaceFlow(tNew, T[s]);
         Rr[s] -= q;
@@ -322,6 +364,7 @@ export function solve1D(inp: Solver1DInput): Solver1DResult {
     Tprev.set(Told);
     dtPrev = dtStep;
     // Boundary heat actually transferred this step (converged temperatures).
+    if (ib) Qin += innerFlow(tNew, T[0])[0] * dtStep;
     if (bc.kind === "convective") Qin += surfaceFlow(tNew, T[n - 1])[0] * dtStep;
     else if (bc.kind === "fixed") {
       // Heat entering through the pinned surface: what its half cell stored plus what it passed inward.
@@ -341,7 +384,7 @@ export function solve1D(inp: Solver1DInput): Solver1DResult {
       if (T[i] < out.minT_C) out.minT_C = T[i];
       if (T[i] > out.maxT_C) out.maxT_C = T[i];
     }
-    const state: StepState = { t_s: t, center_C: T[0], surface_C: T[n - 1], mean_C: meanT(), node_C: hasNode ? Tn : null };
+    const state: StepState = { t_s: t, center_C: T[0], surface_C: T[n - 1], mean_C: meanT(), node_C: hasNode ? Tn : null, max_C: maxT() };
     const stop = inp.stopWhen ? inp.stopWhen(state) : false;
     const last = stop || t >= inp.tEnd_s - 1e-9;
     if (step % rec === 0 || last) {
@@ -350,6 +393,7 @@ export function solve1D(inp: Solver1DInput): Solver1DResult {
       out.surface_C.push(state.surface_C);
       out.mean_C.push(state.mean_C);
       if (out.node_C) out.node_C.push(Tn);
+      out.max_C!.push(state.max_C);
     }
     if (stop) {
       out.stoppedEarly = true;

@@ -10,8 +10,9 @@ import { itemShape, type ItemShape } from "./geometry";
 import { itemSurfaceCoefficient, naturalHorizontalPlate, forcedFlatPlate, mixedConvection, radiationCoefficient, type Surroundings } from "./surfaces";
 import { annularFinEfficiency, straightFinEfficiency } from "./fins";
 import { solve1D, type Boundary, type Solver1DResult } from "./solver1d";
-import { plankTime, phamTime } from "./phase-change";
+import { closedFormEstimates, type EstimateInputs } from "./phase-change";
 import { PhysicsInputError } from "./validation";
+import { thawTimeAboveLine, type ComplianceLine } from "./compliance";
 
 /** Share of a round item's projected area that actually touches a tray: a circle of half its radius (our assumption). */
 export const ROUND_CONTACT_FRACTION = 0.25;
@@ -21,11 +22,7 @@ export const BATH_TO_ROOM_W_M2K = 10;
 const WATER_RHO = 999;
 const WATER_C = 4186;
 
-export interface ComplianceLine {
-  rule: string;
-  status: "meets" | "exceeds" | "not approved" | "check locally";
-  detail: string;
-}
+export type { ComplianceLine };
 
 export interface ThawMethodResult {
   kind: ThawMethodKind;
@@ -35,7 +32,7 @@ export interface ThawMethodResult {
   surfaceAboveLimit_s: number;
   maxSurface_C: number;
   compliance: ComplianceLine[];
-  estimates: { plank_s: number | null; pham_s: number | null };
+  estimates: { plank_s: number | null; pham_s: number | null; inputs: EstimateInputs };
   h_W_m2K: number;
   startBy: string | null;
   fridgeSpaceTime_m3h: number | null;
@@ -46,6 +43,8 @@ export interface ThawMethodResult {
 }
 
 export interface ThawResult extends ThawMethodResult {
+  /** Whether the "start by" time has already passed (null when there is none). */
+  startByPassed: boolean | null;
   endPoint_C: number;
   chillLimit_C: number;
   comparison: ThawMethodResult[] | null;
@@ -100,6 +99,8 @@ interface Item {
   food: FoodThermal;
   m: 0 | 1 | 2;
   R: number;
+  /** Radius of the insulated cavity face of a hollow item (0 when solid). */
+  Ri: number;
   footprint: { area_m2: number; contact_m2: number; round: boolean; r_m: number; a_m: number; b_m: number };
 }
 
@@ -112,9 +113,12 @@ function makeItem(p: Product): Item {
     mass_kg: p.mass_kg,
     volume_m3: shape.volume_m3,
     isMeatLike: /meat|poultry|fish|beef|pork|lamb|chicken|turkey|cod|salmon/i.test(p.category + " " + p.name),
+    hollow: shape.hollow !== null,
   });
   const m = shape.oneD.shape === "slab" ? 0 : shape.oneD.shape === "cylinder" ? 1 : 2;
-  const R = ((m + 1) * shape.volume_m3) / shape.area_m2;
+  // A solid item: the 1-D shape with the item's own V/A. A hollow one: its real shell.
+  const R = shape.hollow ? shape.hollow.outer_m : ((m + 1) * shape.volume_m3) / shape.area_m2;
+  const Ri = shape.hollow ? shape.hollow.inner_m : 0;
   let footprint: Item["footprint"];
   if (p.shape === "sphere") {
     const r = p.dimA_m / 2;
@@ -127,7 +131,7 @@ function makeItem(p: Product): Item {
     const b = p.dimC_m!;
     footprint = { area_m2: a * b, contact_m2: a * b, round: false, r_m: Math.sqrt((a * b) / Math.PI), a_m: a, b_m: b };
   }
-  return { p, shape, food, m, R, footprint };
+  return { p, shape, food, m, R, Ri, footprint };
 }
 
 function seriesDown(r: Solver1DResult) {
@@ -174,8 +178,9 @@ function runMethod(item: Item, inp: ThawParsed, method: ThawMethod, endPoint_C: 
   const g = shape.convection;
   const Tref = (inp.start_C + endPoint_C) / 2;
   const stop = (st: { center_C: number }) => st.center_C >= endPoint_C;
-  const base = { shape: item.m === 0 ? ("slab" as const) : item.m === 1 ? ("cylinder" as const) : ("sphere" as const), halfSize_m: item.R, nodes: NODES, material: food, initial_C: inp.start_C, tEnd_s: inp.horizon_s, stopWhen: stop };
-  const dt0 = Math.max(1, Math.min(60, (item.R * item.R) / 2e-6 / 300));
+  const base = { shape: item.m === 0 ? ("slab" as const) : item.m === 1 ? ("cylinder" as const) : ("sphere" as const), halfSize_m: item.R, innerRadius_m: item.Ri, nodes: NODES, material: food, initial_C: inp.start_C, tEnd_s: inp.horizon_s, stopWhen: stop };
+  const depth = item.R - item.Ri;
+  const dt0 = Math.max(1, Math.min(60, (depth * depth) / 2e-6 / 300));
   const adaptive = { target_K: 1, dtMax_s: 900 };
   let hShown = 0;
   let medium_C = 0;
@@ -286,14 +291,20 @@ function runMethod(item: Item, inp: ThawParsed, method: ThawMethod, endPoint_C: 
     notes.push(`Bath: ${(method.bath_m3 * 1000).toFixed(0)} L changed every ${(method.changeEvery_s / 60).toFixed(0)} min, warming from the room through ${bathArea.toFixed(2)} m² at ${BATH_TO_ROOM_W_M2K} W/(m²·K)`);
     let profile: number[] | null = null;
     let t0 = 0;
+    // Chunk k runs from k·changeEvery to (k+1)·changeEvery (or the horizon). Boundaries come from the
+    // index, not from summing chunk ends, and a remainder shorter than a rounding error of the horizon is
+    // not a chunk: 3 × 100.1 s can fall 6e-14 s short of 300.3 s, and that sliver takes no solver step.
+    const tol_s = 1e-9 * Math.max(1, inp.horizon_s);
+    let change = 0;
     const merged: Solver1DResult = { t_s: [], center_C: [], surface_C: [], mean_C: [], node_C: [], steps: 0, newtonIterations: 0, storedChange_J: 0, boundaryHeat_J: 0, energyError_J: 0, profile_C: [], minT_C: inp.start_C, maxT_C: inp.start_C, stoppedEarly: false };
-    while (t0 < inp.horizon_s) {
+    while (inp.horizon_s - t0 > tol_s) {
       const prof = profile;
+      const chunkEnd_s = Math.min((change + 1) * method.changeEvery_s, inp.horizon_s);
       const chunk = solve1D({
         ...base,
         initial_C: prof ? (x: number) => prof[Math.round(x * (prof.length - 1))] : inp.start_C,
         boundary: { kind: "node", contact_W_m2K: h, capacity_J_m2K: cap / A, exchange_W_m2K: () => (BATH_TO_ROOM_W_M2K * bathArea) / A, fluid_C: () => method.room_C, node0_C: method.water_C },
-        tEnd_s: Math.min(method.changeEvery_s, inp.horizon_s - t0),
+        tEnd_s: chunkEnd_s - t0,
         dt_s: Math.min(dt0, method.changeEvery_s / 20),
         adaptive: { target_K: 1, dtMax_s: Math.min(900, method.changeEvery_s / 10) },
       });
@@ -311,8 +322,11 @@ function runMethod(item: Item, inp: ThawParsed, method: ThawMethod, endPoint_C: 
       merged.energyError_J += chunk.energyError_J;
       merged.minT_C = Math.min(merged.minT_C, chunk.minT_C);
       merged.maxT_C = Math.max(merged.maxT_C, chunk.maxT_C);
-      t0 += chunk.t_s[chunk.t_s.length - 1];
+      const reached_s = chunk.t_s.length ? chunk.t_s[chunk.t_s.length - 1] : 0;
       profile = chunk.profile_C;
+      if (!(reached_s > 0)) break; // a chunk that did not advance time would repeat for ever
+      t0 = chunk.stoppedEarly ? t0 + reached_s : chunkEnd_s;
+      change++;
       if (chunk.stoppedEarly) {
         merged.stoppedEarly = true;
         break;
@@ -329,30 +343,10 @@ function runMethod(item: Item, inp: ThawParsed, method: ThawMethod, endPoint_C: 
   let maxSurf = -Infinity;
   for (let i = 0; i < result.t_s.length && result.t_s[i] <= tEnd + 1e-9; i++) maxSurf = Math.max(maxSurf, result.surface_C[i]);
 
-  // Second opinion: Plank and Pham's thawing form, with the same coefficient and medium.
-  const kU = food.k_W_mK(food.Tf_C + 2);
-  const kF = food.k_W_mK(Math.min(inp.start_C, food.Tf_C - 5));
-  const E = p.shape === "sphere" ? 3 : shape.oneD.E;
-  const hEst = Math.max(hShown, 0.01);
-  const pl = plankTime({ shape: p.shape === "sphere" ? "sphere" : "slab", a_m: p.shape === "sphere" ? p.dimA_m : 2 * shape.oneD.halfSize_m, rho_kg_m3: food.rho_kg_m3, latent_J_kg: food.latent_J_kg, h_W_m2K: hEst, k_W_mK: kU, Tf_C: food.Tf_C, medium_C, E: p.shape === "sphere" ? 1 : E });
-  const ph = phamTime({
-    E,
-    halfSize_m: shape.oneD.halfSize_m,
-    h_W_m2K: hEst,
-    rhoUnfrozen_kg_m3: food.rho_kg_m3,
-    rhoFrozen_kg_m3: food.rho_kg_m3,
-    cUnfrozen_J_kgK: food.c_J_kgK(food.Tf_C + 2),
-    cFrozen_J_kgK: food.c_J_kgK(Math.min(inp.start_C, food.Tf_C - 10)),
-    kUnfrozen_W_mK: kU,
-    kFrozen_W_mK: kF,
-    latent_J_kg: food.latent_J_kg,
-    Tf_C: food.Tf_C,
-    initial_C: inp.start_C,
-    finalCenter_C: endPoint_C,
-    medium_C,
-  });
+  // Second opinion: Plank and Pham's thawing form, with the same coefficient, medium, latent heat and sensible heats.
+  const closed = closedFormEstimates({ food, shape, productShape: p.shape, h_W_m2K: Math.max(hShown, 0.01), start_C: inp.start_C, end_C: endPoint_C, medium_C });
 
-  const compliance = complianceFor(method, rs, above, chill);
+  const compliance = complianceFor(method, rs, above, chill, p.readyToEat);
   const startBy = inp.readyBy && thawTime !== null ? new Date(new Date(inp.readyBy).getTime() - thawTime * 1000).toISOString() : null;
   const inFridge = (method.kind === "fridge_air" || method.kind === "tray") && method.air_C <= chill;
   return {
@@ -363,10 +357,10 @@ function runMethod(item: Item, inp: ThawParsed, method: ThawMethod, endPoint_C: 
     surfaceAboveLimit_s: above,
     maxSurface_C: maxSurf,
     compliance,
-    estimates: { plank_s: pl.value < 1e300 ? pl.value : null, pham_s: ph.value < 1e300 ? ph.value : null },
+    estimates: { plank_s: closed.plank_s, pham_s: closed.pham_s, inputs: closed.inputs },
     h_W_m2K: hShown,
     startBy,
-    fridgeSpaceTime_m3h: inFridge && thawTime !== null ? (shape.volume_m3 * thawTime) / 3600 : null,
+    fridgeSpaceTime_m3h: inFridge && thawTime !== null ? ((shape.volume_m3 + (shape.hollow?.cavity_m3 ?? 0)) * thawTime) / 3600 : null,
     energyBalanceError: Math.abs(result.energyError_J) / Math.max(Math.abs(result.storedChange_J), 1e-30),
     steps: result.steps,
     series: seriesDown(result),
@@ -374,9 +368,19 @@ function runMethod(item: Item, inp: ThawParsed, method: ThawMethod, endPoint_C: 
   };
 }
 
-function complianceFor(method: ThawMethod, rs: RuleSet, above_s: number, chill: number): ComplianceLine[] {
+/** One sentence on why Plank and Pham differ from the numerical answer, with the figures. */
+function estimateSpread(r: ThawMethodResult): string {
+  const t = r.thawTime_s;
+  const pct = (e: number | null) => (e === null || t === null || t <= 0 ? "—" : `${e >= t ? "+" : "−"}${Math.abs((e / t - 1) * 100).toFixed(0)} %`);
+  return (
+    `Plank and Pham (closed-form second opinions) get the same latent heat as the numerical model (${(r.estimates.inputs.latent_J_kg / 1000).toFixed(0)} kJ/kg, the ice present at the start) and sensible specific heats; ` +
+    `they differ from it by ${pct(r.estimates.plank_s)} (Plank) and ${pct(r.estimates.pham_s)} (Pham) because they melt all the ice at one temperature behind a sharp front and use one conductivity, where the food melts gradually below its freezing point and conducts better while still partly frozen; ` +
+    `Plank also ignores warming the frozen core. Pham's thawing form is from memory and unverified. Plan with the numerical figure; a large spread means the item is outside the formulas' usual range`
+  );
+}
+
+function complianceFor(method: ThawMethod, rs: RuleSet, above_s: number, chill: number, readyToEat: boolean): ComplianceLine[] {
   const out: ComplianceLine[] = [];
-  const h = (s: number) => `${(s / 3600).toFixed(1)} h`;
   if (method.kind === "fridge_air" || method.kind === "tray") {
     if (method.air_C <= chill) out.push({ rule: "Thawed under refrigeration", status: "meets", detail: `Air at ${method.air_C} °C, at or below the chill limit ${chill} °C` });
     else out.push({ rule: "Thawed under refrigeration", status: "not approved", detail: `Air at ${method.air_C} °C is warmer than the chill limit ${chill} °C: this is thawing in room air` });
@@ -390,16 +394,8 @@ function complianceFor(method: ThawMethod, rs: RuleSet, above_s: number, chill: 
   } else {
     out.push({ rule: "Room-air thawing", status: "not approved", detail: "Not an approved thawing method under most food codes" });
   }
-  const lim = rs.thawSurfaceAboveMax_s ?? rs.chillExcursionMax_s;
-  if (lim !== null && lim !== undefined) {
-    out.push({
-      rule: `Surface above ${chill} °C for at most ${h(lim)}`,
-      status: above_s <= lim ? "meets" : "exceeds",
-      detail: `Estimated ${h(above_s)} above ${chill} °C before the centre is thawed`,
-    });
-  } else {
-    out.push({ rule: `Time above ${chill} °C`, status: "check locally", detail: `Estimated ${h(above_s)}; "${rs.name}" sets no time limit for it` });
-  }
+  // Ready-to-eat food against its own limit (often none above the chill limit), raw food against the thawing time.
+  out.push(thawTimeAboveLine(rs, readyToEat, above_s, chill));
   return out;
 }
 
@@ -409,7 +405,8 @@ export function runThaw(raw: ThawInput): ThawResult {
   return runThawParsed(parsed.data);
 }
 
-export function runThawParsed(inp: ThawParsed): ThawResult {
+/** `now_ms`: the time a "start by" is judged against (default: the clock). */
+export function runThawParsed(inp: ThawParsed, opts: { now_ms?: number } = {}): ThawResult {
   const item = makeItem(inp.product);
   const warnings: string[] = [...item.food.warnings];
   const endPoint_C = inp.endPoint_C ?? item.food.Tf_C + inp.endMargin_K;
@@ -418,6 +415,9 @@ export function runThawParsed(inp: ThawParsed): ThawResult {
   }
   if (endPoint_C <= inp.start_C) throw new PhysicsInputError("endPoint_C", "the end point must be warmer than the starting temperature");
   const main = runMethod(item, inp, inp.method, endPoint_C, warnings);
+  // A "start by" already in the past cannot be met: flag it rather than print it as a plan.
+  const startByPassed = main.startBy === null ? null : new Date(main.startBy).getTime() < (opts.now_ms ?? Date.now());
+  if (startByPassed) warnings.push(`Start by ${main.startBy} has already passed: by this method the item will not be thawed by ${inp.readyBy}. Choose a later service time or another approved method`);
   if (main.thawTime_s === null) warnings.push(`The centre does not reach ${endPoint_C.toFixed(1)} °C within ${(inp.horizon_s / 86400).toFixed(0)} days`);
   if ((inp.method.kind === "running_water" || inp.method.kind === "still_water") && inp.ruleSet.thawWaterMax_C !== null && inp.method.water_C > inp.ruleSet.thawWaterMax_C) {
     warnings.push(`Water at ${inp.method.water_C} °C is above the rule set's maximum of ${inp.ruleSet.thawWaterMax_C} °C: computed, but not allowed`);
@@ -439,16 +439,24 @@ export function runThawParsed(inp: ThawParsed): ThawResult {
   }
   const assumptions = [
     `Thawed means the centre reaches ${endPoint_C.toFixed(1)} °C (${inp.endPoint_C === null ? `initial freezing point ${item.food.Tf_C.toFixed(1)} °C plus ${inp.endMargin_K} K` : "as given"}); the item starts uniformly at ${inp.start_C} °C`,
-    `The ${inp.product.shape} is modelled in one dimension (${item.m === 0 ? "slab" : item.m === 1 ? "cylinder" : "sphere"}) with its real volume and surface (half-size ${(item.R * 1000).toFixed(0)} mm); properties follow temperature from the composition, with ice melting over the freezing range`,
+    item.shape.hollow
+      ? `The item is modelled as a hollow ${item.m === 2 ? "sphere" : "cylinder"}: a ${(item.shape.hollow.wall_m * 1000).toFixed(0)} mm wall around a closed cavity, ${(2 * item.R * 1000).toFixed(0)} mm across, heated from outside only (the cavity face insulated); properties follow temperature from the composition, with ice melting over the freezing range. A real carcass is not a uniform wall: its thickest meat sets the thaw time and its thin parts thaw sooner, so the wall should be the deepest meat over the cavity; the answer is only as good as that figure`
+      : `The ${inp.product.shape} is modelled in one dimension (${item.m === 0 ? "slab" : item.m === 1 ? "cylinder" : "sphere"}) with its real volume and surface (half-size ${(item.R * 1000).toFixed(0)} mm); properties follow temperature from the composition, with ice melting over the freezing range`,
     `Surface coefficient ${main.h_W_m2K.toFixed(1)} W/(m²·K) ${inp.overrides.h_W_m2K ? "as given" : "from the core's correlations" + (inp.method.kind.includes("water") ? " in water" : " plus radiation (ε = " + inp.overrides.emissivity + ")")}`,
     "Microwave thawing and thawing as part of cooking are outside this model",
     "Drip loss, packaging air pockets (unless given as packaging) and the shelf around the item are not modelled",
   ];
+  assumptions.push(estimateSpread(main));
+  if (inp.product.initialFreezing_C === null || inp.product.initialFreezing_C === undefined) {
+    assumptions.push(
+      `The initial freezing point, ${item.food.Tf_C.toFixed(1)} °C, is estimated from the composition, and the end point follows it. Measured values can differ by a kelvin or more (chicken measures about −1.1 to −1.4 °C), which can lengthen or shorten a refrigerator thaw by a third: enter a measured or tabled value if you have one`,
+    );
+  }
   if (item.p.shape === "sphere") assumptions.push(`On a tray, a round item touches it over ${Math.round(ROUND_CONTACT_FRACTION * 100)} % of its projected area (our assumption)`);
   const advice = [
     "Once thawed, cook it or keep it refrigerated at or below the chill limit, and use it promptly.",
     "Food thawed in water or in a microwave is normally cooked straight away.",
     "Follow your local rules on refreezing thawed food.",
   ];
-  return { ...main, endPoint_C, chillLimit_C: inp.ruleSet.chilledMax_C, comparison, assumptions, warnings, advice };
+  return { ...main, startByPassed, endPoint_C, chillLimit_C: inp.ruleSet.chilledMax_C, comparison, assumptions, warnings, advice };
 }

@@ -10,15 +10,22 @@ import { itemShape } from "./geometry";
 import { itemSurfaceCoefficient, type Surroundings } from "./surfaces";
 import { lumpedTheta, seriesMeanTheta, seriesTheta } from "./conduction";
 import { solve1D } from "./solver1d";
-import { plankTime, phamTime, type EstimateShape } from "./phase-change";
+import { closedFormEstimates } from "./phase-change";
 import { PhysicsInputError } from "./validation";
+import { warmupCompliance, type ComplianceLine } from "./compliance";
 
 export interface WarmupPoint {
   t_s: number;
   center_C: number;
+  /** The warmest (in cooling: the coldest) surface point: a block's corner, a cylinder's rim, else the surface. */
   surface_C: number;
   mean_C: number;
+  /** Middle of the face that changes first (the largest face of a block); equals surface_C where there is no corner. */
+  midFace_C: number;
 }
+
+/** Which surface point the "surface" time is for. */
+export type SurfacePoint = "corner" | "edge" | "mid-face" | "surface";
 
 export interface WarmupResult {
   method: "lumped" | "series" | "numerical";
@@ -26,7 +33,13 @@ export interface WarmupResult {
   limit_C: number;
   limitKind: LimitKind;
   direction: "warming" | "cooling";
-  timeToLimit_s: { center: number | null; surface: number | null; mean: number | null };
+  /**
+   * surface: the surface point that crosses first (a corner or edge beside the mid-face), the one to judge a
+   * safety limit by; midFace, edge, corner: each point where the method resolves it (null where the shape has
+   * none or the one-dimensional solver cannot tell).
+   */
+  timeToLimit_s: { center: number | null; surface: number | null; mean: number | null; midFace: number | null; edge: number | null; corner: number | null };
+  surfacePoint: SurfacePoint;
   biot: number;
   biotLength_m: number;
   biotLumped: number;
@@ -38,6 +51,8 @@ export interface WarmupResult {
   estimates: { plank_s: number | null; pham_s: number | null } | null;
   energyBalanceError: number | null;
   series: WarmupPoint[];
+  /** Rule-set lines: two-stage cooling for a cool-down from hot, cold-food time as a control for a warm-up. */
+  compliance: ComplianceLine[];
   assumptions: string[];
   warnings: string[];
 }
@@ -96,6 +111,7 @@ export function runWarmup(raw: WarmupInput): WarmupResult {
     mass_kg: p.mass_kg,
     volume_m3: shape.volume_m3,
     isMeatLike: /meat|poultry|fish|beef|pork|lamb|chicken|turkey/i.test(p.category + " " + p.name),
+    hollow: shape.hollow !== null,
   });
   warnings.push(...props.warnings);
   const limit_C = limitFor(inp.limit, inp.ruleSet);
@@ -131,7 +147,7 @@ export function runWarmup(raw: WarmupInput): WarmupResult {
   const rho = props.rho_kg_m3;
   const alpha = k / (rho * c);
   const biotLumped = (h * shape.lumpedLength_m) / k;
-  const Lmin = Math.min(...shape.factors.map((f) => f.halfSize_m));
+  const Lmin = shape.hollow ? shape.hollow.wall_m : Math.min(...shape.factors.map((f) => f.halfSize_m));
   const biot = (h * Lmin) / k;
   const phaseChange = Math.min(Ti, Tinf) < props.Tf_C + 1;
 
@@ -142,9 +158,13 @@ export function runWarmup(raw: WarmupInput): WarmupResult {
     reason = `Chosen by the user`;
     if (method !== "numerical" && phaseChange) warnings.push("Freezing or thawing is involved but the chosen method ignores latent heat; use the numerical method");
     if (method === "lumped" && biotLumped >= 0.1) warnings.push(`Lumped capacitance needs Bi < 0.1; here Bi = ${biotLumped.toFixed(2)}`);
+    if (method === "series" && shape.hollow) warnings.push("The series solution is for the solid shape: it ignores the cavity of this hollow item; use the numerical method");
   } else if (phaseChange) {
     method = "numerical";
     reason = `Temperatures reach the freezing range (initial freezing point ${props.Tf_C.toFixed(1)} °C), so latent heat and changing properties matter: numerical enthalpy solver`;
+  } else if (shape.hollow && biotLumped >= 0.1) {
+    method = "numerical";
+    reason = `Bi = ${biotLumped.toFixed(2)} ≥ 0.1 on V/A and the item is hollow, which the series solutions here do not cover: numerical solver on the shell`;
   } else if (biotLumped < 0.1) {
     method = "lumped";
     reason = `Bi = ${biotLumped.toFixed(3)} < 0.1 on V/A: the inside stays nearly uniform, lumped capacitance is valid`;
@@ -158,41 +178,63 @@ export function runWarmup(raw: WarmupInput): WarmupResult {
   const dTi = Ti - Tinf;
   let series: WarmupPoint[] = [];
   let tc: number | null, ts: number | null, tm: number | null;
+  let tMid: number | null = null;
+  let tEdge: number | null = null;
+  let tCorner: number | null = null;
+  let surfacePoint: SurfacePoint = "surface";
   let energyBalanceError: number | null = null;
 
   if (method === "lumped") {
     const f = (t: number) => Tinf + dTi * lumpedTheta(h, shape.area_m2, rho, shape.volume_m3, c, t);
-    tc = ts = tm = crossingTime(f, crossed, horizon);
+    tc = ts = tm = tMid = crossingTime(f, crossed, horizon);
     for (let i = 0; i <= MAX_POINTS; i++) {
       const t = (horizon * i) / MAX_POINTS;
       const T = f(t);
-      series.push({ t_s: t, center_C: T, surface_C: T, mean_C: T });
+      series.push({ t_s: t, center_C: T, surface_C: T, mean_C: T, midFace_C: T });
     }
     assumptions.push(`Constant properties at ${Tm.toFixed(1)} °C: k = ${k.toFixed(3)} W/(m·K), c = ${(c / 1000).toFixed(2)} kJ/(kg·K), ρ = ${rho.toFixed(0)} kg/m³`);
   } else if (method === "series") {
-    const thetaAt = (t: number, where: "center" | "surface" | "mean") => {
+    // Product solution (Incropera §5.8): a point on n faces at once takes the surface value of those n factors
+    // and the centre value of the rest. Mid-face: the thinnest direction only; edge: the two thinnest; corner: all.
+    const order = shape.factors.map((f, i) => ({ i, L: f.halfSize_m })).sort((x, y) => x.L - y.L).map((x) => x.i);
+    // `where`: "center", "mean", or how many of the thinnest directions are at their surface (1 mid-face, 2 edge, 3 corner).
+    const thetaAt = (t: number, where: "center" | "mean" | number) => {
       let th = 1;
-      let surfaceDone = false;
-      for (const fct of shape.factors) {
+      const atSurface = typeof where === "number" ? where : 0;
+      shape.factors.forEach((fct, i) => {
         const Bi = (h * fct.halfSize_m) / k;
         const Fo = (alpha * t) / (fct.halfSize_m * fct.halfSize_m);
         if (where === "mean") th *= seriesMeanTheta(fct.shape, Bi, Fo);
-        else if (where === "surface" && !surfaceDone && fct.halfSize_m === Lmin) {
-          th *= seriesTheta(fct.shape, Bi, Fo, 1);
-          surfaceDone = true;
-        } else th *= seriesTheta(fct.shape, Bi, Fo, 0);
-      }
+        else th *= seriesTheta(fct.shape, Bi, Fo, order.indexOf(i) < atSurface ? 1 : 0);
+      });
       return Tinf + dTi * th;
     };
+    const nF = shape.factors.length;
+    const warmest = nF; // every factor at its surface: a block's corner, a cylinder's rim
     tc = crossingTime((t) => thetaAt(t, "center"), crossed, horizon);
-    ts = crossingTime((t) => thetaAt(t, "surface"), crossed, horizon);
+    tMid = crossingTime((t) => thetaAt(t, 1), crossed, horizon);
+    if (nF === 3) {
+      tEdge = crossingTime((t) => thetaAt(t, 2), crossed, horizon);
+      tCorner = crossingTime((t) => thetaAt(t, 3), crossed, horizon);
+      surfacePoint = "corner";
+    } else if (nF === 2) {
+      tEdge = crossingTime((t) => thetaAt(t, 2), crossed, horizon);
+      surfacePoint = "edge";
+    } else surfacePoint = shape.factors[0].shape === "slab" ? "mid-face" : "surface";
+    ts = nF === 3 ? tCorner : nF === 2 ? tEdge : tMid;
     tm = crossingTime((t) => thetaAt(t, "mean"), crossed, horizon);
     for (let i = 0; i <= MAX_POINTS; i++) {
       const t = (horizon * i) / MAX_POINTS;
-      series.push({ t_s: t, center_C: thetaAt(t, "center"), surface_C: thetaAt(t, "surface"), mean_C: thetaAt(t, "mean") });
+      series.push({ t_s: t, center_C: thetaAt(t, "center"), surface_C: thetaAt(t, warmest), mean_C: thetaAt(t, "mean"), midFace_C: thetaAt(t, 1) });
     }
     assumptions.push(`Constant properties at ${Tm.toFixed(1)} °C: k = ${k.toFixed(3)} W/(m·K), c = ${(c / 1000).toFixed(2)} kJ/(kg·K), ρ = ${rho.toFixed(0)} kg/m³`);
-    assumptions.push(`"Surface" is the middle of the largest face; corners and edges change sooner`);
+    assumptions.push(
+      surfacePoint === "corner"
+        ? `"Surface" is the corner, the point that ${direction === "warming" ? "warms" : "cools"} first, and the one the limit is judged by; the middle of the largest face and an edge are shown beside it`
+        : surfacePoint === "edge"
+          ? `"Surface" is the rim where the side meets an end, the point that ${direction === "warming" ? "warms" : "cools"} first, and the one the limit is judged by; the middle of the face is shown beside it`
+          : `"Surface" is the outer surface, the same everywhere on this shape`,
+    );
     const oneTermFrom = (0.2 * Lmin * Lmin) / alpha;
     assumptions.push(`The one-term approximation would be within 2 % after ${(oneTermFrom / 60).toFixed(0)} min (Fo > 0.2); the full series is used throughout`);
   } else {
@@ -204,7 +246,8 @@ export function runWarmup(raw: WarmupInput): WarmupResult {
           let lastTs = NaN;
           let lastH = hc!.hConvective_W_m2K;
           return (_t: number, Ts: number) => {
-            if (Math.abs(Ts - lastTs) > 0.25) {
+            // Re-evaluate when the surface has moved 0.25 K (always on the first call, when lastTs is NaN).
+            if (!(Math.abs(Ts - lastTs) <= 0.25)) {
               lastTs = Ts;
               lastH = itemSurfaceCoefficient(shape.convection, Ts, s, 0, []).hConvective_W_m2K;
             }
@@ -212,12 +255,14 @@ export function runWarmup(raw: WarmupInput): WarmupResult {
           };
         })();
     const alphaMax = Math.max(props.k_W_mK(Math.min(Ti, Tinf)) / (rho * props.c_J_kgK(Math.min(Ti, Tinf) - 5)), alpha, 1e-8);
-    const tau = (oneD.halfSize_m * oneD.halfSize_m) / alphaMax;
+    const depth = oneD.halfSize_m - oneD.innerRadius_m;
+    const tau = (depth * depth) / alphaMax;
     const dt = Math.min(Math.max(tau / 300, 1), horizon / 1000);
     const dtMax = Math.min(900, horizon / 100);
     const r = solve1D({
       shape: oneD.shape,
       halfSize_m: oneD.halfSize_m,
+      innerRadius_m: oneD.innerRadius_m,
       nodes: NODES,
       material: props,
       initial_C: Ti,
@@ -228,12 +273,18 @@ export function runWarmup(raw: WarmupInput): WarmupResult {
     });
     warnPropertyRange(warnings, r.minT_C, r.maxT_C);
     tc = crossingInSeries(r.t_s, r.center_C, crossed, limit_C);
-    ts = crossingInSeries(r.t_s, r.surface_C, crossed, limit_C);
+    ts = tMid = crossingInSeries(r.t_s, r.surface_C, crossed, limit_C);
+    if (p.shape === "block" || p.shape === "slab" || p.shape === "cylinder") {
+      surfacePoint = "mid-face";
+      assumptions.push(
+        `The numerical solver is one-dimensional: its "surface" is the middle of the largest face. Corners and edges ${direction === "warming" ? "warm" : "cool"} sooner than that, so the surface time here is later than at the ${p.shape === "cylinder" ? "rim" : "corners"}; judge a limit with that margin in mind`,
+      );
+    }
     tm = crossingInSeries(r.t_s, r.mean_C, crossed, limit_C);
     const every = Math.max(1, Math.ceil(r.t_s.length / MAX_POINTS));
-    for (let i = 0; i < r.t_s.length; i += every) series.push({ t_s: r.t_s[i], center_C: r.center_C[i], surface_C: r.surface_C[i], mean_C: r.mean_C[i] });
+    for (let i = 0; i < r.t_s.length; i += every) series.push({ t_s: r.t_s[i], center_C: r.center_C[i], surface_C: r.surface_C[i], mean_C: r.mean_C[i], midFace_C: r.surface_C[i] });
     const last = r.t_s.length - 1;
-    if (series[series.length - 1].t_s !== r.t_s[last]) series.push({ t_s: r.t_s[last], center_C: r.center_C[last], surface_C: r.surface_C[last], mean_C: r.mean_C[last] });
+    if (series[series.length - 1].t_s !== r.t_s[last]) series.push({ t_s: r.t_s[last], center_C: r.center_C[last], surface_C: r.surface_C[last], mean_C: r.mean_C[last], midFace_C: r.surface_C[last] });
     energyBalanceError = Math.abs(r.energyError_J) / Math.max(Math.abs(r.storedChange_J), 1e-30);
     assumptions.push(`Numerical: ${NODES} nodes, ${r.steps} implicit steps (adaptive, at most ${dtMax.toFixed(0)} s); properties follow temperature (Choi–Okos, ice fraction); energy balance closes to ${energyBalanceError.toExponential(1)} of the heat stored`);
     assumptions.push("Mean temperature is the volume average of the node temperatures");
@@ -241,40 +292,24 @@ export function runWarmup(raw: WarmupInput): WarmupResult {
 
   let estimates: WarmupResult["estimates"] = null;
   if (phaseChange && Ti < props.Tf_C && Tinf > props.Tf_C) {
-    const oneD = shape.oneD;
-    const eShape: EstimateShape = p.shape === "sphere" ? "sphere" : "slab";
-    const E = p.shape === "sphere" ? 1 : oneD.E;
-    const kU = props.k_W_mK(props.Tf_C + 1);
-    const kF = props.k_W_mK(Math.min(Ti, props.Tf_C - 5));
-    const pl = plankTime({ shape: eShape, a_m: 2 * oneD.halfSize_m, rho_kg_m3: rho, latent_J_kg: props.latent_J_kg, h_W_m2K: h, k_W_mK: kU, Tf_C: props.Tf_C, medium_C: Tinf, E });
-    const ph = phamTime({
-      E: p.shape === "sphere" ? 3 : oneD.E,
-      halfSize_m: oneD.halfSize_m,
-      h_W_m2K: h,
-      rhoUnfrozen_kg_m3: rho,
-      rhoFrozen_kg_m3: rho,
-      cUnfrozen_J_kgK: props.c_J_kgK(props.Tf_C + 2),
-      cFrozen_J_kgK: props.c_J_kgK(Math.min(Ti, props.Tf_C - 10)),
-      kUnfrozen_W_mK: kU,
-      kFrozen_W_mK: kF,
-      latent_J_kg: props.latent_J_kg,
-      Tf_C: props.Tf_C,
-      initial_C: Ti,
-      finalCenter_C: Math.max(props.Tf_C + 0.5, 0),
-      medium_C: Tinf,
-    });
-    estimates = { plank_s: pl.value < 1e300 ? pl.value : null, pham_s: ph.value < 1e300 ? ph.value : null };
-    warnings.push(...pl.warnings.filter((w) => !warnings.includes(w)), ...ph.warnings.filter((w) => !warnings.includes(w)));
+    // Same latent heat and sensible (latent-free) specific heats as the enthalpy model.
+    const closed = closedFormEstimates({ food: props, shape, productShape: p.shape, h_W_m2K: h, start_C: Ti, end_C: Math.max(props.Tf_C + 0.5, 0), medium_C: Tinf });
+    estimates = { plank_s: closed.plank_s, pham_s: closed.pham_s };
+    warnings.push(...closed.warnings.filter((w) => !warnings.includes(w)));
+    assumptions.push(
+      `Plank and Pham are closed-form second opinions with the numerical model's latent heat (${(closed.inputs.latent_J_kg / 1000).toFixed(0)} kJ/kg, the ice present at the start) and sensible specific heats; they melt all the ice at one temperature and use one conductivity, so they differ from the numerical answer, usually by tens of per cent. Pham's thawing form is from memory and unverified`,
+    );
   }
 
-  series = series.map((pt) => ({ t_s: pt.t_s, center_C: round(pt.center_C), surface_C: round(pt.surface_C), mean_C: round(pt.mean_C) }));
+  series = series.map((pt) => ({ t_s: pt.t_s, center_C: round(pt.center_C), surface_C: round(pt.surface_C), mean_C: round(pt.mean_C), midFace_C: round(pt.midFace_C) }));
   return {
     method,
     methodReason: reason,
     limit_C,
     limitKind: inp.limit,
     direction,
-    timeToLimit_s: { center: tc, surface: ts, mean: tm },
+    timeToLimit_s: { center: tc, surface: ts, mean: tm, midFace: tMid, edge: tEdge, corner: tCorner },
+    surfacePoint,
     biot,
     biotLength_m: Lmin,
     biotLumped,
@@ -286,6 +321,7 @@ export function runWarmup(raw: WarmupInput): WarmupResult {
     estimates,
     energyBalanceError,
     series,
+    compliance: warmupCompliance(inp.ruleSet, direction, limit_C, Ti, series, horizon),
     assumptions,
     warnings,
   };

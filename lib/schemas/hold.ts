@@ -16,6 +16,7 @@ const optionalPositive = (what: string, max: number) =>
   z.number({ error: `${what}: enter a number` }).positive({ error: `${what} must be greater than zero` }).max(max, { error: `${what} is implausibly large` }).nullable().default(null);
 
 export const PLACEMENTS = ["around", "top", "bottom", "side"] as const;
+export type Placement = (typeof PLACEMENTS)[number];
 
 export const holdProductLineSchema = z.object({
   product: productSchema,
@@ -28,8 +29,12 @@ export const holdPackLineSchema = z.object({
   count: count("Count"),
   conditioning_C: temp("Conditioned at"),
   placement: z.enum(PLACEMENTS, { error: "Placement: around, top, bottom or side" }).default("around"),
-  /** Direct contact with one product line (its index), through a contact conductance. */
-  contactWith: z.number().int().min(0).nullable().default(null),
+  /**
+   * What the packs touch besides the box face they lie against: the whole load (null, the default), one
+   * product line (its index), or "none" (kept apart from the load, e.g. in their own compartment).
+   */
+  contactWith: z.union([z.number().int().min(0), z.literal("none")], { error: "Touching: a product line, the whole load or none" }).nullable().default(null),
+  /** Contact coefficient between packs and what they touch (load and box face), W/(m²·K). */
   contact_W_m2K: z.number().positive().max(1e4).default(50),
 });
 
@@ -39,13 +44,16 @@ export const uncertaintySchema = z.object({
   conditioning_K: z.number().min(0).max(20).default(2),
 });
 
+/** Product lines and pack lines in one hold plan, each (also checked before any template look-up). */
+export const MAX_HOLD_LINES = 12;
+
 export const holdInputSchema = z
   .object({
-    products: z.array(holdProductLineSchema).max(12, { error: "At most 12 product lines" }).default([]),
+    products: z.array(holdProductLineSchema).max(MAX_HOLD_LINES, { error: `At most ${MAX_HOLD_LINES} product lines` }).default([]),
     shipper: shipperSchema,
     /** Materials the box names (copied in from the library by the page, API and CLI). */
     materials: z.array(materialSchema).min(1, { error: "The box's materials are needed" }),
-    packs: z.array(holdPackLineSchema).max(12, { error: "At most 12 pack lines" }).default([]),
+    packs: z.array(holdPackLineSchema).max(MAX_HOLD_LINES, { error: `At most ${MAX_HOLD_LINES} pack lines` }).default([]),
     route: routeSchema,
     ruleSet: ruleSetSchema,
     /** Box and inside air temperature when packing; defaults to the first segment's air. */
@@ -57,8 +65,10 @@ export const holdInputSchema = z
         wallUA_W_K: optionalPositive("Wall UA", 1000),
         sunShareSides: z.number().min(0).max(1).default(0.25),
         lidOpenAirChangesPerMinute: z.number().positive().max(600).default(6),
+        /** Treat the inside air as one well-mixed volume (no stratification), as hand formulas do. */
+        wellMixedInside: z.boolean().default(false),
       })
-      .default({ outerH_W_m2K: null, innerH_W_m2K: null, wallUA_W_K: null, sunShareSides: 0.25, lidOpenAirChangesPerMinute: 6 }),
+      .default({ outerH_W_m2K: null, innerH_W_m2K: null, wallUA_W_K: null, sunShareSides: 0.25, lidOpenAirChangesPerMinute: 6, wellMixedInside: false }),
     uncertainty: uncertaintySchema.default({ outerH_frac: 0.3, insulationK_frac: 0.1, conditioning_K: 2 }),
     /** Keep simulating the last segment after the route ends, to measure the margin (fraction of the route length). */
     extendFraction: z.number().min(0).max(3).default(0.5),
@@ -66,7 +76,7 @@ export const holdInputSchema = z
   .superRefine((h, ctx) => {
     if (h.products.length === 0 && h.packs.length === 0) ctx.addIssue({ code: "custom", path: ["products"], message: "Add at least one product or one pack" });
     h.packs.forEach((p, i) => {
-      if (p.contactWith !== null && p.contactWith >= h.products.length) {
+      if (typeof p.contactWith === "number" && p.contactWith >= h.products.length) {
         ctx.addIssue({ code: "custom", path: ["packs", i, "contactWith"], message: `There is no product line ${p.contactWith + 1}` });
       }
     });

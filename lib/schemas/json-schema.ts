@@ -22,7 +22,8 @@ export const NAMED_SCHEMAS: Record<string, z.ZodType> = {
 };
 
 export function jsonSchemaOf(name: string): object | null {
+  // Own names only: "constructor", "__proto__" or "toString" are not schemas.
+  if (!Object.hasOwn(NAMED_SCHEMAS, name)) return null;
   const s = NAMED_SCHEMAS[name];
-  if (!s) return null;
   return z.toJSONSchema(s, { io: "input", unrepresentable: "any" });
 }

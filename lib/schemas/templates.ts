@@ -94,6 +94,9 @@ export const productSchema = z
     dimA_m: positive("This size"),
     dimB_m: positive("This size").nullable().default(null),
     dimC_m: positive("This size").nullable().default(null),
+    /** Hollow sphere or cylinder (a whole bird with its body cavity): thickness of the solid wall around a closed cavity. */
+    // Optional (absent = solid) so that products written before this field still type-check and load.
+    wallThickness_m: positive("Wall thickness").nullable().optional(),
     mass_kg: positive("Mass"),
     composition: compositionSchema,
     compositionSource: z.string().max(400).default(""),
@@ -108,6 +111,9 @@ export const productSchema = z
     kFrozen_W_mK: optionalPositive("Conductivity below freezing"),
     latentHeat_J_kg: nonNegative("Latent heat").nullable().default(null),
     freezeSensitive: z.boolean().default(false),
+    // Ready to eat (cooked, or eaten as it is) or raw (cooked before eating): food codes treat them
+    // differently while thawing (FDA Food Code 2022, §3-501.13(B)(3)–(4)).
+    readyToEat: z.boolean({ error: "Ready to eat: yes or no" }).default(false),
     notes,
   })
   .superRefine((p, ctx) => {
@@ -117,6 +123,13 @@ export const productSchema = z
     }
     if (need >= 3 && (p.dimC_m === null || p.dimC_m === undefined)) {
       ctx.addIssue({ code: "custom", path: ["dimC_m"], message: `${SHAPE_DIMENSIONS[p.shape][2]}: required for a ${p.shape}` });
+    }
+    if (p.wallThickness_m !== null && p.wallThickness_m !== undefined && Number.isFinite(p.wallThickness_m)) {
+      if (p.shape !== "sphere" && p.shape !== "cylinder") {
+        ctx.addIssue({ code: "custom", path: ["wallThickness_m"], message: "Wall thickness: only a sphere or a cylinder can be hollow; leave it empty" });
+      } else if (Number.isFinite(p.dimA_m) && p.wallThickness_m >= p.dimA_m / 2) {
+        ctx.addIssue({ code: "custom", path: ["wallThickness_m"], message: "Wall thickness: must be less than half the diameter (leave it empty for a solid item)" });
+      }
     }
   });
 export type ProductInput = z.input<typeof productSchema>;
@@ -176,6 +189,14 @@ export type PackInput = z.input<typeof packSchema>;
 export type Pack = z.output<typeof packSchema>;
 
 // ---------------------------------------------------------------- routes
+/**
+ * Lid openings bound the hold model's work (each opening is a change of conditions the solver steps
+ * through; 500 openings cost about 1.5 s per hold run, and the sizer repeats the run per candidate).
+ * 250 in one segment is an opening every two minutes for eight hours.
+ */
+export const MAX_LID_OPENINGS_PER_SEGMENT = 250;
+export const MAX_LID_OPENINGS_PER_ROUTE = 500;
+
 export const segmentSchema = z.object({
   label: z.string().trim().max(80).default(""),
   duration_s: positive("Duration").max(30 * 86400, { error: "Duration: at most 30 days per segment" }),
@@ -186,22 +207,51 @@ export const segmentSchema = z.object({
     .number({ error: "Lid openings: enter a whole number" })
     .int({ error: "Lid openings: enter a whole number" })
     .nonnegative({ error: "Lid openings cannot be negative" })
-    .max(1000)
+    .max(MAX_LID_OPENINGS_PER_SEGMENT, { error: `Lid openings: at most ${MAX_LID_OPENINGS_PER_SEGMENT} in one segment (one every two minutes for eight hours); fewer, longer openings let in the same air` })
     .default(0),
   lidOpenDuration_s: nonNegative("Lid-open time").default(0),
 });
 export type Segment = z.output<typeof segmentSchema>;
 
-export const routeSchema = z.object({
-  name,
-  segments: z.array(segmentSchema).min(1, { error: "A route needs at least one segment" }).max(100),
-  notes,
-});
+export const routeSchema = z
+  .object({
+    name,
+    segments: z.array(segmentSchema).min(1, { error: "A route needs at least one segment" }).max(100, { error: "A route has at most 100 segments" }),
+    notes,
+  })
+  .superRefine((r, ctx) => {
+    const openings = r.segments.reduce((a, s) => a + s.lidOpenings, 0);
+    if (openings > MAX_LID_OPENINGS_PER_ROUTE) {
+      ctx.addIssue({
+        code: "custom",
+        path: ["segments"],
+        message: `At most ${MAX_LID_OPENINGS_PER_ROUTE} lid openings on a route (this one has ${openings}); fewer, longer openings let in the same air`,
+      });
+    }
+  });
 export type RouteInput = z.input<typeof routeSchema>;
 export type Route = z.output<typeof routeSchema>;
 
 // ---------------------------------------------------------------- rule sets
-const optionalDuration = (what: string) => positive(what).nullable().default(null);
+const optionalDuration = (what: string) =>
+  positive(what).max(7 * 86400, { error: `${what}: at most 7 days` }).nullable().default(null);
+
+/** How the second cooling stage's time is counted: from the start of stage 1 ("in all"), or from reaching the stage-1 end temperature ("a further …"). */
+export const COOL_STAGE2_COUNTED = ["in_all", "after_stage1"] as const;
+export type CoolStage2Counted = (typeof COOL_STAGE2_COUNTED)[number];
+export const COOL_STAGE2_COUNTED_LABELS: Record<CoolStage2Counted, string> = {
+  in_all: "from the start of cooling (in all)",
+  after_stage1: "from reaching the stage-1 end temperature (a further …)",
+};
+
+/** The fields of the two-stage cooling limit: all given, or none. */
+const COOLING_FIELDS = [
+  ["coolFrom_C", "Cooling: starting temperature"],
+  ["coolStage1To_C", "Cooling stage 1: end temperature"],
+  ["coolStage1Max_s", "Cooling stage 1: time allowed"],
+  ["coolStage2To_C", "Cooling stage 2: end temperature"],
+  ["coolStage2Max_s", "Cooling stage 2: time allowed"],
+] as const;
 
 export const ruleSetSchema = z
   .object({
@@ -211,17 +261,63 @@ export const ruleSetSchema = z
     frozenMax_C: temperature("Frozen upper limit").max(0, { error: "Frozen upper limit must be at or below 0 °C" }),
     hotHoldMin_C: temperature("Hot-holding lower limit").min(40, { error: "Hot-holding lower limit below 40 °C is not hot holding" }),
     thawWaterMax_C: temperature("Maximum thawing-water temperature").nullable().default(null),
+    /** Time as a control, hot or cold food: the longest time out of temperature control before it is cooked, served or discarded. */
     outsideControlMax_s: optionalDuration("Time outside temperature control"),
+    /** The longer allowance for cold food that starts at or below the chill limit and never rises above `outsideControlColdCeiling_C`. */
+    outsideControlColdMax_s: optionalDuration("Cold food outside temperature control"),
+    outsideControlColdCeiling_C: temperature("Cold food outside control: highest temperature").max(60, { error: "Cold food outside control: highest temperature above 60 °C is not cold food" }).nullable().default(null),
+    /** A tolerance period: one period above the chill limit (e.g. for service or on display), once. */
     chillExcursionMax_s: optionalDuration("Chill tolerance period"),
+    /** A tolerance period: one period below the hot-holding limit (e.g. for service or on display), once. */
     hotExcursionMax_s: optionalDuration("Hot tolerance period"),
-    thawSurfaceAboveMax_s: optionalDuration("Thawing: time above the chill limit"),
-    source: z.string().trim().min(1, { error: "Source: say where these limits come from" }).max(2000),
+    /** Thawing raw food (cooked before eating): longest time its surface may be above the chill limit. */
+    thawSurfaceAboveMax_s: optionalDuration("Thawing raw food: time above the chill limit"),
+    /** Thawing ready-to-eat food: longest time its surface may be above the chill limit (0 = never). */
+    thawReadyToEatAboveMax_s: nonNegative("Thawing ready-to-eat food: time above the chill limit").max(7 * 86400, { error: "Thawing ready-to-eat food: at most 7 days" }).nullable().default(null),
+    coolFrom_C: temperature("Cooling: starting temperature").nullable().default(null),
+    coolStage1To_C: temperature("Cooling stage 1: end temperature").nullable().default(null),
+    coolStage1Max_s: optionalDuration("Cooling stage 1: time allowed"),
+    coolStage2To_C: temperature("Cooling stage 2: end temperature").nullable().default(null),
+    coolStage2Max_s: optionalDuration("Cooling stage 2: time allowed"),
+    coolStage2Counted: z.enum(COOL_STAGE2_COUNTED, { error: "Cooling stage 2 is counted in_all or after_stage1" }).default("in_all"),
+    source: z.string().trim().min(1, { error: "Source: say where these limits come from" }).max(4000),
     reminder: z.string().trim().min(1, { error: "Reminder: keep a note to confirm with the local regulator" }).max(2000),
     isDefault: z.boolean().default(false),
   })
   .superRefine((r, ctx) => {
     if (r.frozenMax_C >= r.chilledMax_C) {
       ctx.addIssue({ code: "custom", path: ["frozenMax_C"], message: "Frozen upper limit must be below the chilled upper limit" });
+    }
+    // Cold-food time as a control: the allowance and its ceiling go together.
+    if ((r.outsideControlColdMax_s === null) !== (r.outsideControlColdCeiling_C === null)) {
+      const missing = r.outsideControlColdMax_s === null ? "outsideControlColdMax_s" : "outsideControlColdCeiling_C";
+      ctx.addIssue({ code: "custom", path: [missing], message: "Cold food outside control: give both the time allowed and the highest temperature, or neither" });
+    }
+    if (r.outsideControlColdCeiling_C !== null && r.outsideControlColdCeiling_C <= r.chilledMax_C) {
+      ctx.addIssue({ code: "custom", path: ["outsideControlColdCeiling_C"], message: "Cold food outside control: the highest temperature must be above the chilled upper limit" });
+    }
+    if (r.outsideControlColdMax_s !== null && r.outsideControlMax_s !== null && r.outsideControlColdMax_s <= r.outsideControlMax_s) {
+      ctx.addIssue({ code: "custom", path: ["outsideControlColdMax_s"], message: "Cold food outside control: the allowance must be longer than the general time outside temperature control" });
+    }
+    if (r.thawReadyToEatAboveMax_s !== null && r.thawSurfaceAboveMax_s !== null && r.thawReadyToEatAboveMax_s > r.thawSurfaceAboveMax_s) {
+      ctx.addIssue({ code: "custom", path: ["thawReadyToEatAboveMax_s"], message: "Thawing: ready-to-eat food cannot be allowed longer above the chill limit than raw food" });
+    }
+    // Two-stage cooling: all five values or none, in falling order.
+    const given = COOLING_FIELDS.filter(([f]) => r[f] !== null);
+    if (given.length > 0 && given.length < COOLING_FIELDS.length) {
+      for (const [f, label] of COOLING_FIELDS) {
+        if (r[f] === null) ctx.addIssue({ code: "custom", path: [f], message: `${label}: required when any cooling limit is given (or clear them all)` });
+      }
+      return;
+    }
+    if (given.length === 0) return;
+    const from = r.coolFrom_C!;
+    const to1 = r.coolStage1To_C!;
+    const to2 = r.coolStage2To_C!;
+    if (to1 >= from) ctx.addIssue({ code: "custom", path: ["coolStage1To_C"], message: "Cooling stage 1: the end temperature must be below the starting temperature" });
+    if (to2 >= to1) ctx.addIssue({ code: "custom", path: ["coolStage2To_C"], message: "Cooling stage 2: the end temperature must be below the stage-1 end temperature" });
+    if (r.coolStage2Counted === "in_all" && r.coolStage2Max_s! <= r.coolStage1Max_s!) {
+      ctx.addIssue({ code: "custom", path: ["coolStage2Max_s"], message: "Cooling stage 2 counted from the start: the time allowed must be longer than stage 1's" });
     }
   });
 export type RuleSetInput = z.input<typeof ruleSetSchema>;

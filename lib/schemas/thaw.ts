@@ -8,6 +8,15 @@ const temp = (what: string) => temperatureField(what, 100, "is not thawing");
 const speed = (what: string, max: number) => z.number({ error: `${what}: enter a number` }).min(0, { error: `${what} cannot be negative` }).max(max, { error: `${what} above ${max} m/s is not a kitchen` });
 const positive = (what: string, max: number) => z.number({ error: `${what}: enter a number` }).positive({ error: `${what} must be greater than zero` }).max(max, { error: `${what} is implausibly large` });
 
+/**
+ * Still water: each change restarts the bath model, so the work grows with the number of changes. The
+ * shortest interval is a minute (water changed more often is running water in effect); at most
+ * MAX_WATER_CHANGES changes in the time looked at (the default 10 days at one-minute changes; about 4 s of
+ * computing in the worst case, an item that never thaws).
+ */
+export const MIN_WATER_CHANGE_S = 60;
+export const MAX_WATER_CHANGES = 14_400;
+
 export const THAW_METHODS = ["fridge_air", "tray", "running_water", "still_water", "room_air"] as const;
 export type ThawMethodKind = (typeof THAW_METHODS)[number];
 export const THAW_METHOD_LABELS: Record<ThawMethodKind, string> = {
@@ -42,7 +51,9 @@ export const thawMethodSchema = z.discriminatedUnion("kind", [
     kind: z.literal("still_water"),
     water_C: temp("Water"),
     bath_m3: positive("Bath volume", 2),
-    changeEvery_s: positive("Change the water every", 86400),
+    changeEvery_s: positive("Change the water every", 86400).min(MIN_WATER_CHANGE_S, {
+      error: `Change the water every: at least ${MIN_WATER_CHANGE_S} s; water changed more often than that is running water in effect, so choose that method`,
+    }),
     room_C: temp("Room air").default(21),
     packaging: packagingSchema.nullable().default(null),
   }),
@@ -70,6 +81,16 @@ export const thawInputSchema = z.object({
     })
     .default({ h_W_m2K: null, emissivity: 0.9 }),
   horizon_s: positive("Longest thaw looked at", 30 * 86400).default(10 * 86400),
+}).superRefine((t, ctx) => {
+  if (t.method.kind !== "still_water") return;
+  const changes = t.horizon_s / t.method.changeEvery_s;
+  if (changes > MAX_WATER_CHANGES) {
+    ctx.addIssue({
+      code: "custom",
+      path: ["method", "changeEvery_s"],
+      message: `At most ${MAX_WATER_CHANGES} water changes in the time looked at (this is ${Math.ceil(changes)}): change the water every ${Math.ceil(t.horizon_s / MAX_WATER_CHANGES)} s or more, or look at a shorter time (horizon_s)`,
+    });
+  }
 });
 export type ThawInput = z.input<typeof thawInputSchema>;
 export type ThawParsed = z.output<typeof thawInputSchema>;

@@ -71,10 +71,22 @@ export async function startHarness(): Promise<Harness> {
     throw new Error(`${(e as Error).message}\n${serverLog}`);
   }
   const context = await chromium.launchPersistentContext(path.join(tmp, "profile"), {
-    executablePath: chromiumPath(),
+    executablePath: (() => {
+      try {
+        return chromiumPath();
+      } catch (e) {
+        // Do not leave the server running when there is no browser.
+        try {
+          process.kill(-server.pid!, "SIGTERM");
+        } catch {}
+        throw e;
+      }
+    })(),
     headless: true,
     args: ["--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"],
     viewport: { width: 1280, height: 900 },
+    // page.request calls the API as a script would; changing requests must name the server's origin (proxy.ts).
+    extraHTTPHeaders: { origin: baseUrl },
   });
   return {
     baseUrl,

@@ -70,6 +70,25 @@ describe("template library in the browser", () => {
     assert.equal(r.segments[1].label, "Collection and van");
   });
 
+  it("edits a rule set's two-stage cooling: shows the stored values, names every missing one, and saves", async () => {
+    await suite.page.goto(suite.h.baseUrl + "/library/rulesets");
+    await suite.page.getByRole("link", { name: "Australia and New Zealand", exact: true }).click();
+    await suite.page.getByLabel("Stage 1 within").waitFor();
+    assert.equal(await suite.page.getByLabel("Stage 1 within").inputValue(), "2");
+    assert.equal(await suite.page.getByLabel("Stage 2 time counted").inputValue(), "after_stage1");
+    await fill("Stage 1 within", "");
+    await suite.page.getByRole("button", { name: /Save this rule set/ }).click();
+    await suite.page.locator("#f-coolStage1Max_s-err").getByText(/required when any cooling limit is given/).waitFor();
+    await fill("Stage 1 within", "1.5");
+    await suite.page.getByRole("button", { name: /Save this rule set/ }).click();
+    await suite.page.waitForURL(/\/library\/rulesets\?saved=/);
+    const rules = (await (await suite.page.request.get(suite.h.baseUrl + "/api/v1/rulesets")).json()) as { name: string; coolStage1Max_s: number }[];
+    assert.equal(rules.find((r) => r.name === "Australia and New Zealand")!.coolStage1Max_s, 5400);
+    await suite.page.goto(suite.h.baseUrl + "/library/products");
+    await suite.page.getByRole("link", { name: "Roast chicken thighs, half tray", exact: true }).click();
+    assert.equal(await suite.page.getByLabel(/Ready to eat/).isChecked(), true);
+  });
+
   it("tells the second of two editors that the template changed, and keeps their edits", async () => {
     await suite.page.goto(suite.h.baseUrl + "/library/packs");
     await suite.page.getByRole("link", { name: "Gel pack, 600 g", exact: true }).click();

@@ -8,7 +8,12 @@ import {
   radiationCoefficient,
   forcedFlatPlate,
   solAirTemperature,
+  itemSurfaceCoefficient,
 } from "../../lib/physics/surfaces";
+import { runWarmup } from "../../lib/physics/warmup";
+import { itemShape } from "../../lib/physics/geometry";
+import { foodThermal } from "../../lib/physics/properties";
+import { seriesTheta } from "../../lib/physics/conduction";
 import { DEMO_SCENARIO } from "../../lib/db/demo-scenario";
 
 describe("Plank's equation vs published worked examples", () => {
@@ -102,5 +107,68 @@ describe("sol-air temperature (ASHRAE Handbook — Fundamentals, sol-air section
     expect(63 / 17).toBeCloseTo(3.7, 1); // the ≈ 3.9 K (7 °F) long-wave correction of the handbook, within its rounding
     const wall = solAirTemperature({ airTemp_C: 30, solarAbsorptivity: 0.9, irradiance_W_m2: 800, hOuter_W_m2K: 17, emissivity: 1, facingSky: false });
     expect(wall).toBeCloseTo(30 + (0.9 * 800) / 17, 9);
+  });
+});
+
+describe("warm-up check: the surface coefficient follows the surface temperature (lumped capacitance with h(T))", () => {
+  // Lumped capacitance with a coefficient that depends on the temperature difference (Bejan & Kraus, Heat
+  // Transfer Handbook, Wiley 2003, Eqs. 3.284–3.288; published-values.md §1.1 CONFIRMED): ρ c (V/A) dT/dt =
+  // h(T)(T∞ − T), integrated here by RK4 with h re-evaluated from the same natural-convection correlations at
+  // every step. A 10 mm tray of food made conductive (k = 5 W/(m·K), Bi ≈ 0.01) cooling from 90 °C in still 20 °C
+  // air without radiation: the numerical solver must give the same time to the 57 °C hot-holding limit within 2 %.
+  // Before, the coefficient stayed at its value for the mid temperature (55 °C) for the whole run.
+  it("time to the hot-holding limit within 2 % of the lumped h(T) integration", () => {
+    const rs = DEMO_SCENARIO.rulesets.find((r) => r.name.startsWith("US"))!;
+    const base = DEMO_SCENARIO.products.find((p) => p.name.startsWith("Roast chicken"))!;
+    const product = { ...base, dimA_m: 0.01, mass_kg: 0.01 * 0.265 * 0.325 * 1100, kUnfrozen_W_mK: 5 };
+    const r = runWarmup({ product, start_C: 90, surroundings: { medium: "air", T_C: 20, speed_m_s: 0, emissivity: 0 }, ruleSet: rs, limit: "hotHoldMin", horizon_s: 12 * 3600, method: "numerical" });
+    const shape = itemShape(product);
+    const food = foodThermal({ composition: product.composition, overrides: { kUnfrozen_W_mK: 5 }, mass_kg: product.mass_kg, volume_m3: shape.volume_m3 });
+    const L = shape.oneD.halfSize_m; // the solver's slab: V/A = half-thickness
+    const dTdt = (T: number) => (itemSurfaceCoefficient(shape.convection, T, { fluid: "air", T_C: 20, speed_m_s: 0 }, 0).hConvective_W_m2K * (20 - T)) / (food.rho_kg_m3 * food.c_J_kgK(T) * L);
+    let T = 90;
+    let t = 0;
+    const dt = 5;
+    while (T > 57) {
+      const k1 = dTdt(T);
+      const k2 = dTdt(T + (dt / 2) * k1);
+      const k3 = dTdt(T + (dt / 2) * k2);
+      const k4 = dTdt(T + dt * k3);
+      const Tn = T + (dt / 6) * (k1 + 2 * k2 + 2 * k3 + k4);
+      if (Tn <= 57) {
+        t += (dt * (T - 57)) / (T - Tn);
+        break;
+      }
+      T = Tn;
+      t += dt;
+    }
+    console.log(`h(T) check: numerical ${(r.timeToLimit_s.mean! / 60).toFixed(1)} min, lumped h(T) ${(t / 60).toFixed(1)} min`);
+    expect(r.method).toBe("numerical");
+    expect(Math.abs(r.timeToLimit_s.mean! / t - 1)).toBeLessThan(0.02);
+  });
+});
+
+describe("warm-up check: a block's corner is the warmest point (product solution, Incropera & DeWitt 6th ed., §5.8; from memory)", () => {
+  // The demo chicken thighs (40 × 265 × 325 mm) warming from 2 °C in 25 °C air: in the product solution a corner
+  // takes the surface value of all three slab factors, an edge of two, the middle of the largest face of one.
+  it("reports corner, edge and mid-face, judges the limit by the corner, and the corner equals the product of three surface factors", () => {
+    const rs = DEMO_SCENARIO.rulesets.find((r) => r.name.startsWith("US"))!;
+    const product = DEMO_SCENARIO.products.find((p) => p.name.startsWith("Roast chicken"))!;
+    const r = runWarmup({ product, start_C: 2, surroundings: { medium: "air", T_C: 25, speed_m_s: 0.2 }, ruleSet: rs, limit: "chilledMax", horizon_s: 6 * 3600 });
+    expect(r.method).toBe("series");
+    expect(r.surfacePoint).toBe("corner");
+    const { corner, edge, midFace, surface, center } = r.timeToLimit_s;
+    console.log(`corner ${(corner! / 60).toFixed(1)} min, edge ${(edge! / 60).toFixed(1)} min, mid-face ${(midFace! / 60).toFixed(1)} min, centre ${(center! / 60).toFixed(0)} min`);
+    expect(surface).toBe(corner);
+    expect(corner!).toBeLessThan(edge!);
+    expect(edge!).toBeLessThan(midFace!);
+    expect(midFace!).toBeLessThan(center!);
+    // Hand check at the last sample: θ_corner = Π θ_slab(Bi_i, Fo_i, x* = 1).
+    const last = r.series.at(-1)!;
+    const { k_W_mK: k, alpha_m2_s: a } = r.properties;
+    let th = 1;
+    for (const d of [product.dimA_m, product.dimB_m!, product.dimC_m!]) th *= seriesTheta("slab", (r.h_W_m2K * d) / 2 / k, (a * last.t_s) / (d / 2) ** 2, 1);
+    expect(last.surface_C).toBeCloseTo(25 + (2 - 25) * th, 2);
+    expect(last.midFace_C).toBeLessThan(last.surface_C);
   });
 });

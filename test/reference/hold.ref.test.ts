@@ -122,3 +122,45 @@ describe("mesh and time-step refinement change the hold time by < 1 %", () => {
     }
   });
 });
+
+describe("heat by path is the net heat through each face; the balance says when it means nothing", () => {
+  // Hand reasoning: a cold box in warm, sunny air gains heat through every face (air and sun both push
+  // heat in), so no face's net gain can be negative. Before, the sun was booked apart and the lid's
+  // "exchange with outside air" came out negative (the sunlit lid is warmer than the air).
+  it("cold load, 30 °C air and 900 W/m² of sun: every face gains, sun is folded into the face it hits", () => {
+    const r = run({
+      products: [{ product: P("Roast chicken"), count: 1, start_C: 3 }],
+      shipper: { ...S("Quillfield thin"), finishMaterial: "Black paint" },
+      materials: D.materials,
+      packs: [{ pack: K("Gel pack"), count: 4, conditioning_C: -18 }],
+      route: constantRoute(30, 6, 900),
+      ruleSet: D.rulesets[1],
+      uncertainty: noBand,
+      extendFraction: 0,
+    });
+    const g = r.heatGain_J;
+    console.log(`net heat by face (Wh): sides ${(g.sides / 3600).toFixed(1)}, base ${(g.base / 3600).toFixed(1)}, lid ${(g.lid / 3600).toFixed(1)}`);
+    for (const v of [g.sides, g.base, g.lid, g.edgesAndCorners]) expect(v).toBeGreaterThan(0);
+    // The sunlit lid takes more per square metre than the shaded base.
+    expect(g.lid).toBeGreaterThan(g.base);
+    expect(r.energyBalanceError!).toBeLessThan(1e-9);
+  });
+
+  // Hand reasoning: load, box and air all at 5 °C on a 5 °C route with no sun: no temperature differs, so
+  // no heat moves and a relative balance error is 0/0 — the planner must say "not meaningful".
+  it("everything at 5 °C: no heat moves, the energy balance is null (not meaningful), not a ratio of noise", () => {
+    const r = run({
+      products: [{ product: P("Roast chicken"), count: 1, start_C: 5 }],
+      shipper: S("Quillfield thin"),
+      materials: D.materials,
+      packs: [],
+      route: constantRoute(5, 4),
+      ruleSet: D.rulesets.find((x) => x.name.startsWith("England"))!,
+      boxStart_C: 5,
+      uncertainty: noBand,
+      extendFraction: 0,
+    });
+    expect(r.energyBalanceError).toBeNull();
+    expect(Math.abs(r.energyBalanceError_J)).toBeLessThan(1);
+  });
+});

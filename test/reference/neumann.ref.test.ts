@@ -2,7 +2,7 @@ import { describe, it, expect } from "vitest";
 import erf from "@stdlib/math-base-special-erf";
 import erfc from "@stdlib/math-base-special-erfc";
 import { solve1D } from "../../lib/physics/solver1d";
-import { simpleMaterial } from "../../lib/physics/properties";
+import { simpleMaterial, foodThermal } from "../../lib/physics/properties";
 
 /**
  * Neumann's similarity solution for melting of a semi-infinite solid initially at Ti < Tm whose
@@ -82,6 +82,62 @@ describe("enthalpy solver vs Neumann's melting solution (Carslaw & Jaeger 1959, 
   });
 
   it("conserves energy: stored enthalpy change equals the heat in through the surface", () => {
+    expect(Math.abs(r.energyError_J)).toBeLessThan(1e-9 * Math.abs(r.storedChange_J));
+  });
+});
+
+/**
+ * The same melting problem through the food-property path (lib/physics/properties.ts foodThermal) with a
+ * composition of pure water and an initial freezing point of 0 °C: a food without solutes must melt at a sharp
+ * front and reproduce Neumann's solution (Carslaw & Jaeger 1959, §11.2). Choi–Okos water and ice properties vary
+ * a little with temperature (ice k 2.29 → 2.22 W/(m·K) from −10 to 0 °C), so λ is computed with each phase's
+ * properties at its mean temperature (−5 °C and 5 °C); the band, 2 % on the melted depth, allows for that.
+ * Before: the ice-fraction model (freezing point forced to −0.05 °C, x_ice = x_w(1 − t_f/t)) spread the melting
+ * over several kelvin below 0 °C.
+ */
+describe("pure water through the food-property path vs Neumann's melting solution (Carslaw & Jaeger 1959, §11.2)", () => {
+  const water = foodThermal({ composition: { water: 1, protein: 0, fat: 0, carbohydrate: 0, fibre: 0, ash: 0 }, initialFreezing_C: 0 });
+  const Q = { rho: water.rho_kg_m3, cs: water.cSensible_J_kgK(-5), cl: water.cSensible_J_kgK(5), ks: water.k_W_mK(-5), kl: water.k_W_mK(5), L: water.latent_J_kg, Ti: -10, Ts: 10 };
+  const aS = Q.ks / (Q.rho * Q.cs);
+  const aL = Q.kl / (Q.rho * Q.cl);
+  const f = (l: number) =>
+    Math.exp(-l * l) / erf(l) - (Q.ks / Q.kl) * Math.sqrt(aL / aS) * ((0 - Q.Ti) / Q.Ts) * (Math.exp((-l * l * aL) / aS) / erfc(l * Math.sqrt(aL / aS))) - (l * Q.L * Math.sqrt(Math.PI)) / (Q.cl * Q.Ts);
+  let lo = 1e-6;
+  let hi = 3;
+  for (let i = 0; i < 200; i++) {
+    const m = (lo + hi) / 2;
+    if (f(m) > 0) lo = m;
+    else hi = m;
+  }
+  const lam = (lo + hi) / 2;
+  const depth = 0.6;
+  const nodes = 601;
+  const t = 6 * 3600;
+  const r = solve1D({ shape: "slab", halfSize_m: depth, nodes, material: water, initial_C: Q.Ti, boundary: { kind: "fixed", T_C: () => Q.Ts }, tEnd_s: t, dt_s: 5 });
+  const dx = depth / (nodes - 1);
+
+  it("melts at a sharp front: all the ice is gone 0.1 K below 0 °C, none melted below", () => {
+    expect(water.ice(-0.1)).toBeCloseTo(1, 9);
+    expect(water.ice(-1)).toBeCloseTo(1, 9);
+    expect(water.ice(0.001)).toBe(0);
+    expect(water.latentHeld_J_kg(-5)).toBeCloseTo(333_600, 3);
+  });
+
+  it("melted depth within 2 % of X = 2λ√(α_l t), and the profile within 2 % of (Ts − Ti)", () => {
+    const X = 2 * lam * Math.sqrt(aL * t);
+    // Melted depth = ∫ (1 − x_ice/x_ice,max) dx over the slab (equals X for a sharp front).
+    let melted = 0;
+    for (let i = 0; i < nodes; i++) melted += (1 - water.ice(r.profile_C[i])) * (i === 0 || i === nodes - 1 ? dx / 2 : dx);
+    console.log(`pure water via foodThermal: melted depth ${(melted * 1000).toFixed(1)} mm, Neumann ${(X * 1000).toFixed(1)} mm (λ = ${lam.toFixed(4)})`);
+    expect(Math.abs(melted / X - 1)).toBeLessThan(0.02);
+    let worst = 0;
+    for (let i = 0; i < nodes; i++) {
+      const x = depth - i * dx;
+      const s = x / (2 * Math.sqrt(aL * t));
+      const exactT = x <= X ? Q.Ts - (Q.Ts * erf(s)) / erf(lam) : Q.Ti + ((0 - Q.Ti) * erfc(x / (2 * Math.sqrt(aS * t)))) / erfc(lam * Math.sqrt(aL / aS));
+      worst = Math.max(worst, Math.abs(r.profile_C[i] - exactT) / (Q.Ts - Q.Ti));
+    }
+    expect(worst).toBeLessThan(0.02);
     expect(Math.abs(r.energyError_J)).toBeLessThan(1e-9 * Math.abs(r.storedChange_J));
   });
 });

@@ -2,7 +2,7 @@
 // (npm run test:pg) two Prisma clients, that is two connection pools, as two instances have.
 // On SQLite (npm test) one client: better-sqlite3 waits for another connection's write lock
 // synchronously, so two clients in one process would block each other's event loop (two
-// processes on one file are measured by scripts/load.ts). The version check, unique names,
+// processes on one file are measured by scripts/load-shared.ts). The version check, unique names,
 // the single default rule set and all-or-nothing import must hold exactly as for one writer.
 import { describe, it, expect, beforeAll, afterAll } from "vitest";
 import { onPostgres, tempDatabase } from "../helpers/tempdb";

@@ -54,7 +54,7 @@ describe("hold planner: results", () => {
     expect(r.band.low!).toBeLessThanOrEqual(r.band.central!);
     expect(r.band.high!).toBeGreaterThanOrEqual(r.band.central!);
     const g = r.heatGain_J;
-    expect(g.walls + g.lid + g.edgesAndCorners + g.sun + g.lidOpenings).toBeGreaterThan(0);
+    expect(g.sides + g.base + g.lid + g.edgesAndCorners + g.lidOpenings).toBeGreaterThan(0);
     expect(g.lidOpenings).toBeGreaterThan(0);
     expect(r.series[0].products[0].center_C).toBeCloseTo(1, 6);
     expect(r.series.length).toBeGreaterThan(20);
@@ -103,6 +103,16 @@ describe("hold planner: bad input changes nothing and says what to fix", () => {
     expect(holdInputSchema.safeParse({ ...base, products: [], packs: [] }).success).toBe(false);
     expect(() => runHold({ ...base, route: { ...slowRoute, segments: [{ ...slowRoute.segments[0], duration_s: 0 }] } })).toThrow(PhysicsInputError);
   });
+  it("a pack starts in the state its conditioning means: frozen at its melt point, partly melted just above it", () => {
+    const gel = K("Gel");
+    const at = (c: number) => runHold({ ...base, packs: [{ pack: gel, count: 2, conditioning_C: c }], extendFraction: 0 });
+    expect(at(gel.phaseChange_C).series[0].packs[0].latentLeft).toBeCloseTo(1, 6);
+    const half = at(gel.phaseChange_C + 0.125);
+    expect(half.series[0].packs[0].latentLeft).toBeCloseTo(0.5, 2);
+    expect(half.warnings.join(" ")).toMatch(/50 % melted/);
+    expect(at(gel.phaseChange_C + 1).series[0].packs[0].latentLeft).toBe(0);
+  });
+
   it("a pack warmer than its melt point is allowed, with a note", () => {
     const r = runHold({ ...base, packs: [{ pack: K("Water ice"), count: 2, conditioning_C: 4 }] });
     expect(r.warnings.join(" ")).toMatch(/above its melt point/);

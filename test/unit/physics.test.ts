@@ -8,6 +8,8 @@ import { plankTime } from "../../lib/physics/phase-change";
 import { runWarmup } from "../../lib/physics/warmup";
 import { PhysicsInputError } from "../../lib/physics/validation";
 import { DEMO_SCENARIO } from "../../lib/db/demo-scenario";
+import { itemShape } from "../../lib/physics/geometry";
+import { productSchema } from "../../lib/schemas/templates";
 
 const beef: Composition = { water: 0.71, protein: 0.22, fat: 0.06, carbohydrate: 0, fibre: 0, ash: 0.01 };
 
@@ -254,7 +256,7 @@ describe("warm-up / cool-down check", () => {
 
   it("never crossing gives null, and says why", () => {
     const r = runWarmup({ product: product("Roast chicken"), start_C: 3, surroundings: { medium: "air", T_C: 4, speed_m_s: 0 }, ruleSet: rs, limit: "chilledMax", horizon_s: 3600 });
-    expect(r.timeToLimit_s).toEqual({ center: null, surface: null, mean: null });
+    expect(r.timeToLimit_s).toEqual({ center: null, surface: null, mean: null, midFace: null, edge: null, corner: null });
     expect(r.warnings.join(" ")).toMatch(/never crosses/);
   });
 
@@ -274,5 +276,46 @@ describe("warm-up / cool-down check", () => {
       }),
       { numRuns: 25 },
     );
+  });
+});
+
+describe("hollow items", () => {
+  const turkey = DEMO_SCENARIO.products.find((p) => p.name.startsWith("Whole turkey"))!;
+  it("a hollow sphere's volume is the shell's and its area the outer surface", () => {
+    const s = itemShape(turkey);
+    const R = turkey.dimA_m / 2;
+    const Ri = R - turkey.wallThickness_m!;
+    expect(s.volume_m3).toBeCloseTo((4 / 3) * Math.PI * (R ** 3 - Ri ** 3), 12);
+    expect(s.area_m2).toBeCloseTo(4 * Math.PI * R * R, 12);
+    expect(s.hollow!.inner_m).toBeCloseTo(Ri, 12);
+    expect(s.oneD.innerRadius_m).toBeCloseTo(Ri, 12);
+  });
+  it("a solid item is unchanged: no wall, no cavity", () => {
+    const s = itemShape({ ...turkey, wallThickness_m: null });
+    expect(s.hollow).toBeNull();
+    expect(s.oneD.innerRadius_m).toBe(0);
+  });
+  it("the schema refuses a wall on a block and a wall as thick as the radius, with field messages", () => {
+    const bad1 = productSchema.safeParse({ ...DEMO_SCENARIO.products[0], wallThickness_m: 0.01 });
+    expect(bad1.success).toBe(false);
+    expect(bad1.error!.issues[0].path).toEqual(["wallThickness_m"]);
+    const bad2 = productSchema.safeParse({ ...turkey, wallThickness_m: turkey.dimA_m / 2 });
+    expect(bad2.success).toBe(false);
+    expect(bad2.error!.issues[0].message).toMatch(/less than half the diameter/);
+    expect(productSchema.safeParse(turkey).success).toBe(true);
+    const { wallThickness_m: _w, ...older } = turkey;
+    expect(productSchema.safeParse(older).success).toBe(true);
+  });
+  it("the warm-up check runs a hollow bird on its shell and conserves energy", () => {
+    const rs = DEMO_SCENARIO.rulesets[0];
+    const r = runWarmup({ product: turkey, start_C: 2, surroundings: { medium: "air", T_C: 20, speed_m_s: 0.2 }, ruleSet: rs, limit: "chilledMax", horizon_s: 12 * 3600 });
+    expect(r.method).toBe("numerical");
+    expect(r.energyBalanceError!).toBeLessThan(1e-9);
+    expect(r.biotLength_m).toBeCloseTo(turkey.wallThickness_m!, 12);
+  });
+  it("a thicker wall thaws slower (same outer size)", () => {
+    const rs = DEMO_SCENARIO.rulesets[0];
+    const t = (w: number) => runWarmup({ product: { ...turkey, wallThickness_m: w, mass_kg: 1054 * (4 / 3) * Math.PI * ((turkey.dimA_m / 2) ** 3 - (turkey.dimA_m / 2 - w) ** 3) }, start_C: -18, surroundings: { medium: "water", T_C: 15, speed_m_s: 0 }, ruleSet: rs, limit: "chilledMax", horizon_s: 48 * 3600 }).timeToLimit_s.center!;
+    expect(t(0.06)).toBeGreaterThan(t(0.04));
   });
 });

@@ -4,7 +4,7 @@ import { getPlan } from "@/lib/db/plans";
 
 export default async function PlanPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
-  const plan = await getPlan(await getDb(), Number(id));
+  const plan = await getPlan(await getDb(), id);
   if (!plan) notFound();
   return (
     <>

@@ -1,7 +1,5 @@
 import { resolveThawRefs } from "@/lib/db/resolve";
-import { thawInputSchema } from "@/lib/schemas/thaw";
-import { runThawParsed } from "@/lib/physics/thaw";
 import { calculationRoute } from "../_lib";
 
-/** POST /api/v1/thaw — the thaw planner. `product`, `ruleSet` and a tray's material may be names. */
-export const POST = calculationRoute(resolveThawRefs, thawInputSchema, runThawParsed);
+/** POST /api/v1/thaw — the thaw planner (in the worker pool). `product`, `ruleSet` and a tray's material may be names. */
+export const POST = calculationRoute("thaw", resolveThawRefs);

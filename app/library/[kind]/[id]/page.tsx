@@ -9,7 +9,7 @@ import Link from "next/link";
 export default async function EditTemplate({ params }: { params: Promise<{ kind: string; id: string }> }) {
   const { kind, id } = await params;
   if (!isTemplateKind(kind)) notFound();
-  const t = await getTemplate(await getDb(), kind, Number(id));
+  const t = await getTemplate(await getDb(), kind, id);
   if (!t) notFound();
   return (
     <>

@@ -4,17 +4,24 @@ import { currentUnits } from "@/app/_server/units";
 import { getPlan } from "@/lib/db/plans";
 import { holdInputSchema } from "@/lib/schemas/hold";
 import { runHoldParsed } from "@/lib/physics/hold";
-import { conditioningTime_s, CABINET_H_W_M2K, PACK_START_C } from "@/lib/physics/conditioning";
+import { conditioningTime_s, canFreezeAt, CABINET_H_W_M2K, PACK_START_C } from "@/lib/physics/conditioning";
 import { formatQuantity } from "@/lib/units";
 import { formatDuration } from "@/lib/format";
 import { LayerDiagram } from "@/app/_components/LayerDiagram";
+import { placementSplit } from "@/lib/physics/placement";
+
+/** The packs of a line where the model puts them, e.g. "2 on top, 1 underneath, 1 at the sides". */
+function placedAs(placement: Parameters<typeof placementSplit>[0], count: number): string {
+  const s = placementSplit(placement, count);
+  return [s.top ? `${s.top} on top` : "", s.bottom ? `${s.bottom} underneath` : "", s.side ? `${s.side} at the sides` : ""].filter(Boolean).join(", ");
+}
 import { CautionBlock } from "@/app/_components/CautionBlock";
 import { PrintButton } from "@/app/_components/PrintButton";
 
 /** One printable page for the packer: what goes in, conditioned how long, in what order, and what to check. */
 export default async function PackOutSheet({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
-  const plan = await getPlan(await getDb(), Number(id));
+  const plan = await getPlan(await getDb(), id);
   if (!plan || plan.kind !== "hold") notFound();
   const parsed = holdInputSchema.safeParse(plan.input);
   if (!parsed.success) notFound();
@@ -62,8 +69,8 @@ export default async function PackOutSheet({ params }: { params: Promise<{ id: s
                   <td>{p.pack.name}</td>
                   <td>{p.count}</td>
                   <td>{p.pack.kind === "dry_ice" ? "as delivered" : formatQuantity("temperature", p.conditioning_C, units, 3)}</td>
-                  <td>{p.pack.kind === "dry_ice" ? "—" : t === null ? "over 14 days: check the cabinet" : formatDuration(t)}</td>
-                  <td>{p.placement}</td>
+                  <td>{p.pack.kind === "dry_ice" ? "—" : p.conditioning_C <= p.pack.phaseChange_C && !canFreezeAt(p.pack, p.conditioning_C) ? "a cabinet this warm cannot freeze it through: use a colder one" : t === null ? "over 14 days: check the cabinet" : formatDuration(t)}</td>
+                  <td>{placedAs(p.placement, p.count)}</td>
                 </tr>
               );
             })}
@@ -79,7 +86,7 @@ export default async function PackOutSheet({ params }: { params: Promise<{ id: s
           inner={{ L: s.innerLength_m, H: s.innerHeight_m }}
           wall_m={wall}
           lid_m={lid}
-          packs={inp.packs.map((p) => ({ name: p.pack.name, count: p.count, thickness_m: p.pack.thickness_m, placement: p.placement }))}
+          packs={inp.packs.map((p) => ({ name: p.pack.name, count: p.count, thickness_m: p.pack.thickness_m, placement: p.placement, touchesLoad: p.contactWith !== "none" }))}
           productLabel={inp.products.map((p) => `${p.count} × ${p.product.name}`).join(", ")}
         />
       </section>

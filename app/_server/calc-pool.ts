@@ -1,0 +1,98 @@
+import "server-only";
+import { availableParallelism } from "node:os";
+import path from "node:path";
+import { existsSync } from "node:fs";
+import { Piscina } from "piscina";
+import type { CalcAnswer, CalcJob, Calculation } from "./calc-worker";
+
+/**
+ * The server's calculation pool: every hold, thaw, warm-up and sizing runs in a worker thread, so the
+ * request thread stays free for pages and template lists. Each job has a time limit; when it runs out the
+ * worker is stopped (piscina terminates the thread on abort) and the caller gets a clear 422. A full queue,
+ * or a second heavy sizing while one already holds every spare thread, is a 503 with Retry-After.
+ *
+ * The worker is the prebuilt bundle dist/calc-worker.mjs (scripts/bundle.mjs, run by postinstall and
+ * prebuild), so the server never needs a TypeScript loader in its threads.
+ */
+export const CALC_TIME_LIMIT_S: Record<Calculation, number> = { hold: 30, thaw: 30, warmup: 30, size: 120 };
+
+/** What to change when a job runs out of time. */
+const TOO_LONG_HINT: Record<Calculation, string> = {
+  hold: "use a shorter route, fewer segments or lid openings, or fewer product and pack lines",
+  thaw: "look at a shorter horizon (horizon_s) or change the water less often",
+  warmup: "look at a shorter horizon",
+  size: "narrow the count ranges, use fewer conditioning temperatures or boxes, or keep pruning on",
+};
+
+const MAX_QUEUE = 64;
+
+export type PoolOutcome = CalcAnswer | { ok: false; status: 503; message: string; fieldErrors: Record<string, string[]>; retryAfter_s: number };
+
+interface PoolState {
+  pool: Piscina<CalcJob, CalcAnswer>;
+  threads: number;
+  sizingRunning: number;
+}
+const g = globalThis as unknown as { __holdlineCalcPool?: PoolState };
+
+/** The bundle's path, found at run time (the build must not trace it: it is not part of Next's output). */
+export function workerFile(): string {
+  return path.resolve(/*turbopackIgnore: true*/ process.env.HOLDLINE_WORKER_FILE ?? path.join(/*turbopackIgnore: true*/ process.cwd(), "dist", "calc-worker.mjs"));
+}
+
+function state(): PoolState {
+  if (!g.__holdlineCalcPool) {
+    const filename = workerFile();
+    if (!existsSync(/*turbopackIgnore: true*/ filename)) throw new Error(`The calculation worker ${filename} is missing: run \`npm run bundle\` (npm install and npm run build do it)`);
+    const threads = Math.max(2, availableParallelism());
+    g.__holdlineCalcPool = {
+      // niceIncrement (19, the lowest) lowers the worker threads' CPU priority (Linux, through the optional @napi-rs/nice),
+      // so the request thread is never starved by a long sizing on a busy machine.
+      pool: new Piscina<CalcJob, CalcAnswer>({ filename, minThreads: 1, maxThreads: threads, maxQueue: MAX_QUEUE, idleTimeout: 60_000, niceIncrement: 19 }),
+      threads,
+      sizingRunning: 0,
+    };
+  }
+  return g.__holdlineCalcPool;
+}
+
+/** Runs one calculation in the pool with its time limit (seconds; the kind's default unless given). */
+export async function runCalculation(kind: Calculation, input: unknown, limit_s = timeLimitOf(kind)): Promise<PoolOutcome> {
+  const s = state();
+  // A sizing may take minutes: never let sizings take every thread, so a hold or thaw always has one.
+  if (kind === "size" && s.sizingRunning >= Math.max(1, s.threads - 1)) {
+    return { ok: false, status: 503, message: "Another pack-out sizing is running; try again when it has finished", fieldErrors: {}, retryAfter_s: 10 };
+  }
+  if (s.pool.queueSize >= MAX_QUEUE) return busy();
+  if (kind === "size") s.sizingRunning++;
+  try {
+    return await s.pool.run({ kind, input }, { signal: AbortSignal.timeout(limit_s * 1000) });
+  } catch (e) {
+    const err = e as Error;
+    if (err?.name === "AbortError" || err?.name === "TimeoutError") {
+      const message = `This calculation took longer than ${limit_s} s and was stopped: ${TOO_LONG_HINT[kind]}`;
+      return { ok: false, status: 422, message, fieldErrors: { "": [message] } };
+    }
+    if (/queue is at limit/i.test(err?.message ?? "")) return busy();
+    throw e;
+  } finally {
+    if (kind === "size") s.sizingRunning--;
+  }
+}
+
+function busy(): PoolOutcome {
+  return { ok: false, status: 503, message: "The server is busy with other calculations; try again in a few seconds", fieldErrors: {}, retryAfter_s: 5 };
+}
+
+/** The time limit of a kind of job; HOLDLINE_CALC_TIME_LIMIT_S (seconds) overrides every kind's. */
+export function timeLimitOf(kind: Calculation): number {
+  const env = Number(process.env.HOLDLINE_CALC_TIME_LIMIT_S);
+  return Number.isFinite(env) && env > 0 ? env : CALC_TIME_LIMIT_S[kind];
+}
+
+/** For tests and shutdown. */
+export async function closeCalculationPool(): Promise<void> {
+  const s = g.__holdlineCalcPool;
+  g.__holdlineCalcPool = undefined;
+  if (s) await s.pool.destroy();
+}

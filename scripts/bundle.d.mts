@@ -1,0 +1,1 @@
+export declare function bundle(opts?: { quiet?: boolean }): Promise<string[]>;
