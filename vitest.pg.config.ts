@@ -9,6 +9,7 @@ export const DATABASE_TESTS = [
   "test/unit/accounts.test.ts",
   "test/unit/concurrency.test.ts",
   "test/unit/api.test.ts",
+  "test/unit/ruleset-fields.test.ts",
   "test/unit/schema-drift.pg.test.ts",
 ];
 

@@ -91,6 +91,8 @@ describe("roles", () => {
     expect(entries.at(-1)!.action).toBe("imported"); // the demo seed
     expect((await api("GET", `/api/v1/products/1/history`, { token: editor })).status).toBe(404);
     expect((await api("GET", `/api/v1/rulesets/abc/history`, { token: editor })).status).toBe(404);
+    // Beyond the largest stored id (2^31 - 1): no id, not a database error on PostgreSQL.
+    expect((await api("GET", `/api/v1/rulesets/9999999999/history`, { token: editor })).status).toBe(404);
   });
 
   it("keeps names unique and the version check under concurrent API calls", async () => {

@@ -1,3 +1,4 @@
+import { parseId } from "@/lib/schemas/id";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { getDb } from "@/app/_server/db";
@@ -32,8 +33,9 @@ function differences(now: Record<string, unknown>, before: Record<string, unknow
 /** Every recorded change to one rule set, newest first: who, when, and what changed from the entry before. */
 export default async function RuleSetHistoryPage({ params }: { params: Promise<{ kind: string; id: string }> }) {
   const { kind, id } = await params;
-  if (kind !== "rulesets" || !/^[1-9]\d{0,9}$/.test(id)) notFound();
-  const rows = await ruleSetHistory(await getDb(), Number(id));
+  const n = parseId(id);
+  if (kind !== "rulesets" || n === null) notFound();
+  const rows = await ruleSetHistory(await getDb(), n);
   if (!rows.length) notFound();
   return (
     <>
