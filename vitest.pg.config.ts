@@ -10,6 +10,7 @@ export const DATABASE_TESTS = [
   "test/unit/concurrency.test.ts",
   "test/unit/api.test.ts",
   "test/unit/ruleset-fields.test.ts",
+  "test/unit/cli-library-db.test.ts",
   "test/unit/schema-drift.pg.test.ts",
 ];
 
