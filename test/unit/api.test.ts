@@ -107,6 +107,25 @@ describe("roles", () => {
   });
 });
 
+describe("one gate: main's host and cross-site checks, then the accounts gate", () => {
+  it("refuses a foreign Host and a cross-site write even with a valid session; a set passphrase does not replace accounts", async () => {
+    expect((await api("GET", "/api/v1/products", { token: editor, headers: { host: "rebound.example:3113" } })).status).toBe(403);
+    const product = { ...structuredClone(DEMO_SCENARIO.products[1]), name: "Cross-site product" };
+    expect((await api("POST", "/api/v1/products", { token: editor, body: product, headers: { origin: "http://evil.example" } })).status).toBe(403);
+    const old = process.env.HOLDLINE_PASSPHRASE;
+    process.env.HOLDLINE_PASSPHRASE = "a long shared phrase for this test";
+    try {
+      // Accounts on: the passphrase is not asked for (the session token is the bearer), nor accepted instead of a session.
+      expect((await api("GET", "/api/v1/products", { token: planner })).status).toBe(200);
+      expect((await api("GET", "/api/v1/products", { token: "a long shared phrase for this test" })).status).toBe(401);
+    } finally {
+      if (old === undefined) delete process.env.HOLDLINE_PASSPHRASE;
+      else process.env.HOLDLINE_PASSPHRASE = old;
+    }
+    expect(await db.product.count({ where: { name: "Cross-site product" } })).toBe(0);
+  });
+});
+
 describe("signing out", () => {
   it("ends the session at once", async () => {
     expect((await api("DELETE", "/api/v1/session", { token: planner })).status).toBe(204);
