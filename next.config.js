@@ -21,7 +21,7 @@ const csp = [
 
 /** @type {import('next').NextConfig} */
 const nextConfig = {
-  serverExternalPackages: ["better-sqlite3", "@prisma/adapter-better-sqlite3", "piscina"],
+  serverExternalPackages: ["better-sqlite3", "@prisma/adapter-better-sqlite3", "pg", "@prisma/adapter-pg", "piscina"],
   poweredByHeader: false,
   typedRoutes: false,
   async headers() {

@@ -3,6 +3,8 @@ import Link from "next/link";
 import "./globals.css";
 import { UnitsProvider } from "./_components/units-context";
 import { currentUnits } from "./_server/units";
+import { currentActor } from "./_server/auth";
+import { signOutAction } from "./signin/actions";
 
 export const metadata: Metadata = {
   title: "Holdline",
@@ -15,6 +17,7 @@ export const dynamic = "force-dynamic";
 
 export default async function RootLayout({ children }: { children: React.ReactNode }) {
   const units = await currentUnits();
+  const actor = await currentActor();
   return (
     <html lang="en">
       <body>
@@ -42,6 +45,11 @@ export default async function RootLayout({ children }: { children: React.ReactNo
           <span className="units-now" data-testid="units-now">
             {units.temperatureUnit === "C" ? "°C" : "°F"} · {units.massUnit} · {units.lengthUnit}
           </span>
+          {actor ? (
+            <form action={signOutAction} className="signed-in" data-testid="signed-in">
+              {actor.name} ({actor.role}) {actor.role === "editor" ? <Link href="/accounts">Accounts</Link> : null} <button type="submit">Sign out</button>
+            </form>
+          ) : null}
         </header>
         <UnitsProvider prefs={units}>
           <main>{children}</main>

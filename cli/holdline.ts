@@ -56,7 +56,7 @@ ${schemaNameLines(await schemaNames())}
   holdline --help                     this text
 
 Options:
-  --db PATH      SQLite file to use (default: DATABASE_URL, else data/holdline.db)
+  --db PATH      SQLite file, or postgresql:// URL of a shared library (default: DATABASE_URL, else data/holdline.db)
   --no-seed      do not seed the demo scenario into a brand-new database
   --out FILE     write the JSON answer to FILE instead of standard output
 

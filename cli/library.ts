@@ -7,9 +7,11 @@ import { closeSync, openSync, readSync, statSync } from "node:fs";
 import path from "node:path";
 import Database from "better-sqlite3";
 import { migrateDatabase } from "../lib/db/migrate";
+import { migratePostgres } from "../lib/db/migrate-pg";
+import { isPostgresUrl, redactLocation } from "../lib/db/provider";
 import { createPrismaClient, type Db } from "../lib/db/client";
 import { seedIfFresh } from "../lib/db/seed";
-import { migrationsDir } from "./paths";
+import { migrationsDir, pgMigrationsDir } from "./paths";
 import { CliError } from "./errors";
 
 /** A database path the CLI refuses, with the reason in one line. */
@@ -75,6 +77,7 @@ export function checkDatabaseFile(dbPath: string): void {
 
 /** Checks, migrates (with the package's own migrations) and, when brand new, seeds the database; returns a client. */
 export async function openLibrary(dbPath: string, opts: { seed: boolean }): Promise<Db> {
+  if (isPostgresUrl(dbPath)) return openPostgresLibrary(dbPath, opts);
   checkDatabaseFile(dbPath);
   try {
     migrateDatabase(dbPath, migrationsDir());
@@ -91,6 +94,27 @@ export async function openLibrary(dbPath: string, opts: { seed: boolean }): Prom
     }
   }
   return db;
+}
+
+/**
+ * A shared PostgreSQL library: migrated with the package's PostgreSQL twins under the migration lock, and
+ * seeded under that lock only when brand new (lib/db/migrate-pg.ts), as the app does when it starts.
+ */
+async function openPostgresLibrary(url: string, opts: { seed: boolean }): Promise<Db> {
+  const seed = async () => {
+    const db = createPrismaClient(url);
+    try {
+      await seedIfFresh(db);
+    } finally {
+      await db.$disconnect();
+    }
+  };
+  try {
+    await migratePostgres(url, { migrationsDir: pgMigrationsDir(), whileLocked: opts.seed ? seed : undefined });
+  } catch (e) {
+    throw new DatabaseFileError(`${redactLocation(url)} cannot be prepared: ${(e as Error).message}`);
+  }
+  return createPrismaClient(url);
 }
 
 export { exportLibrary, importLibrary } from "../lib/db/library";

@@ -15,5 +15,7 @@ export function packageRoot(from: string = path.dirname(fileURLToPath(import.met
 }
 
 export const migrationsDir = () => path.join(packageRoot(), "prisma", "migrations");
+/** Their PostgreSQL twins (same folder names), for a `postgresql://` database. */
+export const pgMigrationsDir = () => path.join(packageRoot(), "prisma", "migrations-postgresql");
 /** The prebuilt sizer thread (scripts/bundle.mjs builds it; Node runs it without a TypeScript loader). */
 export const sizeWorkerFile = () => path.join(packageRoot(), "dist", "cli", "size-worker.mjs");

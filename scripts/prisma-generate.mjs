@@ -20,5 +20,10 @@ if (!env.PRISMA_SCHEMA_ENGINE_BINARY && !hasRealEngine) {
 }
 env.PRISMA_HIDE_UPDATE_MESSAGE = "1";
 const bin = path.resolve("node_modules", ".bin", process.platform === "win32" ? "prisma.cmd" : "prisma");
-const r = spawnSync(bin, ["generate"], { stdio: "inherit", env });
-process.exit(r.status ?? 1);
+// The SQLite client from prisma/schema.prisma, then the PostgreSQL client from its generated copy.
+const pgCopy = spawnSync(process.execPath, [path.resolve("scripts", "pg-schema.mjs")], { stdio: "inherit", env });
+if (pgCopy.status !== 0) process.exit(pgCopy.status ?? 1);
+for (const args of [["generate", "--schema", "prisma/schema.prisma"], ["generate", "--schema", "prisma/postgresql/schema.prisma"]]) {
+  const r = spawnSync(bin, args, { stdio: "inherit", env });
+  if (r.status !== 0) process.exit(r.status ?? 1);
+}

@@ -291,7 +291,7 @@ export function TemplateForm(props: {
     }
     if (r.reason === "invalid") {
       for (const [path, msgs] of Object.entries(r.fieldErrors)) setError((path || "root") as never, { type: "server", message: msgs.join("; ") });
-      setBanner({ tone: "error", text: "Some values need attention; see the messages beside the fields." });
+      setBanner({ tone: "error", text: r.fieldErrors[""]?.join("; ") ?? "Some values need attention; see the messages beside the fields." });
     } else if (r.reason === "conflict") {
       setBanner({ tone: "conflict", text: r.message, latest: r.currentVersion });
     } else {

@@ -17,6 +17,7 @@ export default async function PlansPage() {
               <th>Name</th>
               <th>Kind</th>
               <th>Saved (UTC)</th>
+              <th>By</th>
             </tr>
           </thead>
           <tbody>
@@ -27,6 +28,7 @@ export default async function PlansPage() {
                 </td>
                 <td>{p.kind}</td>
                 <td>{p.createdAt.toISOString().slice(0, 16).replace("T", " ")}</td>
+                <td>{p.createdByName ?? "—"}</td>
               </tr>
             ))}
           </tbody>

@@ -9,6 +9,8 @@ import { libraryFileSchema, TEMPLATE_KINDS, type LibraryFile, type TemplateKind,
 import { describeIssues } from "../schemas/errors";
 import { delegateFor, listTemplates, toRow } from "./templates";
 import { getSettings } from "./settings";
+import { libraryTransaction } from "./tx";
+import { recordRuleSetChange, type Actor } from "./audit";
 
 export async function exportLibrary(db: Db): Promise<LibraryFile> {
   const out: Record<string, unknown> = { format: "holdline-library", formatVersion: 1, settings: await getSettings(db) };
@@ -20,7 +22,7 @@ export type ImportResult =
   | { ok: true; created: number; updated: number }
   | { ok: false; errors: string[] };
 
-export async function importLibrary(db: Db, file: unknown): Promise<ImportResult> {
+export async function importLibrary(db: Db, file: unknown, actor: Actor = null): Promise<ImportResult> {
   if (typeof file !== "object" || file === null || Array.isArray(file)) {
     return { ok: false, errors: ["The file must hold one JSON object with format \"holdline-library\""] };
   }
@@ -71,20 +73,21 @@ export async function importLibrary(db: Db, file: unknown): Promise<ImportResult
 
   let created = 0;
   let updated = 0;
-  await db.$transaction(async (tx) => {
-    const txDb = tx as unknown as Db;
+  await libraryTransaction(db, async (tx) => {
+    const txDb = tx;
     if (defaults === 1) await delegateFor(txDb, "rulesets").updateMany({ where: { isDefault: true }, data: { isDefault: false } });
     for (const kind of TEMPLATE_KINDS) {
       for (const entry of (parsed[kind] ?? []) as { name: string }[]) {
         const d = delegateFor(txDb, kind);
         const row = toRow(kind, entry as never);
         const existing = await d.findUnique({ where: { name: entry.name } });
-        if (existing) {
-          await d.update({ where: { id: existing.id }, data: { ...row, version: { increment: 1 } } });
-          updated++;
-        } else {
-          await d.create({ data: row });
-          created++;
+        const saved = existing
+          ? await d.update({ where: { id: existing.id }, data: { ...row, version: { increment: 1 } } })
+          : await d.create({ data: row });
+        if (existing) updated++;
+        else created++;
+        if (kind === "rulesets") {
+          await recordRuleSetChange(txDb, { ruleSetId: saved.id, ruleSetName: entry.name, action: "imported", version: saved.version, snapshot: entry, actor });
         }
       }
     }

@@ -1,5 +1,6 @@
 import type { Db } from "./client";
 import { z } from "zod";
+import type { Actor } from "./audit";
 import { parseId } from "../schemas/id";
 
 export const PLAN_KINDS = ["warmup", "hold", "thaw", "size"] as const;
@@ -20,18 +21,27 @@ export interface StoredPlan {
   input: unknown;
   result: unknown;
   createdAt: Date;
+  /** Who saved it (accounts mode); null in a single-user install. */
+  createdByName: string | null;
 }
 
-export async function savePlan(db: Db, plan: PlanInput): Promise<number> {
+export async function savePlan(db: Db, plan: PlanInput, actor: Actor = null): Promise<number> {
   const p = planSchema.parse(plan);
   const row = await db.plan.create({
-    data: { kind: p.kind, name: p.name, input: JSON.stringify(p.input ?? null), result: JSON.stringify(p.result ?? null) },
+    data: {
+      kind: p.kind,
+      name: p.name,
+      input: JSON.stringify(p.input ?? null),
+      result: JSON.stringify(p.result ?? null),
+      createdById: actor?.id ?? null,
+      createdByName: actor?.name ?? null,
+    },
   });
   return row.id;
 }
 
-function toPlan(r: { id: number; kind: string; name: string; input: string; result: string; createdAt: Date }): StoredPlan {
-  return { id: r.id, kind: r.kind, name: r.name, input: JSON.parse(r.input), result: JSON.parse(r.result), createdAt: r.createdAt };
+function toPlan(r: { id: number; kind: string; name: string; input: string; result: string; createdAt: Date; createdByName: string | null }): StoredPlan {
+  return { id: r.id, kind: r.kind, name: r.name, input: JSON.parse(r.input), result: JSON.parse(r.result), createdAt: r.createdAt, createdByName: r.createdByName };
 }
 
 export async function listPlans(db: Db): Promise<StoredPlan[]> {

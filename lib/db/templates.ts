@@ -15,6 +15,9 @@ import {
   TEMPLATE_LABELS,
 } from "../schemas/templates";
 import { z } from "zod";
+// Shared-database support (issue 16): library writes go through one transaction helper and rule-set changes are recorded.
+import { libraryTransaction, isUniqueViolation } from "./tx";
+import { recordRuleSetChange, type Actor } from "./audit";
 import { parseId } from "../schemas/id";
 
 export interface Stored<K extends TemplateKind> {
@@ -172,26 +175,31 @@ export async function saveTemplate(
   id: number | null,
   expectedVersion: number | null,
   input: unknown,
+  actor: Actor = null,
 ): Promise<SaveResult> {
   const notFound = { ok: false as const, reason: "not_found" as const, message: `This ${TEMPLATE_LABELS[kind].one} no longer exists; it may have been deleted.` };
   if (id !== null && parseId(id) === null) return notFound;
   const parsed = templateSchemas[kind].safeParse(input);
   if (!parsed.success) return { ok: false, reason: "invalid", fieldErrors: fieldErrorsOf(parsed.error) };
   const data = parsed.data as TemplateOutput[TemplateKind];
-  // One transaction: every check (references, name, version) comes before the first write, so a refused
-  // save changes nothing — in particular the default rule set keeps its flag when an update is refused.
-  return db.$transaction(async (tx) => {
+  const nameTakenResult: SaveResult = {
+    ok: false,
+    reason: "invalid",
+    fieldErrors: { name: [`Another ${TEMPLATE_LABELS[kind].one} is already called "${(data as { name: string }).name}"`] },
+  };
+  // One transaction under the library write lock (lib/db/tx.ts): every check (references, name, version)
+  // comes before the first write, so a refused save changes nothing — in particular the default rule set
+  // keeps its flag when an update is refused. The unique index is the backstop for the name check.
+  return libraryTransaction(db, async (tx) => {
     const txl = tx as unknown as TxLike;
     const t = delegateFor(txl, kind);
+    const audit = (rowId: number, version: number, action: "created" | "updated") =>
+      kind === "rulesets"
+        ? recordRuleSetChange(tx, { ruleSetId: rowId, ruleSetName: (data as { name: string }).name, action, version, snapshot: data, actor })
+        : Promise.resolve();
     const refErrors = await referenceErrors(txl, kind, data);
     if (Object.keys(refErrors).length) return { ok: false as const, reason: "invalid" as const, fieldErrors: refErrors };
-    if (await nameTaken(txl, kind, (data as { name: string }).name, id)) {
-      return {
-        ok: false as const,
-        reason: "invalid" as const,
-        fieldErrors: { name: [`Another ${TEMPLATE_LABELS[kind].one} is already called "${(data as { name: string }).name}"`] },
-      };
-    }
+    if (await nameTaken(txl, kind, (data as { name: string }).name, id)) return nameTakenResult;
     const clearOtherDefaults = async () => {
       if (kind === "rulesets" && (data as TemplateOutput["rulesets"]).isDefault) {
         await t.updateMany({ where: { isDefault: true, ...(id ? { NOT: { id } } : {}) }, data: { isDefault: false } });
@@ -200,6 +208,7 @@ export async function saveTemplate(
     if (id === null) {
       await clearOtherDefaults();
       const row = await t.create({ data: toRow(kind, data) });
+      await audit(row.id, row.version, "created");
       return { ok: true as const, id: row.id, version: row.version };
     }
     const current = await t.findUnique({ where: { id } });
@@ -215,9 +224,11 @@ export async function saveTemplate(
     const res = await t.updateMany({ where: { id, version: expectedVersion }, data: { ...toRow(kind, data), version: { increment: 1 } } });
     if (res.count !== 1) throw new VersionMoved(); // rolls the transaction back
     await clearOtherDefaults();
+    await audit(id, expectedVersion + 1, "updated");
     return { ok: true as const, id, version: expectedVersion + 1 };
   }).catch((e: unknown): SaveResult => {
     if (e instanceof VersionMoved) return { ok: false, reason: "conflict", message: `This ${TEMPLATE_LABELS[kind].one} was changed since you opened it.`, currentVersion: null };
+    if (isUniqueViolation(e)) return nameTakenResult;
     throw e;
   });
 }
@@ -229,6 +240,7 @@ export async function deleteTemplate(
   db: Db,
   kind: TemplateKind,
   rawId: number | string,
+  actor: Actor = null,
 ): Promise<{ ok: true } | { ok: false; reason: "not_found" | "in_use"; message: string }> {
   const d = delegateFor(db, kind);
   const id = parseId(rawId);
@@ -246,12 +258,19 @@ export async function deleteTemplate(
     }
   }
   // deleteMany: a row deleted meanwhile by someone else is "not found", not a database error.
-  const r = await d.deleteMany({ where: { id } });
-  return r.count === 1 ? { ok: true } : { ok: false, reason: "not_found", message: `No ${TEMPLATE_LABELS[kind].one} with id ${id}` };
+  const count = await libraryTransaction(db, async (tx) => {
+    const gone = await delegateFor(tx, kind).deleteMany({ where: { id } });
+    if (kind === "rulesets" && gone.count === 1) {
+      const snapshot = fromRow("rulesets", row);
+      await recordRuleSetChange(tx, { ruleSetId: id, ruleSetName: snapshot.name, action: "deleted", version: row.version, snapshot, actor });
+    }
+    return gone.count;
+  });
+  return count === 1 ? { ok: true } : { ok: false, reason: "not_found", message: `No ${TEMPLATE_LABELS[kind].one} with id ${id}` };
 }
 
 /** Copies a template under a free name ("X (copy)", "X (copy 2)", …). */
-export async function duplicateTemplate(db: Db, kind: TemplateKind, id: number | string): Promise<SaveResult> {
+export async function duplicateTemplate(db: Db, kind: TemplateKind, id: number | string, actor: Actor = null): Promise<SaveResult> {
   const src = await getTemplate(db, kind, id);
   if (!src) return { ok: false, reason: "not_found", message: `No ${TEMPLATE_LABELS[kind].one} with id ${id}` };
   const base = `${(src.data as { name: string }).name} (copy`;
@@ -259,7 +278,7 @@ export async function duplicateTemplate(db: Db, kind: TemplateKind, id: number |
   for (let n = 2; await nameTaken(db, kind, name, null); n++) name = `${base} ${n})`;
   const data = { ...src.data, name } as Record<string, unknown>;
   if (kind === "rulesets") data.isDefault = false;
-  return saveTemplate(db, kind, null, null, data);
+  return saveTemplate(db, kind, null, null, data, actor);
 }
 
 export async function countTemplates(db: Db): Promise<number> {

@@ -3,6 +3,7 @@ import { getDb } from "@/app/_server/db";
 import { listTemplates, saveTemplate } from "@/lib/db/templates";
 import { isTemplateKind } from "@/lib/schemas/templates";
 import { notFound, readJson, unprocessable } from "../_lib";
+import { authorizeApi } from "@/app/_server/auth";
 
 type Ctx = { params: Promise<{ kind: string }> };
 
@@ -16,9 +17,11 @@ export async function GET(_req: Request, { params }: Ctx) {
 export async function POST(req: Request, { params }: Ctx) {
   const { kind } = await params;
   if (!isTemplateKind(kind)) return notFound(`No template kind "${kind}"`);
+  const who = await authorizeApi("edit");
+  if (!who.ok) return who.response;
   const body = await readJson(req);
   if (!body.ok) return body.response;
-  const r = await saveTemplate(await getDb(), kind, null, null, body.body);
+  const r = await saveTemplate(await getDb(), kind, null, null, body.body, who.actor);
   if (r.ok) return NextResponse.json({ id: r.id, version: r.version }, { status: 201 });
   if (r.reason === "invalid") return unprocessable("Some fields are not valid", r.fieldErrors);
   return unprocessable(r.message);

@@ -4,6 +4,7 @@ import { deleteTemplate, getTemplate, saveTemplate } from "@/lib/db/templates";
 import { isTemplateKind, TEMPLATE_LABELS } from "@/lib/schemas/templates";
 import { parseId } from "@/lib/schemas/id";
 import { notFound, readJson, unprocessable } from "../../_lib";
+import { authorizeApi } from "@/app/_server/auth";
 
 type Ctx = { params: Promise<{ kind: string; id: string }> };
 
@@ -28,6 +29,8 @@ export async function GET(_req: Request, ctx: Ctx) {
 export async function PUT(req: Request, ctx: Ctx) {
   const t = await target(ctx);
   if (!t.ok) return t.response;
+  const who = await authorizeApi("edit");
+  if (!who.ok) return who.response;
   const body = await readJson(req);
   if (!body.ok) return body.response;
   const b = body.body as Record<string, unknown> | null;
@@ -35,7 +38,7 @@ export async function PUT(req: Request, ctx: Ctx) {
     return unprocessable("Send the version you last read, to guard against overwriting someone else's edit", { version: ["version: a whole number is required"] });
   }
   const { version, id: _ignored, ...data } = b;
-  const r = await saveTemplate(await getDb(), t.kind, t.id, version as number, data);
+  const r = await saveTemplate(await getDb(), t.kind, t.id, version as number, data, who.actor);
   if (r.ok) return NextResponse.json({ id: r.id, version: r.version });
   if (r.reason === "invalid") return unprocessable("Some fields are not valid", r.fieldErrors);
   if (r.reason === "conflict") return NextResponse.json({ error: r.message, currentVersion: r.currentVersion }, { status: 409 });
@@ -45,7 +48,9 @@ export async function PUT(req: Request, ctx: Ctx) {
 export async function DELETE(_req: Request, ctx: Ctx) {
   const t = await target(ctx);
   if (!t.ok) return t.response;
-  const r = await deleteTemplate(await getDb(), t.kind, t.id);
+  const who = await authorizeApi("edit");
+  if (!who.ok) return who.response;
+  const r = await deleteTemplate(await getDb(), t.kind, t.id, who.actor);
   if (r.ok) return new NextResponse(null, { status: 204 });
   return NextResponse.json({ error: r.message }, { status: r.reason === "not_found" ? 404 : 409 });
 }
