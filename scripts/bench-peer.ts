@@ -103,7 +103,7 @@ console.log(`Holdline vs SciPy solve_ivp BDF, same equations and tables (CPU tim
 // ---------- Thaw: a 50 mm frozen cod block (slab, half-thickness 25 mm) from −18 °C in 4 °C air, h = 10 W/(m²·K), to −1 °C at the centre.
 const cod = D.products.find((p) => p.name.startsWith("Cod"))!;
 const food = foodThermal({ composition: cod.composition, initialFreezing_C: cod.initialFreezing_C });
-const THAW_NODES = Number(process.env.THAW_NODES ?? 21);
+const THAW_NODES = Number(process.env.THAW_NODES ?? 31); // the thaw planner's count
 const thawCase = { m: 0, halfSize_m: 0.025, nodes: THAW_NODES, rho_kg_m3: food.rho_kg_m3, h_W_m2K: 10, fluid_C: 4, start_C: -18, end_C: -1, tEnd_s: 4 * 24 * 3600 };
 const thawRun = (adaptive: { target_K: number; dtMax_s: number } | undefined, dt_s: number) => {
   const r = solve1D({
