@@ -22,6 +22,7 @@
  *
  * Explicit overrides from the product template always win.
  */
+import { makeTable, tableC, tableH, tableK, type PropertyTable } from "./table";
 import { PhysicsInputError, requireFraction, requirePositive, requireTemperature, warnRange } from "./validation";
 import type { Product } from "../schemas/templates";
 import type { ItemShape } from "./geometry";
@@ -218,6 +219,8 @@ export interface FoodThermal {
   c_J_kgK(T_C: number): number;
   /** Conductivity, W/(m·K). */
   k_W_mK(T_C: number): number;
+  /** The table H, c and k are read from (the solvers' fused look-up). */
+  table: PropertyTable;
   /** Ice mass fraction. */
   ice(T_C: number): number;
   /** The analytic apparent specific heat whose integral the enthalpy table holds (for checks). */
@@ -359,34 +362,18 @@ function buildFoodThermal(input: FoodInput): FoodThermal {
   const Href = H[iRef];
   for (let i = 0; i < N; i++) H[i] -= Href;
 
-  // Table lookups without allocation: the solver calls these millions of times.
-  const last = N - 2;
+  // One table for H and k, shared with packs; the solvers read it with one fused look-up.
+  const table = makeTable(T_MIN, DT, H, K);
   return {
     Tf_C: Tf,
     rho_kg_m3: rho,
     latent_J_kg: latent,
     porosity,
     warnings,
-    H_J_kg(T) {
-      const u = (T - T_MIN) / DT;
-      let i = Math.floor(u);
-      if (i < 0) i = 0;
-      else if (i > last) i = last;
-      return H[i] + (u - i) * (H[i + 1] - H[i]);
-    },
-    c_J_kgK(T) {
-      let i = Math.floor((T - T_MIN) / DT);
-      if (i < 0) i = 0;
-      else if (i > last) i = last;
-      return (H[i + 1] - H[i]) / DT;
-    },
-    k_W_mK(T) {
-      const u = (T - T_MIN) / DT;
-      const i = Math.floor(u);
-      if (i < 0) return K[0];
-      if (i > last) return K[N - 1];
-      return K[i] + (u - i) * (K[i + 1] - K[i]);
-    },
+    table,
+    H_J_kg: (T) => tableH(table, T),
+    c_J_kgK: (T) => tableC(table, T),
+    k_W_mK: (T) => tableK(table, T),
     ice: (T) => iceFraction(c, Tf!, T) * (freezable > 0 ? 1 : 0),
     cAnalytic_J_kgK: cAnalytic,
     cSensible_J_kgK: cSens,
@@ -410,34 +397,50 @@ export function simpleMaterial(p: {
   melt_C: number;
   latent_J_kg: number;
   mushy_K?: number;
-}): Pick<FoodThermal, "rho_kg_m3" | "H_J_kg" | "c_J_kgK" | "k_W_mK"> & { Tf_C: number } {
+}): Pick<FoodThermal, "rho_kg_m3" | "H_J_kg" | "c_J_kgK" | "k_W_mK" | "table"> & { Tf_C: number } {
   const w = p.mushy_K ?? 0.1;
   const T1 = p.melt_C - w / 2;
   const T2 = p.melt_C + w / 2;
   const Hsolid = (T: number) => p.cSolid_J_kgK * (T - T1);
   const H2 = Hsolid(T1) + ((p.cSolid_J_kgK + p.cLiquid_J_kgK) / 2) * w + p.latent_J_kg;
+  const Hof = (T: number) => {
+    if (T <= T1) return Hsolid(T);
+    if (T >= T2) return H2 + p.cLiquid_J_kgK * (T - T2);
+    const f = (T - T1) / w;
+    return f * (p.latent_J_kg + ((p.cSolid_J_kgK + p.cLiquid_J_kgK) / 2) * w);
+  };
+  const kOf = (T: number) => {
+    if (T <= T1) return p.kSolid_W_mK;
+    if (T >= T2) return p.kLiquid_W_mK;
+    return p.kSolid_W_mK + ((T - T1) / w) * (p.kLiquid_W_mK - p.kSolid_W_mK);
+  };
+  // The same table form as a food's, with the band's edges on grid points so H and k are exact.
+  const cells = Math.max(1, Math.ceil(w / SIMPLE_DT_K - 1e-9));
+  const dT = w / cells;
+  const below = Math.max(1, Math.ceil((T1 - T_MIN) / dT) + 1);
+  const above = Math.max(1, Math.ceil((T_MAX - T2) / dT) + 1);
+  const n = below + cells + above + 1;
+  const Ht = new Float64Array(n);
+  const Kt = new Float64Array(n);
+  for (let j = 0; j < n; j++) {
+    const i = j - below;
+    const T = i <= 0 ? T1 + i * dT : i >= cells ? T2 + (i - cells) * dT : T1 + i * dT;
+    Ht[j] = Hof(T);
+    Kt[j] = kOf(T);
+  }
+  const table = makeTable(T1 - below * dT, dT, Ht, Kt);
   return {
     Tf_C: p.melt_C,
     rho_kg_m3: p.rho_kg_m3,
-    H_J_kg(T) {
-      if (T <= T1) return Hsolid(T);
-      if (T >= T2) return H2 + p.cLiquid_J_kgK * (T - T2);
-      const f = (T - T1) / w;
-      return f * (p.latent_J_kg + ((p.cSolid_J_kgK + p.cLiquid_J_kgK) / 2) * w);
-    },
-    c_J_kgK(T) {
-      if (T <= T1) return p.cSolid_J_kgK;
-      if (T >= T2) return p.cLiquid_J_kgK;
-      return p.latent_J_kg / w + (p.cSolid_J_kgK + p.cLiquid_J_kgK) / 2;
-    },
-    k_W_mK(T) {
-      if (T <= T1) return p.kSolid_W_mK;
-      if (T >= T2) return p.kLiquid_W_mK;
-      const f = (T - T1) / w;
-      return p.kSolid_W_mK + f * (p.kLiquid_W_mK - p.kSolid_W_mK);
-    },
+    table,
+    H_J_kg: (T) => tableH(table, T),
+    c_J_kgK: (T) => tableC(table, T),
+    k_W_mK: (T) => tableK(table, T),
   };
 }
+
+/** Grid spacing of a simple material's table (at most; the melting band is a whole number of cells), K. */
+const SIMPLE_DT_K = 0.1;
 
 /** Names and categories for which Pham's meat formula for the initial freezing point suits (meat, poultry, fish). */
 export const MEAT_LIKE = /meat|poultry|fish|beef|pork|lamb|chicken|turkey|cod|salmon/i;

@@ -53,7 +53,13 @@ export interface ThawResult extends ThawMethodResult {
   advice: string[];
 }
 
-const NODES = 61;
+/**
+ * Step control (lib/physics/solver1d.ts) and nodes across the item, chosen by measurement (the five
+ * methods for the demo cod block against 121 nodes with 0.02 K steps): at 31 nodes and 1 K the thaw time
+ * is within 0.1 % and the time the surface sits above the chill limit within 0.2 % (21 nodes: 0.35 %).
+ */
+const THAW_TARGET_K = 1;
+const NODES = 31;
 const MAX_POINTS = 240;
 
 /**
@@ -181,7 +187,7 @@ function runMethod(item: Item, inp: ThawParsed, method: ThawMethod, endPoint_C: 
   const base = { shape: item.m === 0 ? ("slab" as const) : item.m === 1 ? ("cylinder" as const) : ("sphere" as const), halfSize_m: item.R, innerRadius_m: item.Ri, nodes: NODES, material: food, initial_C: inp.start_C, tEnd_s: inp.horizon_s, stopWhen: stop };
   const depth = item.R - item.Ri;
   const dt0 = Math.max(1, Math.min(60, (depth * depth) / 2e-6 / 300));
-  const adaptive = { target_K: 1, dtMax_s: 900 };
+  const adaptive = { target_K: THAW_TARGET_K, dtMax_s: 900 };
   let hShown = 0;
   // A calibration's factor scales the surface's convective (or given) coefficient; radiation is not scaled.
   const hf = inp.calibration?.surfaceH ?? 1;
@@ -308,7 +314,7 @@ function runMethod(item: Item, inp: ThawParsed, method: ThawMethod, endPoint_C: 
         boundary: { kind: "node", contact_W_m2K: h, capacity_J_m2K: cap / A, exchange_W_m2K: () => (BATH_TO_ROOM_W_M2K * bathArea) / A, fluid_C: () => method.room_C, node0_C: method.water_C },
         tEnd_s: chunkEnd_s - t0,
         dt_s: Math.min(dt0, method.changeEvery_s / 20),
-        adaptive: { target_K: 1, dtMax_s: Math.min(900, method.changeEvery_s / 10) },
+        adaptive: { target_K: THAW_TARGET_K, dtMax_s: Math.min(900, method.changeEvery_s / 10) },
       });
       const skip = merged.t_s.length ? 1 : 0;
       for (let i = skip; i < chunk.t_s.length; i++) {
