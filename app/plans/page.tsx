@@ -28,7 +28,7 @@ export default async function PlansPage() {
                 </td>
                 <td>{p.kind}</td>
                 <td>{p.createdAt.toISOString().slice(0, 16).replace("T", " ")}</td>
-                <td>{p.createdByName ?? "—"}</td>
+                <td>{p.createdByName ?? "single user"}</td>
               </tr>
             ))}
           </tbody>

@@ -6,7 +6,7 @@
  */
 import { holdInputSchema, type HoldInput, type HoldParsed } from "../schemas/hold";
 import type { Material, Pack, Product } from "../schemas/templates";
-import { foodThermal, simpleMaterial } from "./properties";
+import { productThermal, simpleMaterial } from "./properties";
 import { itemShape } from "./geometry";
 import { solAirTemperature, airProps, rayleigh, CP_AIR_J_KGK, P_ATM_PA, R_AIR_J_KGK, SIGMA_W_M2K4 } from "./surfaces";
 import { boxOuterCoefficient, radiationAt, runNetwork, type BodySpec, type FaceSpec, type Gains, type NetworkState, type WallLayerSpec } from "./shipper";
@@ -165,20 +165,7 @@ function prepare(given: HoldParsed): Prepared {
   let contentsVolume = 0;
   inp.products.forEach((line, i) => {
     const shape = itemShape(line.product);
-    const f = foodThermal({
-      composition: line.product.composition,
-      initialFreezing_C: line.product.initialFreezing_C,
-      overrides: {
-        density_kg_m3: line.product.density_kg_m3,
-        cpUnfrozen_J_kgK: line.product.cpUnfrozen_J_kgK,
-        cpFrozen_J_kgK: line.product.cpFrozen_J_kgK,
-        kUnfrozen_W_mK: line.product.kUnfrozen_W_mK,
-        kFrozen_W_mK: line.product.kFrozen_W_mK,
-        latentHeat_J_kg: line.product.latentHeat_J_kg,
-      },
-      mass_kg: line.product.mass_kg,
-      volume_m3: shape.volume_m3,
-    });
+    const f = productThermal(line.product, shape);
     for (const w of f.warnings) warnings.push(`${line.product.name}: ${w}`);
     const b = productBand(line.product, line.start_C, inp.ruleSet, f.Tf_C);
     if (typeof b === "string") throw new PhysicsInputError(`products.${i}.start_C`, `${line.product.name} is ${b}`);

@@ -448,8 +448,7 @@ export const MEAT_LIKE = /meat|poultry|fish|beef|pork|lamb|chicken|turkey|cod|sa
 /**
  * A product template's thermal properties: its composition and overrides, its bulk density from the
  * template's mass over its shape's volume (porosity), and whether Pham's meat formula suits it. The one
- * place a planner turns a product into a `FoodThermal` (the cooling planner uses it; the hold, thaw and
- * warm-up planners still build the same input themselves).
+ * place a planner turns a product into a `FoodThermal` (hold, thaw, warm-up, cooling and calibration).
  */
 export function productThermal(
   p: Pick<Product, "name" | "category" | "composition" | "initialFreezing_C" | "density_kg_m3" | "cpUnfrozen_J_kgK" | "cpFrozen_J_kgK" | "kUnfrozen_W_mK" | "kFrozen_W_mK" | "latentHeat_J_kg" | "mass_kg">,

@@ -5,7 +5,7 @@
  */
 import { thawInputSchema, THAW_METHOD_LABELS, type ThawInput, type ThawMethod, type ThawMethodKind, type ThawParsed } from "../schemas/thaw";
 import type { Material, Product, RuleSet } from "../schemas/templates";
-import { foodThermal, warnPropertyRange, type FoodThermal } from "./properties";
+import { productThermal, warnPropertyRange, type FoodThermal } from "./properties";
 import { itemShape, type ItemShape } from "./geometry";
 import { itemSurfaceCoefficient, naturalHorizontalPlate, forcedFlatPlate, mixedConvection, radiationCoefficient, type Surroundings } from "./surfaces";
 import { annularFinEfficiency, straightFinEfficiency } from "./fins";
@@ -112,15 +112,7 @@ interface Item {
 
 function makeItem(p: Product): Item {
   const shape = itemShape(p);
-  const food = foodThermal({
-    composition: p.composition,
-    initialFreezing_C: p.initialFreezing_C,
-    overrides: { density_kg_m3: p.density_kg_m3, cpUnfrozen_J_kgK: p.cpUnfrozen_J_kgK, cpFrozen_J_kgK: p.cpFrozen_J_kgK, kUnfrozen_W_mK: p.kUnfrozen_W_mK, kFrozen_W_mK: p.kFrozen_W_mK, latentHeat_J_kg: p.latentHeat_J_kg },
-    mass_kg: p.mass_kg,
-    volume_m3: shape.volume_m3,
-    isMeatLike: /meat|poultry|fish|beef|pork|lamb|chicken|turkey|cod|salmon/i.test(p.category + " " + p.name),
-    hollow: shape.hollow !== null,
-  });
+  const food = productThermal(p, shape);
   const m = shape.oneD.shape === "slab" ? 0 : shape.oneD.shape === "cylinder" ? 1 : 2;
   // A solid item: the 1-D shape with the item's own V/A. A hollow one: its real shell.
   const R = shape.hollow ? shape.hollow.outer_m : ((m + 1) * shape.volume_m3) / shape.area_m2;

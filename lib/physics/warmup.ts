@@ -5,7 +5,7 @@
  *  the numerical enthalpy solver (phase change or strongly varying properties).
  */
 import { warmupInputSchema, type WarmupInput, type LimitKind } from "../schemas/warmup";
-import { foodThermal, warnPropertyRange } from "./properties";
+import { productThermal, warnPropertyRange } from "./properties";
 import { itemShape } from "./geometry";
 import { itemSurfaceCoefficient, type Surroundings } from "./surfaces";
 import { lumpedTheta, seriesMeanTheta, seriesTheta } from "./conduction";
@@ -97,22 +97,7 @@ export function runWarmup(raw: WarmupInput): WarmupResult {
   const warnings: string[] = [];
   const assumptions: string[] = [];
   const shape = itemShape(p);
-  const props = foodThermal({
-    composition: p.composition,
-    initialFreezing_C: p.initialFreezing_C,
-    overrides: {
-      density_kg_m3: p.density_kg_m3,
-      cpUnfrozen_J_kgK: p.cpUnfrozen_J_kgK,
-      cpFrozen_J_kgK: p.cpFrozen_J_kgK,
-      kUnfrozen_W_mK: p.kUnfrozen_W_mK,
-      kFrozen_W_mK: p.kFrozen_W_mK,
-      latentHeat_J_kg: p.latentHeat_J_kg,
-    },
-    mass_kg: p.mass_kg,
-    volume_m3: shape.volume_m3,
-    isMeatLike: /meat|poultry|fish|beef|pork|lamb|chicken|turkey/i.test(p.category + " " + p.name),
-    hollow: shape.hollow !== null,
-  });
+  const props = productThermal(p, shape);
   warnings.push(...props.warnings);
   const limit_C = limitFor(inp.limit, inp.ruleSet);
   const Ti = inp.start_C;

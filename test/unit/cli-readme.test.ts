@@ -15,7 +15,10 @@ import { resolveHoldRefs } from "../../lib/db/resolve";
 import { savePlan } from "../../lib/db/plans";
 
 const section = readmeSection("Command line");
-const commands = commandsOf(codeBlocks(section).find((b) => b.lang === "sh")!.body);
+// Every shell block of the section that runs the command through npx (the global-install block does not).
+const commands = codeBlocks(section)
+  .filter((b) => b.lang === "sh" && /^npx holdline /m.test(b.body))
+  .flatMap((b) => commandsOf(b.body));
 const example = (name: string) => JSON.parse(readFileSync(path.join(ROOT, "public", "examples", name), "utf8"));
 
 /** The fields the README says each calculation answers with. */
