@@ -6,22 +6,8 @@
 import { runCoolParsed } from "../lib/physics/cooling";
 import { coolInputSchema } from "../lib/schemas/cool";
 import { DEMO_SCENARIO } from "../lib/db/demo-scenario";
+import { median, time } from "./bench-util";
 
-function median(xs: number[]): number {
-  const s = [...xs].sort((a, b) => a - b);
-  return s[Math.floor(s.length / 2)];
-}
-
-function time(fn: () => unknown, runs: number, warm = 3): number[] {
-  for (let i = 0; i < warm; i++) fn();
-  const out: number[] = [];
-  for (let i = 0; i < runs; i++) {
-    const t = performance.now();
-    fn();
-    out.push(performance.now() - t);
-  }
-  return out;
-}
 
 const rice = DEMO_SCENARIO.products.find((p) => p.name === "Steamed rice, full pan")!;
 const fda = DEMO_SCENARIO.rulesets.find((r) => r.name.startsWith("US"))!;

@@ -19,26 +19,12 @@ import os from "node:os";
 import path from "node:path";
 import { cliBundleIsStale } from "./source-stamp.mjs";
 import { bundle } from "./bundle.mjs";
+import { median, time } from "./bench-util";
 
 const ROOT = path.resolve(import.meta.dirname, "..");
 // The sizer's threads and the CLI timings below run the bundle: build it if the sources moved on.
 if (cliBundleIsStale(ROOT)) await bundle({ quiet: true });
 
-function median(xs: number[]): number {
-  const s = [...xs].sort((a, b) => a - b);
-  return s[Math.floor(s.length / 2)];
-}
-
-function time(fn: () => void, runs: number, warm = 5): number[] {
-  for (let i = 0; i < warm; i++) fn();
-  const out: number[] = [];
-  for (let i = 0; i < runs; i++) {
-    const t = performance.now();
-    fn();
-    out.push(performance.now() - t);
-  }
-  return out;
-}
 
 const cod = DEMO_SCENARIO.products.find((p) => p.name.startsWith("Cod"))!;
 const food = foodThermal({ composition: cod.composition, initialFreezing_C: cod.initialFreezing_C });

@@ -10,10 +10,9 @@
  * everything done.
  */
 import pg from "pg";
-import { createHash, randomUUID } from "node:crypto";
-import { existsSync, readdirSync, readFileSync } from "node:fs";
+import { randomUUID } from "node:crypto";
 import path from "node:path";
-import type { MigrationResult } from "./migrate";
+import { alreadyApplied, migrationFiles, type MigrationResult } from "./migration-files";
 
 const JOURNAL_DDL = `CREATE TABLE IF NOT EXISTS "_prisma_migrations" (
   "id" VARCHAR(36) PRIMARY KEY NOT NULL,
@@ -42,21 +41,9 @@ async function applyMigrations(client: pg.Client, migrationsDir: string): Promis
       )
     ).rows.map((r) => [r.migration_name, r.checksum]),
   );
-  const names = existsSync(/*turbopackIgnore: true*/ migrationsDir)
-    ? readdirSync(/*turbopackIgnore: true*/ migrationsDir, { withFileTypes: true })
-        .filter((d) => d.isDirectory() && existsSync(/*turbopackIgnore: true*/ path.join(migrationsDir, d.name, "migration.sql")))
-        .map((d) => d.name)
-        .sort()
-    : [];
   const result: MigrationResult = { applied: [], alreadyApplied: [] };
-  for (const name of names) {
-    const sql = readFileSync(/*turbopackIgnore: true*/ path.join(migrationsDir, name, "migration.sql"), "utf8");
-    const checksum = createHash("sha256").update(sql).digest("hex");
-    const prior = done.get(name);
-    if (prior !== undefined) {
-      if (prior !== checksum) {
-        throw new Error(`Migration ${name} was edited after it was applied (checksum differs). Add a new migration instead.`);
-      }
+  for (const { name, sql, checksum } of migrationFiles(migrationsDir)) {
+    if (alreadyApplied(done, { name, sql, checksum })) {
       result.alreadyApplied.push(name);
       continue;
     }

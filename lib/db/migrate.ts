@@ -6,14 +6,12 @@
  * native engine these machines cannot download; see DEVELOPERS.md.)
  */
 import Database from "better-sqlite3";
-import { createHash, randomUUID } from "node:crypto";
-import { existsSync, mkdirSync, readdirSync, readFileSync } from "node:fs";
+import { randomUUID } from "node:crypto";
+import { mkdirSync } from "node:fs";
+import { alreadyApplied, migrationFiles, type MigrationResult } from "./migration-files";
 import path from "node:path";
 
-export interface MigrationResult {
-  applied: string[];
-  alreadyApplied: string[];
-}
+export type { MigrationResult };
 
 const JOURNAL_DDL = `CREATE TABLE IF NOT EXISTS "_prisma_migrations" (
   "id" TEXT PRIMARY KEY NOT NULL,
@@ -44,21 +42,9 @@ export function migrateDatabase(dbPath: string, migrationsDir = defaultMigration
           .all() as { migration_name: string; checksum: string }[]
       ).map((r) => [r.migration_name, r.checksum]),
     );
-    const names = existsSync(/*turbopackIgnore: true*/ migrationsDir)
-      ? readdirSync(/*turbopackIgnore: true*/ migrationsDir, { withFileTypes: true })
-          .filter((d) => d.isDirectory() && existsSync(/*turbopackIgnore: true*/ path.join(migrationsDir, d.name, "migration.sql")))
-          .map((d) => d.name)
-          .sort()
-      : [];
     const result: MigrationResult = { applied: [], alreadyApplied: [] };
-    for (const name of names) {
-      const sql = readFileSync(/*turbopackIgnore: true*/ path.join(migrationsDir, name, "migration.sql"), "utf8");
-      const checksum = createHash("sha256").update(sql).digest("hex");
-      const prior = done.get(name);
-      if (prior !== undefined) {
-        if (prior !== checksum) {
-          throw new Error(`Migration ${name} was edited after it was applied (checksum differs). Add a new migration instead.`);
-        }
+    for (const { name, sql, checksum } of migrationFiles(migrationsDir)) {
+      if (alreadyApplied(done, { name, sql, checksum })) {
         result.alreadyApplied.push(name);
         continue;
       }
