@@ -31,7 +31,7 @@ import { forcedFlatPlate, itemSurfaceCoefficient, mixedConvection, naturalHorizo
 import { evaporation } from "./psychrometrics";
 import { solve1D, solverScale, type Boundary, type Solver1DResult } from "./solver1d";
 import { seriesTheta } from "./conduction";
-import { coolingStages, hasCoolingStages, reaches, type ComplianceLine, type Curve } from "./compliance";
+import { coolingStages, hasCoolingStages, reaches, type ComplianceLine, type CoolingStage, type Curve } from "./compliance";
 import { brent } from "./numerics";
 import { PhysicsInputError } from "./validation";
 
@@ -39,17 +39,8 @@ export type RunnableMethod = Exclude<CoolMethod, { kind: "ice_paddle" }>;
 export type RunnableKind = RunnableMethod["kind"];
 export const RUNNABLE_METHODS: RunnableKind[] = ["walk_in", "blast_chiller", "ice_bath", "cold_plate"];
 
-export interface CoolStageResult {
-  stage: 1 | 2;
-  from_C: number;
-  to_C: number;
-  limit_s: number;
-  reached_s: number | null;
-  meets: boolean | null;
-  rule: string;
-  status: ComplianceLine["status"];
-  detail: string;
-}
+/** A judged cooling stage as the answer names it: compliance.ts's stage, flattened with its compliance line. */
+export type CoolStageResult = Omit<CoolingStage, "line" | "countedFrom_s"> & Pick<ComplianceLine, "rule" | "status" | "detail">;
 
 export interface CoolPoint {
   t_s: number;

@@ -4,7 +4,7 @@
  * end, to measure the margin), finds the first moment any product's centre or surface leaves its
  * band, and repeats the run over a small deterministic sample for an uncertainty band.
  */
-import { holdInputSchema, type HoldInput, type HoldParsed } from "../schemas/hold";
+import { DEFAULT_CONTACT_W_M2K, holdInputSchema, type HoldInput, type HoldParsed } from "../schemas/hold";
 import type { Material, Pack, Product } from "../schemas/templates";
 import { productThermal, simpleMaterial } from "./properties";
 import { itemShape } from "./geometry";
@@ -19,8 +19,6 @@ import { holdCompliance, type ComplianceLine } from "./compliance";
 export const CO2_M3_PER_KG = 0.547;
 /** Inside convective coefficient of a closed cooler, 3 W/(m²·K): middle of the 2–5 range (published-values.md §6.1, from memory). */
 export const INNER_CONVECTIVE_W_M2K = 3;
-/** Contact conductance between a pack and a product resting on each other: 50 W/(m²·K) (common practice, packaging films and air gaps). */
-export const DEFAULT_CONTACT_W_M2K = 50;
 
 const PACK_K: Record<Pack["kind"], [number, number]> = {
   // [solid, liquid] W/(m·K): ice 2.2 and water 0.57 (Choi & Okos 1986 at 0 °C); gels as water;

@@ -21,7 +21,7 @@
  */
 import type { SizeParsed } from "../schemas/size";
 import { MAX_CANDIDATES } from "../schemas/size";
-import type { HoldParsed } from "../schemas/hold";
+import { DEFAULT_CONTACT_W_M2K, HOLD_OVERRIDE_DEFAULTS, type HoldParsed } from "../schemas/hold";
 import type { Shipper, Material } from "../schemas/templates";
 import { holdRuns, uncertaintyCorners } from "./hold";
 import { PhysicsInputError } from "./validation";
@@ -200,12 +200,12 @@ export function candidateHoldInput(inp: SizeParsed, c: Candidate, extendFraction
     shipper,
     materials: inp.materials,
     packs: inp.packs
-      .map((p, i) => ({ pack: p.pack, count: c.counts[i], conditioning_C: c.conditioning_C[i], placement: p.placement, contactWith: p.touchesLoad ? null : ("none" as const), contact_W_m2K: 50 }))
+      .map((p, i) => ({ pack: p.pack, count: c.counts[i], conditioning_C: c.conditioning_C[i], placement: p.placement, contactWith: p.touchesLoad ? null : ("none" as const), contact_W_m2K: DEFAULT_CONTACT_W_M2K }))
       .filter((l) => l.count > 0),
     route: inp.route,
     ruleSet: inp.ruleSet,
     boxStart_C: inp.boxStart_C,
-    overrides: { outerH_W_m2K: null, innerH_W_m2K: null, wallUA_W_K: null, sunShareSides: 0.25, lidOpenAirChangesPerMinute: 6, wellMixedInside: inp.wellMixedInside },
+    overrides: { ...HOLD_OVERRIDE_DEFAULTS, wellMixedInside: inp.wellMixedInside },
     uncertainty: inp.uncertainty,
     extendFraction,
   };

@@ -15,6 +15,12 @@ const count = (what: string) =>
 const optionalPositive = (what: string, max: number) =>
   z.number({ error: `${what}: enter a number` }).positive({ error: `${what} must be greater than zero` }).max(max, { error: `${what} is implausibly large` }).nullable().default(null);
 
+/** Contact conductance between a pack and what it rests on or against: 50 W/(m²·K) (common practice, packaging films and air gaps). */
+export const DEFAULT_CONTACT_W_M2K = 50;
+
+/** The hold input's overrides when none are given: every coefficient from the model, sun on the sides 25 %, 6 air changes a minute while the lid is open. */
+export const HOLD_OVERRIDE_DEFAULTS = { outerH_W_m2K: null, innerH_W_m2K: null, wallUA_W_K: null, sunShareSides: 0.25, lidOpenAirChangesPerMinute: 6, wellMixedInside: false };
+
 export const PLACEMENTS = ["around", "top", "bottom", "side"] as const;
 export type Placement = (typeof PLACEMENTS)[number];
 
@@ -35,7 +41,7 @@ export const holdPackLineSchema = z.object({
    */
   contactWith: z.union([z.number().int().min(0), z.literal("none")], { error: "Touching: a product line, the whole load or none" }).nullable().default(null),
   /** Contact coefficient between packs and what they touch (load and box face), W/(m²·K). */
-  contact_W_m2K: z.number().positive().max(1e4).default(50),
+  contact_W_m2K: z.number().positive().max(1e4).default(DEFAULT_CONTACT_W_M2K),
 });
 
 export const uncertaintySchema = z.object({
@@ -83,7 +89,7 @@ export const holdInputSchema = z
         /** Treat the inside air as one well-mixed volume (no stratification), as hand formulas do. */
         wellMixedInside: z.boolean().default(false),
       })
-      .default({ outerH_W_m2K: null, innerH_W_m2K: null, wallUA_W_K: null, sunShareSides: 0.25, lidOpenAirChangesPerMinute: 6, wellMixedInside: false }),
+      .default(HOLD_OVERRIDE_DEFAULTS),
     uncertainty: uncertaintySchema.default({ outerH_frac: 0.3, insulationK_frac: 0.1, conditioning_K: 2 }),
     /** Absent: the model as built. */
     calibration: holdCalibrationSchema.optional(),
