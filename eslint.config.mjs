@@ -13,10 +13,5 @@ export default defineConfig([
       "@typescript-eslint/no-unused-vars": ["error", { argsIgnorePattern: "^_", varsIgnorePattern: "^_", destructuredArrayIgnorePattern: "^_", caughtErrors: "none" }],
     },
   },
-  {
-    // shipper.ts is being reworked for speed (issue 13): its one unused local is a warning until then.
-    files: ["lib/physics/shipper.ts"],
-    rules: { "@typescript-eslint/no-unused-vars": "warn" },
-  },
   globalIgnores([".next/**", "dist/**", "node_modules/**", "lib/db/generated/**", "next-env.d.ts", "test-results/**", ".e2e-tmp/**"]),
 ]);
