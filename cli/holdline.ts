@@ -14,7 +14,6 @@ import { resolveDatabasePath } from "../lib/db/path";
 import type { SizeParsed } from "../lib/schemas/size";
 import { fieldErrorsOf, type FieldErrors } from "../lib/schemas/errors";
 import { PhysicsInputError } from "../lib/physics/validation";
-import { runValidated } from "../lib/schemas/run";
 import { CliError } from "./errors";
 
 const schemaNames = async () => Object.keys((await import("../lib/schemas/json-schema")).NAMED_SCHEMAS);
@@ -33,21 +32,20 @@ const schemaNameLines = (names: string[]): string => {
   return lines.map((l, i) => " ".repeat(38) + (i === 0 ? "(" : " ") + l + (i === lines.length - 1 ? ")" : "")).join("\n");
 };
 
+/** One block of help per planner, from its registry entry: `holdline <kind> FILE|-` and its lines. */
+const plannerHelp = async () => {
+  const { PLANNERS } = await import("../lib/planners/registry");
+  return Object.values(PLANNERS)
+    .map((e) => e.cliHelp.map((line, i) => (i === 0 ? `  holdline ${e.kind} FILE|-`.padEnd(38) : " ".repeat(38)) + line).join("\n"))
+    .join("\n");
+};
+
 const help = async () => `holdline — hold, thaw and pack-out planning from transient heat transfer
 
 Usage:
   holdline export [--out FILE]        write every template (and the units setting) as JSON
   holdline import FILE|-              add or update templates from such a file, all or nothing
-  holdline warmup FILE|-              warm-up / cool-down check: time until centre, surface
-                                      and mean cross the rule-set limit (JSON in, JSON out;
-                                      "product" and "ruleSet" may be template names)
-  holdline hold FILE|-                hold planner: how long this box and these packs keep the
-                                      load inside its band on the route (templates by name)
-  holdline thaw FILE|-                thaw planner: thaw time, time the surface sits above the
-                                      chill limit, compliance; "compare": true runs every method
-  holdline size FILE|-                pack-out sizer: every candidate box and pack count through
-                                      the hold model, on both cores; prints candidates, the
-                                      Pareto front and near misses
+${await plannerHelp()}
   holdline plans [--json]             list the saved plans (id, kind, name, when saved)
   holdline plans show ID [--json]     one saved plan; with --json its input, as a file that
                                       holdline KIND FILE accepts
@@ -130,37 +128,6 @@ function lazyDb(open: () => Promise<Db>): { db: Db; close: () => Promise<void> }
 }
 
 type Resolved = { ok: true; value: unknown } | { ok: false; fieldErrors: FieldErrors };
-type Resolver = (db: Db, body: unknown) => Promise<Resolved>;
-interface Calculation {
-  resolve: Resolver;
-  schema: z.ZodType;
-  /** Validates and computes; null for the sizer, which runs on threads (see size()). */
-  run: ((input: unknown) => ReturnType<typeof runValidated>) | null;
-}
-const calculation = <S extends z.ZodType>(resolve: Resolver, schema: S, compute: ((parsed: z.output<S>) => unknown) | null): Calculation => ({
-  resolve,
-  schema,
-  run: compute && ((input) => runValidated(schema, input, compute)),
-});
-/** Each calculation's name resolver, schema and model, imported only when its command runs. */
-const CALCULATIONS: Record<string, () => Promise<Calculation>> = {
-  warmup: async () => {
-    const [{ resolveTemplateRefs }, { warmupInputSchema }, { runWarmup }] = await Promise.all([import("../lib/db/resolve"), import("../lib/schemas/warmup"), import("../lib/physics/warmup")]);
-    return calculation((db, body) => resolveTemplateRefs(db, body, { product: "products", ruleSet: "rulesets" }), warmupInputSchema, runWarmup);
-  },
-  hold: async () => {
-    const [{ resolveHoldRefs }, { holdInputSchema }, { runHoldParsed }] = await Promise.all([import("../lib/db/resolve"), import("../lib/schemas/hold"), import("../lib/physics/hold")]);
-    return calculation(resolveHoldRefs, holdInputSchema, (input) => runHoldParsed(input));
-  },
-  thaw: async () => {
-    const [{ resolveThawRefs }, { thawInputSchema }, { runThawParsed }] = await Promise.all([import("../lib/db/resolve"), import("../lib/schemas/thaw"), import("../lib/physics/thaw")]);
-    return calculation(resolveThawRefs, thawInputSchema, (input) => runThawParsed(input));
-  },
-  size: async () => {
-    const [{ resolveSizeRefs }, { sizeInputSchema }] = await Promise.all([import("../lib/db/resolve"), import("../lib/schemas/size")]);
-    return calculation(resolveSizeRefs, sizeInputSchema, null);
-  },
-};
 
 export async function main(argv: string[], io: CliIo = STDIO): Promise<number> {
   try {
@@ -278,27 +245,30 @@ async function run(argv: string[], io: CliIo): Promise<number> {
     return 0;
   }
 
-  if (Object.hasOwn(CALCULATIONS, command)) {
+  const { isPlannerKind, plannerOf } = await import("../lib/planners/registry");
+  if (isPlannerKind(command)) {
     const file = rest[0];
     if (!file) throw new CliError(`holdline ${command}: give an input file, or - for standard input (see holdline schema ${command})`, 2);
     const data = readJsonInput(file, command, io);
-    const calc = await CALCULATIONS[command]();
+    const entry = plannerOf(command);
+    const { resolvePlannerInput } = await import("../lib/db/resolve");
     let resolved: Resolved;
     try {
-      resolved = await withDb((db) => calc.resolve(db, data));
+      resolved = await withDb((db) => resolvePlannerInput(db, command, data));
     } catch (e) {
       // A shape the name look-up cannot walk (say, a box whose layers are not a list): the schema names the field.
-      const shape = calc.schema.safeParse(data);
+      const shape = entry.schema.safeParse(data);
       if (shape.success || e instanceof CliError) throw e;
       resolved = { ok: false, fieldErrors: fieldErrorsOf(shape.error) };
     }
-    if (!calc.run) return size(resolved, calc.schema, io, emit);
-    const r = resolved.ok ? calc.run(resolved.value) : resolved;
+    if (command === "size") return size(resolved, entry.schema, io, emit);
+    const { runPlanner } = await import("../lib/planners/run");
+    const r = resolved.ok ? await runPlanner(entry, resolved.value) : resolved;
     if (!r.ok) {
       io.err(`holdline ${command}: the input has problems; nothing was computed:\n${problemLines(r.fieldErrors)}\n`);
       return 1;
     }
-    emit(r.result);
+    emit(r.result.result);
     return 0;
   }
 

@@ -141,3 +141,35 @@ export function formatQuantity(q: Quantity, si: number | null | undefined, p: Un
   const v = roundForDisplay(toDisplay(q, si, p), digits);
   return label ? `${v} ${label}` : `${v}`;
 }
+
+const NUM = String.raw`[−-]?\d+(?:\.\d+)?`;
+const TEMP_RE = new RegExp(String.raw`(${NUM})(?:(\s?(?:–|to|and)\s?)(${NUM}))?\s?°C`, "g");
+/** A temperature difference: "±1 K", "0.5 K", never the K of a unit such as W/(m²·K). */
+const DIFF_RE = new RegExp(String.raw`(±?)(\d+(?:\.\d+)?)\s?K(?![\w/)·²])`, "g");
+const MM_RE = new RegExp(String.raw`(\d+(?:\.\d+)?)(?:(\s?(?:–|to|and)\s?)(\d+(?:\.\d+)?))?\s?mm\b`, "g");
+const KG_RE = new RegExp(String.raw`(\d+(?:\.\d+)?)\s?kg\b(?![/·])`, "g");
+const num = (s: string) => Number(s.replace("−", "-"));
+const shown = (x: number, digits: number) => String(roundForDisplay(x, digits)).replace(/^-/, "−");
+
+/**
+ * Puts a sentence written inside Holdline (an assumption, a warning, a compliance line, all in SI) into the
+ * person's units: every "12.5 °C" (and "2–8 °C" ranges), "±1 K" difference, "50 mm" and "2.5 kg" becomes
+ * °F, °F difference, in and lb. SI preferences leave the text as it is.
+ */
+export function localizeText(s: string, p: UnitPrefs): string {
+  let out = s;
+  if (p.temperatureUnit === "F") {
+    out = out
+      .replace(TEMP_RE, (_m, a: string, sep: string | undefined, b: string | undefined) =>
+        b !== undefined ? `${shown(toDisplay("temperature", num(a), p), 4)}${sep}${shown(toDisplay("temperature", num(b), p), 4)} °F` : `${shown(toDisplay("temperature", num(a), p), 4)} °F`,
+      )
+      .replace(DIFF_RE, (_m, pm: string, a: string) => `${pm}${shown((num(a) * 9) / 5, 3)} °F`);
+  }
+  if (p.lengthUnit === "in") {
+    out = out.replace(MM_RE, (_m, a: string, sep: string | undefined, b: string | undefined) =>
+      b !== undefined ? `${shown(num(a) / 25.4, 3)}${sep}${shown(num(b) / 25.4, 3)} in` : `${shown(num(a) / 25.4, 3)} in`,
+    );
+  }
+  if (p.massUnit === "lb") out = out.replace(KG_RE, (_m, a: string) => `${shown(num(a) / LB_KG, 3)} lb`);
+  return out;
+}

@@ -4,6 +4,7 @@ import path from "node:path";
 import { existsSync } from "node:fs";
 import { Piscina } from "piscina";
 import type { CalcAnswer, CalcJob, Calculation } from "./calc-worker";
+import { plannerOf } from "@/lib/planners/registry";
 
 /**
  * The server's calculation pool: every hold, thaw, warm-up and sizing runs in a worker thread, so the
@@ -14,15 +15,8 @@ import type { CalcAnswer, CalcJob, Calculation } from "./calc-worker";
  * The worker is the prebuilt bundle dist/calc-worker.mjs (scripts/bundle.mjs, run by postinstall and
  * prebuild), so the server never needs a TypeScript loader in its threads.
  */
-export const CALC_TIME_LIMIT_S: Record<Calculation, number> = { hold: 30, thaw: 30, warmup: 30, size: 120 };
-
-/** What to change when a job runs out of time. */
-const TOO_LONG_HINT: Record<Calculation, string> = {
-  hold: "use a shorter route, fewer segments or lid openings, or fewer product and pack lines",
-  thaw: "look at a shorter horizon (horizon_s) or change the water less often",
-  warmup: "look at a shorter horizon",
-  size: "narrow the count ranges, use fewer conditioning temperatures or boxes, or keep pruning on",
-};
+/** Each planner's time limit and what to change when it runs out: its registry entry (lib/planners/). */
+export const timeLimitDefault = (kind: Calculation): number => plannerOf(kind).timeLimit_s;
 
 const MAX_QUEUE = 64;
 
@@ -70,7 +64,7 @@ export async function runCalculation(kind: Calculation, input: unknown, limit_s 
   } catch (e) {
     const err = e as Error;
     if (err?.name === "AbortError" || err?.name === "TimeoutError") {
-      const message = `This calculation took longer than ${limit_s} s and was stopped: ${TOO_LONG_HINT[kind]}`;
+      const message = `This calculation took longer than ${limit_s} s and was stopped: ${plannerOf(kind).tooLongHint}`;
       return { ok: false, status: 422, message, fieldErrors: { "": [message] } };
     }
     if (/queue is at limit/i.test(err?.message ?? "")) return busy();
@@ -87,7 +81,7 @@ function busy(): PoolOutcome {
 /** The time limit of a kind of job; HOLDLINE_CALC_TIME_LIMIT_S (seconds) overrides every kind's. */
 export function timeLimitOf(kind: Calculation): number {
   const env = Number(process.env.HOLDLINE_CALC_TIME_LIMIT_S);
-  return Number.isFinite(env) && env > 0 ? env : CALC_TIME_LIMIT_S[kind];
+  return Number.isFinite(env) && env > 0 ? env : timeLimitDefault(kind);
 }
 
 /** For tests and shutdown. */

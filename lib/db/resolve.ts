@@ -10,8 +10,8 @@
 import type { Db } from "./client";
 import type { FieldErrors } from "../schemas/errors";
 import { TEMPLATE_LABELS, type TemplateKind } from "../schemas/templates";
-import { MAX_HOLD_LINES } from "../schemas/hold";
-import { MAX_SIZE_LINES } from "../schemas/size";
+import type { TemplateRefs } from "../planners/types";
+import { PLANNERS, isPlannerKind, type PlannerKind } from "../planners/registry";
 import { defaultRuleSet, getTemplateByName } from "./templates";
 
 type Resolved = { ok: true; value: unknown } | { ok: false; fieldErrors: FieldErrors };
@@ -74,16 +74,9 @@ async function resolveTop(find: Lookup, db: Db, out: Obj, fields: Record<string,
   }
 }
 
-export async function resolveTemplateRefs(db: Db, body: unknown, fields: Record<string, TemplateKind>): Promise<Resolved> {
-  if (!isObject(body)) return { ok: true, value: body };
-  const out: Obj = { ...body };
-  const errors: FieldErrors = {};
-  await resolveTop(lookups(db), db, out, fields, errors);
-  return Object.keys(errors).length ? { ok: false, fieldErrors: errors } : { ok: true, value: out };
-}
-
 /** Replaces template names inside a list of lines (`products[i].product`, `packs[i].pack`, …) by the templates. */
-async function resolveLines(find: Lookup, out: Obj, key: string, field: string, kind: TemplateKind, errors: FieldErrors, each?: (l: Obj) => void): Promise<void> {
+async function resolveLines(find: Lookup, out: Obj, spec: NonNullable<TemplateRefs["lines"]>[number], errors: FieldErrors, prefix: string): Promise<void> {
+  const { key, field, kind, fill } = spec;
   const arr = out[key];
   if (!Array.isArray(arr)) return;
   const lines: unknown[] = [];
@@ -98,9 +91,10 @@ async function resolveLines(find: Lookup, out: Obj, key: string, field: string, 
     if (typeof v === "string") {
       const t = await find(kind, v);
       if (t) l[field] = t;
-      else errors[`${key}.${i}.${field}`] = [missing(kind, v)];
+      else errors[`${prefix}${key}.${i}.${field}`] = [missing(kind, v)];
     }
-    each?.(l);
+    // A line without the field takes the template's own value (a pack's usual conditioning).
+    if (fill && l[fill.field] === undefined && isObject(l[field])) l[fill.field] = (l[field] as Obj)[fill.from];
     lines.push(l);
   }
   out[key] = lines;
@@ -127,70 +121,53 @@ async function materialsNamedBy(find: Lookup, boxes: unknown[]): Promise<unknown
   return mats;
 }
 
-/** Warm-up input with names: `product` and `ruleSet` may be template names. */
-export function resolveWarmupRefs(db: Db, body: unknown): Promise<Resolved> {
-  return resolveTemplateRefs(db, body, { product: "products", ruleSet: "rulesets" });
-}
-
 /**
- * Hold-planner input with names: `shipper`, `route`, `ruleSet` and each line's `product` / `pack` may be
- * template names; a pack line without `conditioning_C` takes the pack's usual conditioning; `materials`
- * defaults to the library materials the box names.
+ * A planner's input with template names replaced by the templates, as its registry entry's `refs` says
+ * (lib/planners/types.ts): top-level fields, fields of each line (with a default taken from the template),
+ * nested fields, the materials the boxes name, and another planner's input nested inside (a calibration's
+ * plan). A missing rule set takes the library's default one. Field errors name the path of each unknown name.
  */
-export async function resolveHoldRefs(db: Db, body: unknown): Promise<Resolved> {
-  if (!isObject(body)) return { ok: true, value: body };
-  const out: Obj = { ...body };
-  const shape = shapeErrors(out, [
-    { key: "products", max: MAX_HOLD_LINES, what: "product lines" },
-    { key: "packs", max: MAX_HOLD_LINES, what: "pack lines" },
-  ]);
-  if (Object.keys(shape).length) return { ok: false, fieldErrors: shape };
-  const find = lookups(db);
+export async function resolveRefs(db: Db, body: unknown, refs: TemplateRefs, innerRefs: (planner: unknown) => TemplateRefs | null = () => null): Promise<Resolved> {
   const errors: FieldErrors = {};
-  await resolveTop(find, db, out, { shipper: "shippers", route: "routes", ruleSet: "rulesets" }, errors);
-  await resolveLines(find, out, "products", "product", "products", errors);
-  await resolveLines(find, out, "packs", "pack", "packs", errors, (l) => {
-    if (l.conditioning_C === undefined && isObject(l.pack)) l.conditioning_C = l.pack.conditioning_C;
-  });
-  if (out.materials === undefined && isObject(out.shipper)) out.materials = await materialsNamedBy(find, [out.shipper]);
-  return Object.keys(errors).length ? { ok: false, fieldErrors: errors } : { ok: true, value: out };
+  const value = await resolveInto(lookups(db), db, body, refs, innerRefs, errors, "");
+  return Object.keys(errors).length ? { ok: false, fieldErrors: errors } : { ok: true, value };
 }
 
-/** Thaw input with names: `product`, `ruleSet`, and a tray method's `tray` may be template names. */
-export async function resolveThawRefs(db: Db, body: unknown): Promise<Resolved> {
-  if (!isObject(body)) return { ok: true, value: body };
+async function resolveInto(find: Lookup, db: Db, body: unknown, refs: TemplateRefs, innerRefs: (planner: unknown) => TemplateRefs | null, errors: FieldErrors, prefix: string): Promise<unknown> {
+  if (!isObject(body)) return body;
   const out: Obj = { ...body };
-  const find = lookups(db);
-  const errors: FieldErrors = {};
-  await resolveTop(find, db, out, { product: "products", ruleSet: "rulesets" }, errors);
-  const m = out.method;
-  if (isObject(m) && typeof m.tray === "string") {
-    const t = await find("materials", m.tray);
-    if (t) out.method = { ...m, tray: t };
-    else errors["method.tray"] = [missing("materials", m.tray)];
+  const shape = shapeErrors(out, (refs.lines ?? []).map((l) => ({ key: l.key, max: l.max, what: l.what })));
+  if (Object.keys(shape).length) {
+    for (const [k, v] of Object.entries(shape)) errors[prefix + k] = v;
+    return out;
   }
-  return Object.keys(errors).length ? { ok: false, fieldErrors: errors } : { ok: true, value: out };
+  const topErrors: FieldErrors = {};
+  await resolveTop(find, db, out, refs.top, topErrors);
+  for (const [k, v] of Object.entries(topErrors)) errors[prefix + k] = v;
+  for (const spec of refs.lines ?? []) await resolveLines(find, out, spec, errors, prefix);
+  for (const { path: [a, b], kind } of refs.nested ?? []) {
+    const m = out[a];
+    if (isObject(m) && typeof m[b] === "string") {
+      const t = await find(kind, m[b]);
+      if (t) out[a] = { ...m, [b]: t };
+      else errors[`${prefix}${a}.${b}`] = [missing(kind, m[b])];
+    }
+  }
+  const mf = refs.materialsFrom;
+  if (mf && out.materials === undefined) {
+    if ("list" in mf) {
+      const list = out[mf.list];
+      if (Array.isArray(list)) out.materials = await materialsNamedBy(find, list.map((b) => (isObject(b) ? b[mf.field] : null)));
+    } else if (isObject(out[mf.field])) out.materials = await materialsNamedBy(find, [out[mf.field]]);
+  }
+  if (refs.inner) {
+    const inner = innerRefs(out[refs.inner.by]);
+    if (inner) out[refs.inner.field] = await resolveInto(find, db, out[refs.inner.field], inner, innerRefs, errors, `${prefix}${refs.inner.field}.`);
+  }
+  return out;
 }
 
-/**
- * Sizer input with names: `route`, `ruleSet`, each product line's `product`, each box's `shipper` and each
- * pack line's `pack` may be template names; `materials` defaults to every library material the boxes name.
- */
-export async function resolveSizeRefs(db: Db, body: unknown): Promise<Resolved> {
-  if (!isObject(body)) return { ok: true, value: body };
-  const out: Obj = { ...body };
-  const shape = shapeErrors(out, [
-    { key: "products", max: MAX_SIZE_LINES.products, what: "product lines" },
-    { key: "boxes", max: MAX_SIZE_LINES.boxes, what: "candidate boxes" },
-    { key: "packs", max: MAX_SIZE_LINES.packs, what: "candidate packs" },
-  ]);
-  if (Object.keys(shape).length) return { ok: false, fieldErrors: shape };
-  const find = lookups(db);
-  const errors: FieldErrors = {};
-  await resolveTop(find, db, out, { route: "routes", ruleSet: "rulesets" }, errors);
-  await resolveLines(find, out, "products", "product", "products", errors);
-  await resolveLines(find, out, "boxes", "shipper", "shippers", errors);
-  await resolveLines(find, out, "packs", "pack", "packs", errors);
-  if (out.materials === undefined && Array.isArray(out.boxes)) out.materials = await materialsNamedBy(find, out.boxes.map((b) => (isObject(b) ? b.shipper : null)));
-  return Object.keys(errors).length ? { ok: false, fieldErrors: errors } : { ok: true, value: out };
+/** A planner's input with its template names resolved, as the planner's registry entry says. */
+export function resolvePlannerInput(db: Db, kind: PlannerKind, body: unknown): Promise<Resolved> {
+  return resolveRefs(db, body, PLANNERS[kind].refs, (by) => (isPlannerKind(by) ? PLANNERS[by].refs : null));
 }

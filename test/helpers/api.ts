@@ -59,8 +59,6 @@ const decode = (s: string) => {
   }
 };
 
-const CALC = new Set(["hold", "size", "thaw", "warmup"]);
-
 /** The route module and params for an /api/v1/… path, as Next's router would pick them; null for none. */
 async function route(pathname: string): Promise<{ mod: RouteModule; params: Record<string, string> } | null> {
   const parts = pathname.split("/").filter(Boolean);
@@ -71,15 +69,6 @@ async function route(pathname: string): Promise<{ mod: RouteModule; params: Reco
     if (p[0] === "session") return { mod: m(await import("../../app/api/v1/session/route")), params: {} };
     if (p[0] === "plans") return { mod: m(await import("../../app/api/v1/plans/route")), params: {} };
     if (p[0] === "settings") return { mod: m(await import("../../app/api/v1/settings/route")), params: {} };
-    if (CALC.has(p[0])) {
-      const calc: Record<string, () => Promise<unknown>> = {
-        hold: () => import("../../app/api/v1/hold/route"),
-        size: () => import("../../app/api/v1/size/route"),
-        thaw: () => import("../../app/api/v1/thaw/route"),
-        warmup: () => import("../../app/api/v1/warmup/route"),
-      };
-      return { mod: m(await calc[p[0]]()), params: {} };
-    }
     return { mod: m(await import("../../app/api/v1/[kind]/route")), params: { kind: p[0] } };
   }
   if (p.length === 2 && p[0] === "schema") return { mod: m(await import("../../app/api/v1/schema/[name]/route")), params: { name: p[1] } };

@@ -11,7 +11,7 @@ import os from "node:os";
 import path from "node:path";
 import { ROOT, sh, readmeSection, codeBlocks, commandsOf, STACK_TRACE, type Ran } from "../helpers/cli-run";
 import { openLibrary } from "../../cli/library";
-import { resolveHoldRefs } from "../../lib/db/resolve";
+import { resolvePlannerInput } from "../../lib/db/resolve";
 import { savePlan } from "../../lib/db/plans";
 
 const section = readmeSection("Command line");
@@ -42,7 +42,7 @@ describe("README command-line section, run as typed", () => {
     symlinkSync(path.join(ROOT, "public"), path.join(dir, "public"));
     // A plan saved as the hold page saves one (its input spelled out), so `plans show 1` has something to show.
     const db = await openLibrary(env.DATABASE_URL, { seed: true });
-    const input = await resolveHoldRefs(db, example("hold.json"));
+    const input = await resolvePlannerInput(db, "hold", example("hold.json"));
     if (!input.ok) throw new Error(JSON.stringify(input.fieldErrors));
     await savePlan(db, { kind: "hold", name: "README check plan", input: input.value, result: null });
     await db.$disconnect();

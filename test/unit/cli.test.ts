@@ -7,7 +7,7 @@ import { STACK_TRACE, ROOT } from "../helpers/cli-run";
 import { openLibrary } from "../../cli/library";
 import { sizeWorkerFile } from "../../cli/paths";
 import { savePlan } from "../../lib/db/plans";
-import { resolveHoldRefs } from "../../lib/db/resolve";
+import { resolvePlannerInput } from "../../lib/db/resolve";
 
 function capture() {
   let out = "";
@@ -167,7 +167,7 @@ describe("holdline CLI", () => {
 
   it("an input that spells out every template computes without creating or opening a database", async () => {
     const db = await openLibrary(seeded, { seed: true });
-    const full = await resolveHoldRefs(db, JSON.parse(readFileSync(example("hold.json"), "utf8")));
+    const full = await resolvePlannerInput(db, "hold", JSON.parse(readFileSync(example("hold.json"), "utf8")));
     await db.$disconnect();
     expect(full.ok).toBe(true);
     const f = path.join(dir, "hold-full.json");
@@ -181,7 +181,7 @@ describe("holdline CLI", () => {
 
   it("plans lists saved plans; plans show N --json prints an input the planner accepts; bad ids are refused", async () => {
     const db = await openLibrary(seeded, { seed: true });
-    const input = await resolveHoldRefs(db, JSON.parse(readFileSync(example("hold.json"), "utf8")));
+    const input = await resolvePlannerInput(db, "hold", JSON.parse(readFileSync(example("hold.json"), "utf8")));
     const id = await savePlan(db, { kind: "hold", name: "Cod overnight", input: (input as { value: unknown }).value, result: { holdTime_s: 1 } });
     await db.$disconnect();
     const list = capture();

@@ -1,10 +1,10 @@
 import "server-only";
 import { NextResponse } from "next/server";
 import type { FieldErrors } from "@/lib/schemas/errors";
-import type { Db } from "@/lib/db/client";
 import { getDb } from "@/app/_server/db";
 import { runCalculation } from "@/app/_server/calc-pool";
-import type { Calculation } from "@/app/_server/calc-worker";
+import { resolvePlannerInput } from "@/lib/db/resolve";
+import type { PlannerKind } from "@/lib/planners/registry";
 
 /** The largest request body the API reads: 1 MiB (a full library export is a few tens of kB). */
 export const MAX_BODY_BYTES = 1024 * 1024;
@@ -58,22 +58,18 @@ export async function readJson(req: Request): Promise<{ ok: true; body: unknown 
 }
 
 /**
- * A POST handler for a calculation: read JSON, check its shape and counts, copy in named templates, then
- * check with the zod schema and compute in the worker pool (off the request thread, with a time limit).
- * Bad input is a 422 with field errors; a physics input error names its field; a busy pool is a 503.
+ * POST /api/v1/<planner>: read JSON, check its shape and counts, copy in named templates (as the planner's
+ * registry entry says), then check with its zod schema and compute in the worker pool (off the request
+ * thread, with a time limit). Bad input is a 422 with field errors; a physics input error names its field;
+ * a busy pool is a 503.
  */
-export function calculationRoute(
-  kind: Calculation,
-  resolve: (db: Db, body: unknown) => Promise<{ ok: true; value: unknown } | { ok: false; fieldErrors: FieldErrors }>,
-) {
-  return async function POST(req: Request) {
-    const body = await readJson(req);
-    if (!body.ok) return body.response;
-    const resolved = await resolve(await getDb(), body.body);
-    if (!resolved.ok) return unprocessable("Some fields are not valid", resolved.fieldErrors);
-    const r = await runCalculation(kind, resolved.value);
-    if (r.ok) return new NextResponse(r.json, { headers: { "content-type": "application/json" } });
-    const headers: Record<string, string> = "retryAfter_s" in r ? { "Retry-After": String(r.retryAfter_s) } : {};
-    return NextResponse.json({ error: r.message, fieldErrors: r.fieldErrors }, { status: r.status, headers });
-  };
+export async function runPlannerRequest(kind: PlannerKind, req: Request): Promise<NextResponse> {
+  const body = await readJson(req);
+  if (!body.ok) return body.response;
+  const resolved = await resolvePlannerInput(await getDb(), kind, body.body);
+  if (!resolved.ok) return unprocessable("Some fields are not valid", resolved.fieldErrors);
+  const r = await runCalculation(kind, resolved.value);
+  if (r.ok) return new NextResponse(r.json, { headers: { "content-type": "application/json" } });
+  const headers: Record<string, string> = "retryAfter_s" in r ? { "Retry-After": String(r.retryAfter_s) } : {};
+  return NextResponse.json({ error: r.message, fieldErrors: r.fieldErrors }, { status: r.status, headers });
 }

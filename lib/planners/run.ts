@@ -1,0 +1,28 @@
+/**
+ * Runs a planner on untrusted input, the one way every host does it (the server's worker pool, the
+ * browser's planner worker, the CLI): check with the entry's zod schema, compute; bad input comes back as
+ * field errors, a physics input error (valid shape, impossible value) names its field.
+ */
+import { fieldErrorsOf } from "../schemas/errors";
+import type { FieldErrors } from "../schemas/errors";
+import { PhysicsInputError } from "../physics/validation";
+import type { PlannerEntry } from "./types";
+
+export type PlannerRun =
+  | { ok: true; result: { parsed: unknown; result: unknown; pending: string | null } }
+  /** `message`: the physics input error's own words; absent for schema problems ("Some fields are not valid"). */
+  | { ok: false; fieldErrors: FieldErrors; message?: string };
+
+/** With stage "quick", runs the entry's cheaper first answer where it has one (`pending` says what is to come). */
+export async function runPlanner(entry: PlannerEntry, input: unknown, stage: "quick" | "full" = "full"): Promise<PlannerRun> {
+  const parsed = entry.schema.safeParse(input);
+  if (!parsed.success) return { ok: false, fieldErrors: fieldErrorsOf(parsed.error) };
+  try {
+    const q = stage === "quick" ? entry.quick(parsed.data) : null;
+    const result = await entry.run(q ? q.input : parsed.data);
+    return { ok: true, result: { parsed: parsed.data, result, pending: q ? q.pending : null } };
+  } catch (e) {
+    if (e instanceof PhysicsInputError) return { ok: false, fieldErrors: { [e.field]: [e.message] }, message: e.message };
+    throw e;
+  }
+}
