@@ -21,6 +21,10 @@ export function TemperatureChart(props: {
   band?: { y1: number; y2: number } | null;
   markers?: { x: number; label: string; kind: "segment" | "stop" }[];
   testId?: string;
+  /** The y-axis title with its unit ("temperature (°F)"); default: the unit alone. */
+  yTitle?: string;
+  /** A fixed y range (pack state on 0–100 %). */
+  yDomain?: [number, number];
 }) {
   return (
     <div className="chart" data-testid={props.testId ?? "temperature-chart"} style={{ width: "100%", height: props.height ?? 340 }}>
@@ -28,7 +32,7 @@ export function TemperatureChart(props: {
         <LineChart data={props.data} margin={{ top: 10, right: 24, bottom: 24, left: 8 }}>
           <CartesianGrid stroke="#e3e6e8" />
           <XAxis dataKey="t_h" type="number" domain={["dataMin", "dataMax"]} tickFormatter={(v: number) => `${Number(v.toFixed(1))}`} label={{ value: "time (h)", position: "insideBottom", offset: -12 }} />
-          <YAxis width={56} tickFormatter={(v: number) => `${Number(v.toFixed(1))}`} label={{ value: props.unit, angle: -90, position: "insideLeft" }} domain={["auto", "auto"]} />
+          <YAxis width={56} tickFormatter={(v: number) => `${Number(v.toFixed(1))}`} label={{ value: props.yTitle ?? props.unit, angle: -90, position: "insideLeft" }} domain={props.yDomain ?? ["auto", "auto"]} />
           <Tooltip formatter={(v) => `${Number(Number(v).toFixed(2))} ${props.unit}`} labelFormatter={(v) => `${Number(Number(v).toFixed(2))} h`} />
           <Legend verticalAlign="top" height={28} />
           {props.band ? <ReferenceArea y1={props.band.y1} y2={props.band.y2} fill="#7fb08a" fillOpacity={0.12} stroke="none" ifOverflow="extendDomain" /> : null}

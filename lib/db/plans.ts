@@ -2,16 +2,25 @@ import type { Db } from "./client";
 import { z } from "zod";
 import type { Actor } from "./audit";
 import { parseId } from "../schemas/id";
+import { PLANNER_KINDS } from "../planners/registry";
 
-export const PLAN_KINDS = ["warmup", "hold", "thaw", "size"] as const;
+/** Every planner in the registry keeps plans. */
+export const PLAN_KINDS = PLANNER_KINDS;
 
-/** A saved plan keeps a full copy of its inputs, so editing or deleting a template never changes it. */
+export const planNameSchema = z.string({ error: "Name: enter a name" }).trim().min(1, { error: "Name: enter a name" }).max(200, { error: "Name: at most 200 characters" });
+
+/**
+ * A saved plan keeps a full copy of its inputs, so editing or deleting a template never changes it, and
+ * the result the server computed from them (never one sent by the client).
+ */
 export const planSchema = z.object({
-  kind: z.enum(PLAN_KINDS, { error: "Plan kind: warmup, hold, thaw or size" }),
-  name: z.string().trim().min(1, { error: "Name: enter a name" }).max(200),
+  kind: z.enum(PLAN_KINDS, { error: `Plan kind: ${PLAN_KINDS.join(", ")}` }),
+  name: planNameSchema,
   input: z.unknown(),
   result: z.unknown(),
 });
+/** What a client sends to save a plan: the planner, a name and the input (templates by name or spelled out). */
+export const planRequestSchema = planSchema.pick({ kind: true, name: true, input: true });
 export type PlanInput = z.input<typeof planSchema>;
 
 export interface StoredPlan {
@@ -60,5 +69,13 @@ export async function deletePlan(db: Db, rawId: number | string): Promise<boolea
   const id = parseId(rawId);
   if (id === null) return false;
   const r = await db.plan.deleteMany({ where: { id } });
+  return r.count === 1;
+}
+
+/** Renames a plan; false when there is no such plan. The name is checked with planNameSchema first. */
+export async function renamePlan(db: Db, rawId: number | string, name: string): Promise<boolean> {
+  const id = parseId(rawId);
+  if (id === null) return false;
+  const r = await db.plan.updateMany({ where: { id }, data: { name: planNameSchema.parse(name) } });
   return r.count === 1;
 }

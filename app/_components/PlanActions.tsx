@@ -1,0 +1,50 @@
+"use client";
+import { useState } from "react";
+import type { CsvRow } from "@/lib/planners/types";
+import type { PlannerKind } from "@/lib/planners/registry";
+import { savePlanAction } from "@/app/plans/actions";
+import { downloadCsv } from "./csv";
+import { SavedNotice } from "./ResultParts";
+
+/** Save as a named plan (the server computes what it stores), download the curves as CSV, print the record. */
+export function PlanActions({ kind, input, csv, defaultName, csvName }: { kind: PlannerKind; input: unknown; csv: CsvRow[]; defaultName: string; csvName?: string }) {
+  const [name, setName] = useState("");
+  const [saved, setSaved] = useState<number | null>(null);
+  const [problem, setProblem] = useState<string | null>(null);
+  const [saving, setSaving] = useState(false);
+  return (
+    <div className="save-row no-print">
+      <label htmlFor="plan-name">Save as a plan</label>
+      <input id="plan-name" value={name} placeholder={defaultName} onChange={(ev) => setName(ev.target.value)} aria-describedby={problem ? "plan-save-problem" : undefined} />
+      <button
+        type="button"
+        disabled={saving}
+        onClick={async () => {
+          setSaving(true);
+          setProblem(null);
+          try {
+            const r = await savePlanAction({ kind, name: name.trim() || defaultName, input });
+            if (r.ok) setSaved(r.id);
+            else setProblem(Object.values(r.fieldErrors).flat().join("; ") || "The plan could not be saved");
+          } finally {
+            setSaving(false);
+          }
+        }}
+      >
+        {saving ? "Saving…" : "Save plan"}
+      </button>
+      <button type="button" className="secondary" disabled={!csv.length} onClick={() => downloadCsv(csvName ?? `holdline-${kind}.csv`, csv)}>
+        Download curves (CSV)
+      </button>
+      <button type="button" className="secondary" onClick={() => window.print()}>
+        Print plan record
+      </button>
+      <SavedNotice id={saved} />
+      {problem ? (
+        <p className="field-error" id="plan-save-problem" role="alert">
+          {problem}
+        </p>
+      ) : null}
+    </div>
+  );
+}

@@ -1,0 +1,111 @@
+"use client";
+import type { ChartSpec, PlanView as View } from "@/lib/planners/types";
+import { TemperatureChart } from "./TemperatureChart";
+import { CautionBlock } from "./CautionBlock";
+import { ComplianceList, FactList } from "./ResultParts";
+
+/** A chart of a result, as its planner's view describes it. */
+export function ChartFromSpec({ spec, height }: { spec: ChartSpec; height?: number }) {
+  const finite = spec.data.flatMap((d) => spec.lines.map((l) => d[l.key]).filter((v): v is number => Number.isFinite(v)));
+  const lo = Math.min(...finite, ...spec.limits.map((l) => l.y));
+  const hi = Math.max(...finite, ...spec.limits.map((l) => l.y));
+  const band = spec.band ? { y1: Number.isFinite(spec.band.y1) ? spec.band.y1 : lo - 1, y2: Number.isFinite(spec.band.y2) ? spec.band.y2 : hi + 1 } : null;
+  return (
+    <figure className="chart-figure">
+      <figcaption>{spec.title}</figcaption>
+      <TemperatureChart
+        testId={spec.testId}
+        data={spec.data}
+        lines={spec.lines}
+        limits={spec.limits}
+        unit={spec.unit}
+        yTitle={spec.yTitle}
+        yDomain={spec.yDomain}
+        band={band}
+        markers={spec.markers}
+        height={height ?? (spec.yDomain ? 220 : 340)}
+      />
+    </figure>
+  );
+}
+
+/**
+ * A planner's result as a person reads it: headline, key figures, charts, tables, the rule-set lines,
+ * assumptions, warnings and cautions. The same component shows a live result, its print view and a saved
+ * plan's record. `record` adds what was planned and the blanks of the paper record (shown on screen too).
+ */
+export function PlanView({ view, record = false, stale = false }: { view: View; record?: boolean; stale?: boolean }) {
+  return (
+    <div className={stale ? "plan-view stale" : "plan-view"} aria-busy={stale || !!view.pending}>
+      <h1 className={record ? undefined : "print-only"}>{view.title}</h1>
+      <h2 data-testid={view.headlineTestId}>{view.headline}</h2>
+      {view.pending ? (
+        <p className="muted no-print" role="status" data-testid="result-pending">
+          {view.pending}
+        </p>
+      ) : null}
+      <table className="list summary" data-testid="result-facts">
+        <tbody>
+          {view.facts.map((f) => (
+            <tr key={f.label}>
+              <th scope="row">{f.label}</th>
+              <td data-testid={f.testId}>{f.value}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+      <section className={record ? "plan-inputs" : "plan-inputs print-only"} aria-label="What was planned">
+        <h3>What was planned</h3>
+        <table className="list summary">
+          <tbody>
+            {view.inputs.map((f) => (
+              <tr key={f.label}>
+                <th scope="row">{f.label}</th>
+                <td>{f.value}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </section>
+      {view.charts.map((c) => (
+        <ChartFromSpec key={c.testId} spec={c} />
+      ))}
+      {view.tables.map((t) => (
+        <section key={t.title}>
+          <h3>{t.title}</h3>
+          <table className="list" data-testid={t.testId}>
+            <thead>
+              <tr>
+                {t.columns.map((c) => (
+                  <th key={c} scope="col">
+                    {c}
+                  </th>
+                ))}
+              </tr>
+            </thead>
+            <tbody>
+              {t.rows.map((r, i) => (
+                <tr key={i}>
+                  {r.map((cell, j) => (
+                    <td key={j}>{cell}</td>
+                  ))}
+                </tr>
+              ))}
+            </tbody>
+          </table>
+          {t.note ? <p className="muted">{t.note}</p> : null}
+        </section>
+      ))}
+      <ComplianceList lines={view.compliance.lines} title={view.compliance.title || undefined} />
+      <FactList title="Assumptions" items={view.assumptions} testId="assumptions" />
+      <FactList title="Warnings" items={view.warnings} warn testId="warnings" />
+      <CautionBlock dryIce={view.cautions.dryIce} extra={view.cautions.extra} />
+      <section className={record ? "sign-off" : "sign-off print-only"} data-testid="sign-off">
+        <h2>{view.signOff.title}</h2>
+        {view.signOff.lines.map((l) => (
+          <p key={l}>{l}</p>
+        ))}
+      </section>
+    </div>
+  );
+}
