@@ -38,6 +38,8 @@ describe("hold planner in the browser", () => {
     await page.getByRole("heading", { name: "Harbour Street lunch, thick box" }).waitFor();
     await page.getByRole("link", { name: "Reopen in the hold planner" }).click();
     await page.getByText(/Reopened the saved plan/).waitFor();
+    // The form's values arrive with hydration; the result (from the page's worker) comes after it.
+    await page.getByTestId("hold-time").waitFor();
     assert.equal(await page.getByLabel("Product 2", { exact: true }).inputValue(), "Mixed salad leaves, tub");
     assert.equal(await page.getByLabel("How many").nth(2).inputValue(), "8");
     await page.getByTestId("hold-time").waitFor();
