@@ -5,6 +5,7 @@ import { UnitsProvider } from "./_components/units-context";
 import { currentUnits } from "./_server/units";
 import { currentActor } from "./_server/auth";
 import { signOutAction } from "./signin/actions";
+import { PLANNERS } from "@/lib/planners/registry";
 
 export const metadata: Metadata = {
   title: "Holdline",
@@ -26,10 +27,11 @@ export default async function RootLayout({ children }: { children: React.ReactNo
             Holdline
           </Link>
           <nav aria-label="Main">
-            <Link href="/hold">Hold planner</Link>
-            <Link href="/size">Pack-out sizer</Link>
-            <Link href="/thaw">Thaw planner</Link>
-            <Link href="/warmup">Warm-up check</Link>
+            {Object.values(PLANNERS).map((e) => (
+              <Link key={e.kind} href={e.path}>
+                {e.title}
+              </Link>
+            ))}
             <span className="nav-sep" />
             <span className="nav-group">Library:</span>
             <Link href="/library/products">Products</Link>

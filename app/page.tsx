@@ -2,6 +2,7 @@ import Link from "next/link";
 import { getDb } from "./_server/db";
 import { TEMPLATE_KINDS, TEMPLATE_LABELS } from "@/lib/schemas/templates";
 import { delegateFor } from "@/lib/db/templates";
+import { PLANNERS } from "@/lib/planners/registry";
 
 export default async function Home() {
   const db = await getDb();
@@ -15,30 +16,14 @@ export default async function Home() {
       </p>
       <h2>Plan</h2>
       <ul className="tiles">
-        <li>
-          <Link href="/hold">
-            <strong>Hold planner</strong>
-            <span>How long this box and these packs keep the load inside its limits on a route</span>
-          </Link>
-        </li>
-        <li>
-          <Link href="/size">
-            <strong>Pack-out sizer</strong>
-            <span>The lightest, cheapest box and packs that hold for the route plus a margin</span>
-          </Link>
-        </li>
-        <li>
-          <Link href="/thaw">
-            <strong>Thaw planner</strong>
-            <span>When to start a defrost, which way, and how long the surface sits warm</span>
-          </Link>
-        </li>
-        <li>
-          <Link href="/warmup">
-            <strong>Warm-up and cool-down check</strong>
-            <span>Time until a product crosses its limit on the pass, in the van or on the buffet</span>
-          </Link>
-        </li>
+        {Object.values(PLANNERS).map((e) => (
+          <li key={e.kind}>
+            <Link href={e.path}>
+              <strong>{e.title}</strong>
+              <span>{e.question}</span>
+            </Link>
+          </li>
+        ))}
       </ul>
       <h2>Your library</h2>
       <ul className="tiles">

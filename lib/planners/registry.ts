@@ -9,11 +9,12 @@ import { thawPlanner } from "./thaw";
 import { warmupPlanner } from "./warmup";
 import { sizePlanner } from "./size";
 
+/** In the order the pages list them. */
 export const PLANNERS = {
   hold: holdPlanner,
+  size: sizePlanner,
   thaw: thawPlanner,
   warmup: warmupPlanner,
-  size: sizePlanner,
 } as const;
 
 export type PlannerKind = keyof typeof PLANNERS;
