@@ -1,6 +1,8 @@
 import Link from "next/link";
 import { getDb } from "@/app/_server/db";
 import { listPlans } from "@/lib/db/plans";
+import { isPlannerKind, plannerOf } from "@/lib/planners/registry";
+import { PlanRowActions } from "./PlanRowActions";
 
 export default async function PlansPage() {
   const plans = await listPlans(await getDb());
@@ -18,6 +20,9 @@ export default async function PlansPage() {
               <th>Kind</th>
               <th>Saved (UTC)</th>
               <th>By</th>
+              <th>
+                <span className="visually-hidden">Actions</span>
+              </th>
             </tr>
           </thead>
           <tbody>
@@ -26,9 +31,12 @@ export default async function PlansPage() {
                 <td>
                   <Link href={`/plans/${p.id}`}>{p.name}</Link>
                 </td>
-                <td>{p.kind}</td>
+                <td>{isPlannerKind(p.kind) ? plannerOf(p.kind).title : p.kind}</td>
                 <td>{p.createdAt.toISOString().slice(0, 16).replace("T", " ")}</td>
                 <td>{p.createdByName ?? "single user"}</td>
+                <td>
+                  <PlanRowActions id={p.id} name={p.name} />
+                </td>
               </tr>
             ))}
           </tbody>

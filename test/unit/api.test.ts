@@ -1,3 +1,5 @@
+import { readFileSync } from "node:fs";
+import path from "node:path";
 // The JSON API in accounts mode, through proxy.ts and the route handlers, on SQLite
 // (npm test, with HOLDLINE_AUTH=accounts) and on PostgreSQL (npm run test:pg, where a
 // postgresql:// database turns accounts on by itself).
@@ -70,8 +72,17 @@ describe("roles", () => {
     expect((await api("PUT", `/api/v1/rulesets/${rules[0].id}`, { token: planner, body: { ...rules[0], chilledMax_C: 9 } })).status).toBe(403);
     expect((await api("DELETE", `/api/v1/rulesets/${rules[0].id}`, { token: planner })).status).toBe(403);
     expect((await api("PUT", "/api/v1/settings", { token: planner, body: { temperatureUnit: "F", massUnit: "kg", lengthUnit: "mm" } })).status).toBe(403);
-    const plan = await api("POST", "/api/v1/plans", { token: planner, body: { kind: "hold", name: "Friday lunch", input: { x: 1 }, result: { y: 2 } } });
+    const input = JSON.parse(readFileSync(path.join(process.cwd(), "public/examples/hold.json"), "utf8"));
+    // A result sent by the client is never stored: the server computes its own.
+    const plan = await api("POST", "/api/v1/plans", { token: planner, body: { kind: "hold", name: "Friday lunch", input, result: { holdTime_s: 1 } } });
     expect(plan.status).toBe(201);
+    const saved = (await api("GET", `/api/v1/plans/${(plan.body as { id: number }).id}`, { token: planner })).body as { result: { holdTime_s: number | null; series: unknown[] }; input: { shipper: { name: string } } };
+    expect(saved.result.series.length).toBeGreaterThan(10);
+    expect(saved.result.holdTime_s).not.toBe(1);
+    expect(saved.input.shipper.name).toBe(input.shipper);
+    const bad = await api("POST", "/api/v1/plans", { token: planner, body: { kind: "hold", name: "Bad", input: { x: 1 } } });
+    expect(bad.status).toBe(422);
+    expect(Object.keys((bad.body as { fieldErrors: Record<string, string[]> }).fieldErrors).every((k) => k.startsWith("input"))).toBe(true);
     const list = (await api("GET", "/api/v1/plans", { token: editor })).body as { id: number; createdByName: string; createdAt: string }[];
     expect(list.find((p) => p.id === (plan.body as { id: number }).id)).toMatchObject({ createdByName: "Pat Planner" });
   });
