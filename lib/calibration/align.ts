@@ -2,6 +2,7 @@
  * Plan against log: a logger's readings set beside a hold or thaw plan's curves, aligned at the plan's
  * start, with the residual (logged − modelled) of every channel and the largest gap.
  */
+import { interpolateAt } from "../physics/numerics";
 import type { HoldResult } from "../physics/hold";
 import type { ThawResult } from "../physics/thaw";
 import type { HoldParsed } from "../schemas/hold";
@@ -65,20 +66,7 @@ export function resolvePlanStart(log: ParsedLog, planStart: string | number | nu
 
 /** Linear interpolation of a curve at t (null outside it). */
 export function interpolate(c: Curve, t: number): number | null {
-  const n = c.t_s.length;
-  if (n === 0 || t < c.t_s[0] - 1e-9 || t > c.t_s[n - 1] + 1e-9) return null;
-  let lo = 0;
-  let hi = n - 1;
-  while (hi - lo > 1) {
-    const mid = (lo + hi) >> 1;
-    if (c.t_s[mid] <= t) lo = mid;
-    else hi = mid;
-  }
-  const t0 = c.t_s[lo];
-  const t1 = c.t_s[hi];
-  if (t1 <= t0) return c.T_C[lo];
-  const f = Math.min(1, Math.max(0, (t - t0) / (t1 - t0)));
-  return c.T_C[lo] + f * (c.T_C[hi] - c.T_C[lo]);
+  return interpolateAt(c.t_s, c.T_C, t, false);
 }
 
 /** Outside air of a route as a step curve (each segment's air temperature over its length). */

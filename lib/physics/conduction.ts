@@ -17,22 +17,21 @@ import { requireNonNegative, requirePositive } from "./validation";
 
 export type Shape1D = "slab" | "cylinder" | "sphere";
 
+import { brent } from "./numerics";
+
 const { besselj } = bessel;
 const J0 = (x: number) => besselj(x, 0);
 const J1 = (x: number) => besselj(x, 1);
 
+/**
+ * The root of f in a bracket known to hold one (Brent's method to round-off, numerics.ts). Where rounding
+ * leaves no sign change at the ends (a root at an end), the end nearer zero is returned.
+ */
 function bisect(f: (x: number) => number, a: number, b: number): number {
-  let fa = f(a);
-  for (let i = 0; i < 200 && b - a > 1e-15 * Math.max(1, Math.abs(b)); i++) {
-    const m = 0.5 * (a + b);
-    const fm = f(m);
-    if (fm === 0) return m;
-    if ((fm < 0) === (fa < 0)) {
-      a = m;
-      fa = fm;
-    } else b = m;
-  }
-  return 0.5 * (a + b);
+  const fa = f(a);
+  const fb = f(b);
+  if (!(fa > 0 !== fb > 0) || fa === 0 || fb === 0) return Math.abs(fa) <= Math.abs(fb) ? a : b;
+  return brent(f, a, b, { fa, fb, xtol_abs: 1e-15 * Math.max(1, Math.abs(b)), maxEvaluations: 200 }).x;
 }
 
 /** The first n zeros of J0 (needed to bracket the cylinder eigenvalues). */

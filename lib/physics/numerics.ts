@@ -85,3 +85,56 @@ export function brent(f: (x: number) => number, a: number, b: number, opts: { xt
   }
   return { x: b, fx: fb, evaluations, converged: false };
 }
+
+/**
+ * Linear interpolation of a sampled curve (times ascending) at t. Outside the samples: the end value when
+ * `clamp` (the default), else null.
+ */
+export function interpolateAt(t_s: ArrayLike<number>, y: ArrayLike<number>, t: number, clamp = true): number | null {
+  const n = t_s.length;
+  if (n === 0) return null;
+  if (t <= t_s[0]) return clamp || t >= t_s[0] - 1e-9 ? y[0] : null;
+  if (t >= t_s[n - 1]) return clamp || t <= t_s[n - 1] + 1e-9 ? y[n - 1] : null;
+  let lo = 0;
+  let hi = n - 1;
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if (t_s[mid] <= t) lo = mid;
+    else hi = mid;
+  }
+  const t0 = t_s[lo];
+  const t1 = t_s[hi];
+  if (t1 <= t0) return y[lo];
+  const f = Math.min(1, Math.max(0, (t - t0) / (t1 - t0)));
+  return y[lo] + f * (y[hi] - y[lo]);
+}
+
+/**
+ * The first time a sampled curve reaches `level` going up (or down), interpolated linearly between the
+ * samples either side; 0 if it starts there, null if it never gets there.
+ */
+export function firstCrossing(t_s: ArrayLike<number>, y: ArrayLike<number>, level: number, direction: "up" | "down"): number | null {
+  const reached = direction === "up" ? (v: number) => v >= level : (v: number) => v <= level;
+  if (y.length === 0) return null;
+  if (reached(y[0])) return 0;
+  for (let i = 1; i < y.length; i++) {
+    if (reached(y[i])) {
+      const f = (level - y[i - 1]) / (y[i] - y[i - 1]);
+      return t_s[i - 1] + Math.min(1, Math.max(0, f)) * (t_s[i] - t_s[i - 1]);
+    }
+  }
+  return null;
+}
+
+/**
+ * The first time a continuous, monotone-in-time quantity f(t) reaches `level` in [0, tMax] (Brent's method on
+ * f(t) − level, to 1 ms); 0 if it starts there, null if it does not get there by tMax.
+ */
+export function firstTimeReaching(f: (t: number) => number, level: number, direction: "up" | "down", tMax: number): number | null {
+  const g = (t: number) => (direction === "up" ? f(t) - level : level - f(t));
+  const g0 = g(0);
+  if (g0 >= 0) return 0;
+  const g1 = g(tMax);
+  if (!(g1 >= 0)) return null;
+  return brent(g, 0, tMax, { fa: g0, fb: g1, xtol_abs: 1e-3, maxEvaluations: 200 }).x;
+}

@@ -331,3 +331,21 @@ export function itemSurfaceCoefficient(g: ItemGeometry, Ts_C: number, s: Surroun
   const hR = s.fluid === "air" ? radiationCoefficient(emissivity, Ts_C, s.radiant_C ?? s.T_C) : 0;
   return { h_W_m2K: hC + hR, hConvective_W_m2K: hC, hRadiative_W_m2K: hR, regime, correlations: [...correlations] };
 }
+
+/**
+ * A surface coefficient that follows the surface temperature: re-evaluates `hAt(Ts)` only when the surface
+ * has moved more than `step_K` (0.25 K) since the last evaluation, so a convection correlation is not
+ * recomputed at every solver step, while its dependence on ΔT (natural convection goes as ΔT^¼–⅓) is kept.
+ * The returned function has the solver's boundary signature (t, Ts).
+ */
+export function followingSurface(hAt: (Ts_C: number) => number, step_K = 0.25): (t_s: number, Ts_C: number) => number {
+  let lastTs = NaN;
+  let lastH = 0;
+  return (_t, Ts) => {
+    if (!(Math.abs(Ts - lastTs) <= step_K)) {
+      lastTs = Ts;
+      lastH = hAt(Ts);
+    }
+    return lastH;
+  };
+}

@@ -3,11 +3,12 @@
  * above the chill limit meanwhile, and whether that meets the chosen rule set. Every method runs on
  * the core's implicit enthalpy solver (solver1d.ts) with the item's own shape and properties.
  */
+import { firstCrossing } from "./numerics";
 import { thawInputSchema, THAW_METHOD_LABELS, type ThawInput, type ThawMethod, type ThawMethodKind, type ThawParsed } from "../schemas/thaw";
 import type { Material, Product, RuleSet } from "../schemas/templates";
 import { productThermal, warnPropertyRange, type FoodThermal } from "./properties";
 import { itemShape, type ItemShape } from "./geometry";
-import { itemSurfaceCoefficient, naturalHorizontalPlate, forcedFlatPlate, mixedConvection, radiationCoefficient, type Surroundings } from "./surfaces";
+import { followingSurface, itemSurfaceCoefficient, naturalHorizontalPlate, forcedFlatPlate, mixedConvection, radiationCoefficient, type Surroundings } from "./surfaces";
 import { annularFinEfficiency, straightFinEfficiency } from "./fins";
 import { solve1D, type Boundary, type Solver1DResult } from "./solver1d";
 import { closedFormEstimates, type EstimateInputs } from "./phase-change";
@@ -159,14 +160,6 @@ function timeAbove(t: number[], y: number[], limit: number, tEnd: number): numbe
   return s;
 }
 
-function crossing(t: number[], y: number[], target: number): number | null {
-  if (y[0] >= target) return 0;
-  for (let i = 1; i < y.length; i++) {
-    if (y[i] >= target) return t[i - 1] + ((target - y[i - 1]) / (y[i] - y[i - 1])) * (t[i] - t[i - 1]);
-  }
-  return null;
-}
-
 function runMethod(item: Item, inp: ThawParsed, method: ThawMethod, endPoint_C: number, warnings: string[]): ThawMethodResult {
   const { food, shape, p } = item;
   const rs = inp.ruleSet;
@@ -188,15 +181,7 @@ function runMethod(item: Item, inp: ThawParsed, method: ThawMethod, endPoint_C: 
 
   const hAirFn = (air: Surroundings) => {
     if (inp.overrides.h_W_m2K) return () => inp.overrides.h_W_m2K! * hf;
-    let lastTs = NaN;
-    let lastH = 0;
-    return (_t: number, Ts: number) => {
-      if (!(Math.abs(Ts - lastTs) < 0.25)) {
-        lastTs = Ts;
-        lastH = itemSurfaceCoefficient(g, Ts, air, 0, []).hConvective_W_m2K * hf;
-      }
-      return lastH;
-    };
+    return followingSurface((Ts) => itemSurfaceCoefficient(g, Ts, air, 0, []).hConvective_W_m2K * hf);
   };
 
   if (method.kind === "fridge_air" || method.kind === "room_air") {
@@ -262,17 +247,7 @@ function runMethod(item: Item, inp: ThawParsed, method: ThawMethod, endPoint_C: 
     const eff = (h: number) => (pack ? 1 / (1 / h + pack.thickness_m / pack.k_W_mK) : h);
     hShown = inp.overrides.h_W_m2K ? inp.overrides.h_W_m2K * hf : eff(hBare);
     medium_C = method.water_C;
-    let lastTs = NaN;
-    let lastH = hShown;
-    const hFn = inp.overrides.h_W_m2K
-      ? () => inp.overrides.h_W_m2K! * hf
-      : (_t: number, Ts: number) => {
-          if (!(Math.abs(Ts - lastTs) < 0.25)) {
-            lastTs = Ts;
-            lastH = eff(itemSurfaceCoefficient(g, Ts, water, 0, []).hConvective_W_m2K * hf);
-          }
-          return lastH;
-        };
+    const hFn = inp.overrides.h_W_m2K ? () => inp.overrides.h_W_m2K! * hf : followingSurface((Ts) => eff(itemSurfaceCoefficient(g, Ts, water, 0, []).hConvective_W_m2K * hf));
     if (pack) notes.push(`Packaging: ${(pack.thickness_m * 1000).toFixed(2)} mm at k = ${pack.k_W_mK} W/(m·K) in series with the water film`);
     result = solve1D({ ...base, boundary: { kind: "convective", h_W_m2K: hFn, fluid_C: () => method.water_C }, dt_s: dt0, adaptive });
   } else {
@@ -337,7 +312,7 @@ function runMethod(item: Item, inp: ThawParsed, method: ThawMethod, endPoint_C: 
   }
 
   warnPropertyRange(warnings, result.minT_C, result.maxT_C);
-  const thawTime = crossing(result.t_s, result.center_C, endPoint_C);
+  const thawTime = firstCrossing(result.t_s, result.center_C, endPoint_C, "up");
   const tEnd = thawTime ?? result.t_s[result.t_s.length - 1];
   const above = timeAbove(result.t_s, result.surface_C, chill, tEnd);
   let maxSurf = -Infinity;

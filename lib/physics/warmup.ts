@@ -4,10 +4,11 @@
  *  lumped capacitance (Bi < 0.1 on V/A) → exact series product solution (no phase change) →
  *  the numerical enthalpy solver (phase change or strongly varying properties).
  */
+import { firstCrossing, firstTimeReaching } from "./numerics";
 import { warmupInputSchema, type WarmupInput, type LimitKind } from "../schemas/warmup";
 import { productThermal, warnPropertyRange } from "./properties";
 import { itemShape } from "./geometry";
-import { itemSurfaceCoefficient, type Surroundings } from "./surfaces";
+import { followingSurface, itemSurfaceCoefficient, type Surroundings } from "./surfaces";
 import { lumpedTheta, seriesMeanTheta, seriesTheta } from "./conduction";
 import { solve1D } from "./solver1d";
 import { closedFormEstimates } from "./phase-change";
@@ -64,31 +65,6 @@ export function limitFor(kind: LimitKind, r: { chilledMax_C: number; hotHoldMin_
   return kind === "chilledMax" ? r.chilledMax_C : kind === "hotHoldMin" ? r.hotHoldMin_C : r.frozenMax_C;
 }
 
-/** First time f(t) crosses the limit, by bisection on a monotone function; null if not within [0, tMax]. */
-function crossingTime(f: (t: number) => number, crossed: (T: number) => boolean, tMax: number): number | null {
-  if (crossed(f(0))) return 0;
-  if (!crossed(f(tMax))) return null;
-  let a = 0;
-  let b = tMax;
-  for (let i = 0; i < 80 && b - a > 1e-3; i++) {
-    const m = (a + b) / 2;
-    if (crossed(f(m))) b = m;
-    else a = m;
-  }
-  return (a + b) / 2;
-}
-
-function crossingInSeries(t: number[], y: number[], crossed: (T: number) => boolean, limit: number): number | null {
-  if (crossed(y[0])) return 0;
-  for (let i = 1; i < y.length; i++) {
-    if (crossed(y[i])) {
-      const f = (limit - y[i - 1]) / (y[i] - y[i - 1]);
-      return t[i - 1] + Math.min(1, Math.max(0, f)) * (t[i] - t[i - 1]);
-    }
-  }
-  return null;
-}
-
 export function runWarmup(raw: WarmupInput): WarmupResult {
   const parsed = warmupInputSchema.safeParse(raw);
   if (!parsed.success) throw new PhysicsInputError(parsed.error.issues[0].path.join("."), parsed.error.issues[0].message);
@@ -103,8 +79,10 @@ export function runWarmup(raw: WarmupInput): WarmupResult {
   const Ti = inp.start_C;
   const Tinf = inp.surroundings.T_C;
   const direction: "warming" | "cooling" = inp.limit === "hotHoldMin" ? "cooling" : "warming";
-  const crossed = direction === "warming" ? (T: number) => T > limit_C : (T: number) => T < limit_C;
-  if (crossed(Ti)) warnings.push(`The starting temperature is already beyond the limit (${limit_C} °C)`);
+  const way = direction === "warming" ? "up" : "down";
+  /** When a closed-form temperature f(t) first reaches the limit within the horizon. */
+  const reaches = (f: (t: number) => number) => firstTimeReaching(f, limit_C, way, inp.horizon_s);
+  if (direction === "warming" ? Ti > limit_C : Ti < limit_C) warnings.push(`The starting temperature is already beyond the limit (${limit_C} °C)`);
   if (direction === "warming" && Tinf <= limit_C) warnings.push("The surroundings are not warmer than the limit, so the food never crosses it in this model");
   if (direction === "cooling" && Tinf >= limit_C) warnings.push("The surroundings are not colder than the limit, so the food never falls below it in this model");
   if (direction === "cooling" && Ti < Tinf) warnings.push("The food starts colder than its surroundings: it warms, it does not cool");
@@ -171,7 +149,7 @@ export function runWarmup(raw: WarmupInput): WarmupResult {
 
   if (method === "lumped") {
     const f = (t: number) => Tinf + dTi * lumpedTheta(h, shape.area_m2, rho, shape.volume_m3, c, t);
-    tc = ts = tm = tMid = crossingTime(f, crossed, horizon);
+    tc = ts = tm = tMid = reaches(f);
     for (let i = 0; i <= MAX_POINTS; i++) {
       const t = (horizon * i) / MAX_POINTS;
       const T = f(t);
@@ -196,18 +174,18 @@ export function runWarmup(raw: WarmupInput): WarmupResult {
     };
     const nF = shape.factors.length;
     const warmest = nF; // every factor at its surface: a block's corner, a cylinder's rim
-    tc = crossingTime((t) => thetaAt(t, "center"), crossed, horizon);
-    tMid = crossingTime((t) => thetaAt(t, 1), crossed, horizon);
+    tc = reaches((t) => thetaAt(t, "center"));
+    tMid = reaches((t) => thetaAt(t, 1));
     if (nF === 3) {
-      tEdge = crossingTime((t) => thetaAt(t, 2), crossed, horizon);
-      tCorner = crossingTime((t) => thetaAt(t, 3), crossed, horizon);
+      tEdge = reaches((t) => thetaAt(t, 2));
+      tCorner = reaches((t) => thetaAt(t, 3));
       surfacePoint = "corner";
     } else if (nF === 2) {
-      tEdge = crossingTime((t) => thetaAt(t, 2), crossed, horizon);
+      tEdge = reaches((t) => thetaAt(t, 2));
       surfacePoint = "edge";
     } else surfacePoint = shape.factors[0].shape === "slab" ? "mid-face" : "surface";
     ts = nF === 3 ? tCorner : nF === 2 ? tEdge : tMid;
-    tm = crossingTime((t) => thetaAt(t, "mean"), crossed, horizon);
+    tm = reaches((t) => thetaAt(t, "mean"));
     for (let i = 0; i <= MAX_POINTS; i++) {
       const t = (horizon * i) / MAX_POINTS;
       series.push({ t_s: t, center_C: thetaAt(t, "center"), surface_C: thetaAt(t, warmest), mean_C: thetaAt(t, "mean"), midFace_C: thetaAt(t, 1) });
@@ -227,18 +205,7 @@ export function runWarmup(raw: WarmupInput): WarmupResult {
     if (oneD.note && !(p.shape === "sphere")) assumptions.push(oneD.note);
     const hFn = hOverride
       ? () => hOverride
-      : (() => {
-          let lastTs = NaN;
-          let lastH = hc!.hConvective_W_m2K;
-          return (_t: number, Ts: number) => {
-            // Re-evaluate when the surface has moved 0.25 K (always on the first call, when lastTs is NaN).
-            if (!(Math.abs(Ts - lastTs) <= 0.25)) {
-              lastTs = Ts;
-              lastH = itemSurfaceCoefficient(shape.convection, Ts, s, 0, []).hConvective_W_m2K;
-            }
-            return lastH;
-          };
-        })();
+      : followingSurface((Ts) => itemSurfaceCoefficient(shape.convection, Ts, s, 0, []).hConvective_W_m2K);
     const alphaMax = Math.max(props.k_W_mK(Math.min(Ti, Tinf)) / (rho * props.c_J_kgK(Math.min(Ti, Tinf) - 5)), alpha, 1e-8);
     const depth = oneD.halfSize_m - oneD.innerRadius_m;
     const tau = (depth * depth) / alphaMax;
@@ -257,15 +224,15 @@ export function runWarmup(raw: WarmupInput): WarmupResult {
       adaptive: { target_K: 1, dtMax_s: dtMax },
     });
     warnPropertyRange(warnings, r.minT_C, r.maxT_C);
-    tc = crossingInSeries(r.t_s, r.center_C, crossed, limit_C);
-    ts = tMid = crossingInSeries(r.t_s, r.surface_C, crossed, limit_C);
+    tc = firstCrossing(r.t_s, r.center_C, limit_C, way);
+    ts = tMid = firstCrossing(r.t_s, r.surface_C, limit_C, way);
     if (p.shape === "block" || p.shape === "slab" || p.shape === "cylinder") {
       surfacePoint = "mid-face";
       assumptions.push(
         `The numerical solver is one-dimensional: its "surface" is the middle of the largest face. Corners and edges ${direction === "warming" ? "warm" : "cool"} sooner than that, so the surface time here is later than at the ${p.shape === "cylinder" ? "rim" : "corners"}; judge a limit with that margin in mind`,
       );
     }
-    tm = crossingInSeries(r.t_s, r.mean_C, crossed, limit_C);
+    tm = firstCrossing(r.t_s, r.mean_C, limit_C, way);
     const every = Math.max(1, Math.ceil(r.t_s.length / MAX_POINTS));
     for (let i = 0; i < r.t_s.length; i += every) series.push({ t_s: r.t_s[i], center_C: r.center_C[i], surface_C: r.surface_C[i], mean_C: r.mean_C[i], midFace_C: r.surface_C[i] });
     const last = r.t_s.length - 1;
