@@ -1,7 +1,7 @@
 "use client";
 import { Controller, useFieldArray, useForm, useWatch } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
-import { holdInputSchema, PLACEMENTS, type HoldInput, type HoldParsed } from "@/lib/schemas/hold";
+import { DEFAULT_CONTACT_W_M2K, holdInputSchema, PLACEMENTS, type HoldInput, type HoldParsed } from "@/lib/schemas/hold";
 import type { Material, Pack, Product, Route, RuleSet, Shipper } from "@/lib/schemas/templates";
 import { holdPlanner } from "@/lib/planners/hold";
 import { UnitInput } from "@/app/_components/UnitInput";
@@ -40,7 +40,7 @@ export function HoldPlanner(props: HoldPlannerProps) {
       products: products.length ? [{ product: pick(products, /chicken/i), count: 1, start_C: 2 }] : [],
       shipper: pick(shippers, /thick/i),
       materials,
-      packs: packs.length ? [{ pack: pick(packs, /gel/i), count: 4, conditioning_C: pick(packs, /gel/i).conditioning_C, placement: "around", contactWith: null, contact_W_m2K: 50 }] : [],
+      packs: packs.length ? [{ pack: pick(packs, /gel/i), count: 4, conditioning_C: pick(packs, /gel/i).conditioning_C, placement: "around", contactWith: null, contact_W_m2K: DEFAULT_CONTACT_W_M2K }] : [],
       route: routes[0],
       ruleSet: ruleSets.find((r) => r.name === props.defaultRuleSet) ?? ruleSets[0],
       boxStart_C: null,
@@ -161,7 +161,7 @@ export function HoldPlanner(props: HoldPlannerProps) {
               </div>
             </div>
           ))}
-          <button type="button" className="secondary" onClick={() => packLines.append({ pack: packs[0], count: 1, conditioning_C: packs[0].conditioning_C, placement: "around", contactWith: null, contact_W_m2K: 50 })}>
+          <button type="button" className="secondary" onClick={() => packLines.append({ pack: packs[0], count: 1, conditioning_C: packs[0].conditioning_C, placement: "around", contactWith: null, contact_W_m2K: DEFAULT_CONTACT_W_M2K })}>
             Add a pack
           </button>
         </fieldset>
