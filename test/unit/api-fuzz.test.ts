@@ -8,6 +8,7 @@
 import { describe, it, expect, beforeAll, afterAll, vi } from "vitest";
 import fc from "fast-check";
 import { startApi, JSON_HEADERS, ORIGIN, type ApiHarness } from "../helpers/api";
+import { PLANNER_KINDS, type PlannerKind } from "../../lib/planners/registry";
 
 vi.mock("server-only", () => ({}));
 
@@ -15,8 +16,8 @@ vi.mock("server-only", () => ({}));
 const SEED = Number(process.env.HOLDLINE_FUZZ_SEED ?? 20261202);
 /** Cases per route family: a few hundred for the quick routes, fewer for the calculations. */
 const RUNS = { crud: 300, calc: 150 } as const;
-/** Generous bounds on one answer (the calculation limit is set to 5 s below). */
-const BOUND_MS = { crud: 3_000, calc: 20_000 } as const;
+/** The slowest answer seen per family, printed at the end (the calculation limit is set to 5 s below). */
+const slowest: Partial<Record<keyof typeof RUNS, { ms: number; what: string }>> = {};
 
 let api: ApiHarness;
 const counts: Record<string, { cases: number; byStatus: Record<number, number> }> = {};
@@ -27,6 +28,7 @@ beforeAll(async () => {
 afterAll(async () => {
   await api?.dispose();
   console.log("fuzz counts:", JSON.stringify(counts));
+  console.log("fuzz slowest answers:", JSON.stringify(slowest));
 });
 
 const KINDS = ["materials", "products", "shippers", "packs", "routes", "rulesets"];
@@ -129,7 +131,8 @@ async function check(family: keyof typeof RUNS, label: string, method: string, u
   c.byStatus[r.status] = (c.byStatus[r.status] ?? 0) + 1;
   const what = `${method} ${url} ${String(body).slice(0, 300)} → ${r.status} ${text.slice(0, 300)}`;
   expect(r.status, what).toBeLessThan(500);
-  expect(ms, what).toBeLessThan(BOUND_MS[family]);
+  // Speed is measured by the benches, never asserted here: the slowest answer of each family is printed.
+  if (ms > (slowest[family]?.ms ?? 0)) slowest[family] = { ms: Math.round(ms), what: what.slice(0, 120) };
   if (r.headers.get("content-type")?.includes("json") && text) expect(() => JSON.parse(text), what).not.toThrow();
   if (before !== null && r.status >= 400) expect(await api.snapshot(), `database changed by a rejected request: ${what}`).toBe(before);
 }
@@ -177,7 +180,7 @@ describe("API fuzz (fixed seed, bounded)", () => {
     );
   });
 
-  const calcBases: Record<string, unknown[]> = {
+  const calcBases: Partial<Record<PlannerKind, unknown[]>> & Record<"hold" | "thaw" | "warmup" | "size", unknown[]> = {
     hold: [
       { products: [{ product: "Cod fillets, frozen block", count: 1, start_C: -22 }], shipper: "Quillfield lined carton", packs: [{ pack: "Dry ice slab, 2.5 kg", count: 1 }], route: "Overnight courier, Millbrook depot" },
       { products: [{ product: "Roast chicken thighs, half tray", count: 2, start_C: 3 }], shipper: "Quillfield thin foam cooler", packs: [{ pack: "Gel pack, 600 g", count: 4, conditioning_C: -18, placement: "top" }], route: { name: "Short", segments: [{ duration_s: 7200, airTemp_C: 28, airSpeed_m_s: 2, sun_W_m2: 600, lidOpenings: 3, lidOpenDuration_s: 20 }] } },
@@ -211,14 +214,44 @@ describe("API fuzz (fixed seed, bounded)", () => {
   }
   let spelled = false;
 
-  for (const kind of ["hold", "thaw", "warmup", "size"] as const) {
+  it("every planner in the registry has fuzz inputs", () => {
+    expect(Object.keys(calcBases).sort()).toEqual([...PLANNER_KINDS].sort());
+  });
+
+  it("saved plans: POST /api/v1/plans, GET|PATCH|DELETE /api/v1/plans/{id}", async () => {
+    if (!spelled) {
+      spelledOut();
+      spelled = true;
+    }
+    const kinds = fc.oneof(fc.constantFrom(...PLANNER_KINDS), fc.constantFrom("constructor", "__proto__", "", "x"));
+    const ids = fc.oneof(fc.constantFrom("1", "2", "0", "-1", "1.5", "1e2", "abc", "%00", "99999999999999999999"), fc.nat({ max: 50 }).map(String));
+    await fc.assert(
+      fc.asyncProperty(
+        fc.constantFrom("save", "get", "rename", "delete"),
+        kinds,
+        fc.oneof(fc.string({ maxLength: 40 }), hostile),
+        ids,
+        headerSets,
+        async (op, kind, name, id, headers) => {
+          const bases = calcBases[kind as keyof typeof calcBases] ?? calcBases.warmup;
+          if (op === "save") await check("calc", "plans", "POST", "/api/v1/plans", JSON.stringify({ kind, name, input: bases[0] }), headers);
+          else if (op === "get") await check("crud", "plan", "GET", `/api/v1/plans/${id}`, undefined, headers);
+          else if (op === "rename") await check("crud", "plan", "PATCH", `/api/v1/plans/${id}`, JSON.stringify({ name }), headers);
+          else await check("crud", "plan", "DELETE", `/api/v1/plans/${id}`, undefined, headers);
+        },
+      ),
+      { seed: SEED, numRuns: RUNS.crud / 3 },
+    );
+  }, 600_000);
+
+  for (const kind of PLANNER_KINDS) {
     it(`calculation: POST /api/v1/${kind}`, async () => {
       if (!spelled) {
         spelledOut();
         spelled = true;
       }
       await fc.assert(
-        fc.asyncProperty(bodies(calcBases[kind]), headerSets, async (body, headers) => {
+        fc.asyncProperty(bodies(calcBases[kind] ?? []), headerSets, async (body, headers) => {
           await check("calc", kind, "POST", `/api/v1/${kind}`, body, headers);
         }),
         { seed: SEED, numRuns: kind === "size" ? RUNS.calc / 3 : RUNS.calc },
