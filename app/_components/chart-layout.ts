@@ -56,16 +56,40 @@ export function drawnLines(lines: ChartLineSpec[]): DrawnLine[] {
   });
 }
 
-/** A band given as two edges in either order, as [low, high]; null when absent or not finite. */
-export function normaliseBand(band: { y1: number; y2: number } | null | undefined): { lo: number; hi: number } | null {
-  if (!band || !Number.isFinite(band.y1) || !Number.isFinite(band.y2)) return null;
-  return { lo: Math.min(band.y1, band.y2), hi: Math.max(band.y1, band.y2) };
+/**
+ * The shaded in-limit band: two edges in either order (`y1`, `y2`), or a `lower` and an `upper` edge
+ * where null means open on that side (only an upper limit: everything below it). Display units.
+ */
+export type ChartBand = { y1: number; y2: number } | { lower: number | null; upper: number | null };
+
+const finiteOrNull = (v: number | null | undefined) => (typeof v === "number" && Number.isFinite(v) ? v : null);
+
+/**
+ * A band's edges as [low, high] whatever order or unit direction they came in; an open side is null.
+ * Null when there is no band or no finite edge at all.
+ */
+export function normaliseBand(band: ChartBand | null | undefined): { lo: number | null; hi: number | null } | null {
+  if (!band) return null;
+  const [a, b] = "y1" in band ? [finiteOrNull(band.y1), finiteOrNull(band.y2)] : [finiteOrNull(band.lower), finiteOrNull(band.upper)];
+  if (a === null && b === null) return null;
+  if ("y1" in band && (a === null || b === null)) return null;
+  if (a !== null && b !== null) return { lo: Math.min(a, b), hi: Math.max(a, b) };
+  return { lo: a, hi: b };
 }
 
-/** A step of 1, 2 or 5 × 10ⁿ near span / 6 (about six ticks). */
-export function niceStep(span: number): number {
+/** The band as drawn on a chart with Y range `domain`: open sides run to the edge; null when out of view. */
+export function bandInDomain(band: ChartBand | null | undefined, domain: [number, number]): { lo: number; hi: number } | null {
+  const b = normaliseBand(band);
+  if (!b) return null;
+  const lo = Math.max(b.lo ?? domain[0], domain[0]);
+  const hi = Math.min(b.hi ?? domain[1], domain[1]);
+  return hi > lo ? { lo, hi } : null;
+}
+
+/** A step of 1, 2 or 5 × 10ⁿ near span / count (about `count` ticks). */
+export function niceStep(span: number, count = 6): number {
   if (!(span > 0) || !Number.isFinite(span)) return 1;
-  const raw = span / 6;
+  const raw = span / count;
   const p = Math.pow(10, Math.floor(Math.log10(raw)));
   const f = raw / p;
   return (f <= 1 ? 1 : f <= 2 ? 2 : f <= 5 ? 5 : 10) * p;
@@ -77,7 +101,7 @@ export function niceStep(span: number): number {
  * limit line is always in view, however far it is from the curves. Never NaN: with nothing finite to
  * show it is [0, 1].
  */
-export function yDomain(opts: { values: Iterable<number>; limits?: number[]; band?: { y1: number; y2: number } | null; padFraction?: number; minPad?: number }): [number, number] {
+export function yDomain(opts: { values: Iterable<number>; limits?: number[]; band?: ChartBand | null; padFraction?: number; minPad?: number }): [number, number] {
   let lo = Infinity;
   let hi = -Infinity;
   const take = (v: number) => {
@@ -89,15 +113,26 @@ export function yDomain(opts: { values: Iterable<number>; limits?: number[]; ban
   for (const v of opts.limits ?? []) take(v);
   const b = normaliseBand(opts.band);
   if (b) {
-    take(b.lo);
-    take(b.hi);
+    if (b.lo !== null) take(b.lo);
+    if (b.hi !== null) take(b.hi);
   }
   if (lo === Infinity) return [0, 1];
   const span = hi - lo;
   const pad = Math.max(span * (opts.padFraction ?? 0.06), opts.minPad ?? 0.5);
-  const step = niceStep(span + 2 * pad);
+  // Rounded out to a step finer than the ticks' (about ten across), so little empty space is added.
+  const step = niceStep(span + 2 * pad, 10);
   const round = (v: number) => Number(v.toPrecision(12));
   return [round(Math.floor((lo - pad) / step) * step), round(Math.ceil((hi + pad) / step) * step)];
+}
+
+/** About six ticks between lo and hi at a nice step (1, 2 or 5 × 10ⁿ). */
+export function axisTicks(domain: [number, number]): number[] {
+  const [lo, hi] = domain;
+  if (!(hi > lo)) return [lo];
+  const step = niceStep(hi - lo);
+  const out: number[] = [];
+  for (let v = Math.ceil(lo / step - 1e-9) * step; v <= hi + step * 1e-9 && out.length < 50; v += step) out.push(Number(v.toPrecision(12)));
+  return out;
 }
 
 /** [first, last] time of the data (hours), or [0, 1] without data; a single instant gets a width of 1. */
