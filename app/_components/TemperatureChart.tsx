@@ -29,6 +29,9 @@ const CHAR_PX = 5.6;
 const MUTED = "#5d686e";
 const LIMIT = "#a3231b";
 
+/** Room for the plot plus the legend below it (about two entries a row on a planner's results column). */
+const defaultHeight = (lines: number) => 300 + 18 * Math.ceil(lines / 2);
+
 /** Segment labels in a band above the plot, each starting at its marker, in rows so none overlaps. */
 function MarkerLabels({ markers }: { markers: ChartMarker[] }) {
   const plot = usePlotArea();
@@ -110,7 +113,7 @@ function TimeChart(p: TimeChartProps) {
       <ResponsiveContainer>
         <LineChart data={p.data} margin={{ top: hasSegmentLabels ? LABEL_ROWS * ROW_PX + 8 : 10, right: 24, bottom: 22, left: 8 }}>
           <CartesianGrid stroke="#e3e6e8" />
-          <XAxis dataKey="t_h" type="number" domain={x} allowDataOverflow tickFormatter={fmt} label={{ value: p.xTitle, position: "insideBottom", offset: -14, fill: MUTED }} />
+          <XAxis dataKey="t_h" type="number" domain={x} ticks={axisTicks(x)} allowDataOverflow tickFormatter={fmt} label={{ value: p.xTitle, position: "insideBottom", offset: -14, fill: MUTED }} />
           <YAxis
             width={66}
             domain={p.yDomain}
@@ -120,7 +123,7 @@ function TimeChart(p: TimeChartProps) {
             label={{ value: p.yTitle, angle: -90, position: "insideLeft", offset: 4, fill: MUTED, style: { textAnchor: "middle" } }}
           />
           <Tooltip formatter={(v) => `${Number(Number(v).toFixed(2))}${p.valueSuffix}`} labelFormatter={(v) => `${Number(Number(v).toFixed(2))} h`} />
-          <Legend verticalAlign="bottom" wrapperStyle={{ paddingTop: 14 }} />
+          <Legend verticalAlign="bottom" iconSize={18} wrapperStyle={{ paddingTop: 14, fontSize: 12, lineHeight: "16px" }} />
           {band ? <ReferenceArea y1={band.lo} y2={band.hi} fill="#7fb08a" fillOpacity={0.14} stroke="none" ifOverflow="hidden" /> : null}
           {markers.map((m, i) => (
             <ReferenceLine key={`${m.kind}-${i}`} x={m.x} stroke={m.kind === "segment" ? "#9aa3a8" : "#c9a227"} strokeDasharray={m.kind === "segment" ? "2 4" : "1 2"} />
@@ -183,7 +186,7 @@ export function TemperatureChart(props: {
       yTicks={axisTicks(domain)}
       yTitle={props.yTitle ?? yAxisTitle(props.unit)}
       valueSuffix={` ${props.unit}`}
-      height={props.height ?? 340}
+      height={props.height ?? defaultHeight(props.lines.length)}
       band={props.band}
       markers={props.markers}
       testId={props.testId ?? "temperature-chart"}
