@@ -1,6 +1,7 @@
 /**
- * The app's own not-found page, its loading page in the way of nothing, and the icon: an unknown address
- * and a missing template or plan answer 404 with the not-found page and a link home; /favicon.ico is the icon.
+ * The app's own not-found page and icon: an unknown address and a missing template or plan answer 404 with
+ * the not-found page and a link home (a loading page in the wrong segment would turn that 404 into a 200);
+ * /favicon.ico is the icon.
  */
 import { describe, it } from "node:test";
 import assert from "node:assert/strict";
