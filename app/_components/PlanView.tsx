@@ -1,30 +1,29 @@
 "use client";
 import type { ChartSpec, PlanView as View } from "@/lib/planners/types";
-import { TemperatureChart } from "./TemperatureChart";
+import { PackStateChart, TemperatureChart } from "./TemperatureChart";
 import { CautionBlock } from "./CautionBlock";
 import { ComplianceList, FactList } from "./ResultParts";
 
-/** A chart of a result, as its planner's view describes it. */
-export function ChartFromSpec({ spec, height }: { spec: ChartSpec; height?: number }) {
-  const finite = spec.data.flatMap((d) => spec.lines.map((l) => d[l.key]).filter((v): v is number => Number.isFinite(v)));
-  const lo = Math.min(...finite, ...spec.limits.map((l) => l.y));
-  const hi = Math.max(...finite, ...spec.limits.map((l) => l.y));
-  const band = spec.band ? { y1: Number.isFinite(spec.band.y1) ? spec.band.y1 : lo - 1, y2: Number.isFinite(spec.band.y2) ? spec.band.y2 : hi + 1 } : null;
+/** A chart of a result, as its planner's view describes it: pack state on its fixed 0–100 % axis, else temperatures. */
+export function ChartFromSpec({ spec }: { spec: ChartSpec }) {
+  const edge = (v: number | undefined) => (v !== undefined && Number.isFinite(v) ? v : null);
   return (
     <figure className="chart-figure">
       <figcaption>{spec.title}</figcaption>
-      <TemperatureChart
-        testId={spec.testId}
-        data={spec.data}
-        lines={spec.lines}
-        limits={spec.limits}
-        unit={spec.unit}
-        yTitle={spec.yTitle}
-        yDomain={spec.yDomain}
-        band={band}
-        markers={spec.markers}
-        height={height ?? (spec.yDomain ? 220 : 340)}
-      />
+      {spec.packState ? (
+        <PackStateChart testId={spec.testId} data={spec.data} lines={spec.lines} measure={spec.packState} markers={spec.markers} />
+      ) : (
+        <TemperatureChart
+          testId={spec.testId}
+          data={spec.data}
+          lines={spec.lines}
+          limits={spec.limits}
+          unit={spec.unit}
+          yTitle={spec.yTitle}
+          band={spec.band ? { lower: edge(Math.min(spec.band.y1, spec.band.y2)), upper: edge(Math.max(spec.band.y1, spec.band.y2)) } : null}
+          markers={spec.markers}
+        />
+      )}
     </figure>
   );
 }

@@ -84,7 +84,7 @@ export const holdPlanner: PlannerEntry<typeof holdInputSchema, HoldResult> = {
         title: "Coolant used",
         yTitle: "pack used (%)",
         unit: "%",
-        yDomain: [0, 100],
+        packState: "used",
         data,
         limits: [],
         lines: input.packs.map((x, j) => ({ key: `l${j}`, label: `${x.pack.name} × ${x.count}`, color: PALETTE[(j + 2) % PALETTE.length] })),

@@ -32,8 +32,8 @@ export interface ChartSpec {
   /** The y-axis title, with its unit: "temperature (°F)", "pack used (%)". */
   yTitle: string;
   unit: string;
-  /** Fixed y domain (pack state 0–100 %); otherwise data, limits and band decide. */
-  yDomain?: [number, number];
+  /** A chart of pack state on a fixed 0–100 % axis, of latent heat used or left; otherwise temperatures, whose range data, limits and band decide. */
+  packState?: "used" | "left";
   data: Record<string, number>[];
   lines: { key: string; label: string; color: string; dashed?: boolean }[];
   limits: { y: number; label: string }[];
