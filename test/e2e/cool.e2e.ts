@@ -41,13 +41,13 @@ describe("cooling planner in the browser", () => {
     await fullAnswer(page);
 
     // The ice paddle is not modelled: a message tied to the field says why, and nothing is computed.
-    await page.getByLabel("Method").selectOption("ice_paddle");
+    await page.getByLabel("Method", { exact: true }).selectOption("ice_paddle");
     const msg = page.locator("#method-kind-msg");
     await msg.waitFor();
     assert.match(await msg.innerText(), /no published heat-transfer correlation/);
-    assert.equal(await page.getByLabel("Method").getAttribute("aria-describedby"), "method-kind-msg");
+    assert.equal(await page.getByLabel("Method", { exact: true }).getAttribute("aria-describedby"), "method-kind-msg");
     await page.getByTestId("cool-errors").waitFor();
-    await page.getByLabel("Method").selectOption("walk_in");
+    await page.getByLabel("Method", { exact: true }).selectOption("walk_in");
     await fullAnswer(page);
 
     // The CSV has the slowest point, top and base in the user's units.
