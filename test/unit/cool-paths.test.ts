@@ -133,7 +133,7 @@ describe("POST /api/v1/cool", () => {
     db = t.db;
     dispose = t.dispose;
     process.env.DATABASE_URL = t.dbPath;
-  });
+  }, 60_000);
   afterAll(async () => {
     if (saved === undefined) delete process.env.DATABASE_URL;
     else process.env.DATABASE_URL = saved;
