@@ -12,6 +12,7 @@ export const DATABASE_TESTS = [
   "test/unit/ruleset-fields.test.ts",
   "test/unit/cli-library-db.test.ts",
   "test/unit/schema-drift.pg.test.ts",
+  "test/unit/cool-paths.test.ts",
 ];
 
 if (!process.env.HOLDLINE_TEST_PG_URL) throw new Error("vitest.pg.config.ts needs HOLDLINE_TEST_PG_URL: run `npm run test:pg`");

@@ -83,6 +83,9 @@ for (const [name, start, air, limit] of cases) {
   }, 15, 3);
   console.log(`  ${product.name}: ${method}, median ${median(ts).toFixed(2)} ms`);
 }
+// The cooling planner: one plan, the depth search, every method side by side (scripts/bench-cool.ts).
+console.log("");
+await import("./bench-cool");
 // 4. Hold planner: a 48-hour route with 6 segments, one box, 4 pack lines and 3 product lines.
 const D = DEMO_SCENARIO;
 const find = <T extends { name: string }>(xs: T[], start: string) => xs.find((x) => x.name.startsWith(start))!;

@@ -67,10 +67,10 @@ export function NamedSelect<T extends { name: string } | Material>(props: { id: 
   );
 }
 
-/** A field's error message, beside the field. */
-export function FieldMessage({ msg }: { msg?: string }) {
+/** A field's error message, beside the field; give it an `id` and point the field's aria-describedby at it. */
+export function FieldMessage({ msg, id }: { msg?: string; id?: string }) {
   return msg ? (
-    <p className="field-error" role="alert">
+    <p className="field-error" role="alert" id={id}>
       {msg}
     </p>
   ) : null;

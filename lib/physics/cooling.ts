@@ -167,8 +167,12 @@ function prepare(inp: CoolParsed, method: RunnableMethod): Prepared {
   const alpha = k / (food.rho_kg_m3 * food.c_J_kgK(Tm));
   const scratch: string[] = [];
 
-  const evaporationFlux = (hc: (Ts: number) => number, fraction: number) => (_t: number, Ts: number) => {
-    const e = evaporation(hc(Ts), Ts, air.T_C, air.rh, 1, scratch);
+  // The evaporation takes the very coefficient the convection uses (held while the surface moves less than
+  // 0.25 K): a coefficient evaluated afresh at every Newton iterate jumps where the surface crosses the air
+  // temperature (the natural-convection correlation changes from a warm to a cold face there), and the
+  // evaporation heat with it, which left the surface balance without a root (an ice bath under 3 °C air).
+  const evaporationFlux = (h: (t: number, Ts: number) => number, fraction: number) => (t: number, Ts: number) => {
+    const e = evaporation(h(t, Ts) / fraction, Ts, air.T_C, air.rh, 1, scratch);
     return { q_W_m2: -fraction * e.heat_W_m2, dq_dT_W_m2K: -fraction * e.slope_W_m2K };
   };
 
@@ -183,7 +187,10 @@ function prepare(inp: CoolParsed, method: RunnableMethod): Prepared {
     const top: Faces["top"] =
       o.topH_W_m2K !== null
         ? { kind: "convective", h_W_m2K: () => o.topH_W_m2K! * open, fluid_C: () => air.T_C }
-        : { kind: "convective", h_W_m2K: following((Ts) => open * hc(Ts)), fluid_C: () => air.T_C, emissivity: open * eps, radiant_C: () => air.T_C, surfaceFlux: evaporationFlux(hc, open) };
+        : (() => {
+            const h = following((Ts) => open * hc(Ts));
+            return { kind: "convective" as const, h_W_m2K: h, fluid_C: () => air.T_C, emissivity: open * eps, radiant_C: () => air.T_C, surfaceFlux: evaporationFlux(h, open) };
+          })();
     assumptions.push(
       `A whole piece: ${oneD.note ?? `the ${oneD.shape} stand-in for its shape`}; its slowest point is the centre`,
       o.topH_W_m2K !== null
@@ -245,7 +252,8 @@ function prepare(inp: CoolParsed, method: RunnableMethod): Prepared {
     let topConvection: Faces["topConvection"] = null;
     if (o.topH_W_m2K !== null) top = { kind: "convective", h_W_m2K: () => o.topH_W_m2K!, fluid_C: () => air.T_C };
     else if (!s.lid) {
-      top = { kind: "convective", h_W_m2K: following(hcTop), fluid_C: () => air.T_C, emissivity: eps, radiant_C: () => air.T_C, surfaceFlux: evaporationFlux(hcTop, 1) };
+      const h = following(hcTop);
+      top = { kind: "convective", h_W_m2K: h, fluid_C: () => air.T_C, emissivity: eps, radiant_C: () => air.T_C, surfaceFlux: evaporationFlux(h, 1) };
       topConvection = hcTop;
     } else {
       const gap = s.height_m - depth;

@@ -8,6 +8,7 @@ import { holdPlanner } from "./hold";
 import { thawPlanner } from "./thaw";
 import { warmupPlanner } from "./warmup";
 import { sizePlanner } from "./size";
+import { coolPlanner } from "./cool";
 
 /** In the order the pages list them. */
 export const PLANNERS = {
@@ -15,6 +16,7 @@ export const PLANNERS = {
   size: sizePlanner,
   thaw: thawPlanner,
   warmup: warmupPlanner,
+  cool: coolPlanner,
 } as const;
 
 export type PlannerKind = keyof typeof PLANNERS;

@@ -4,6 +4,7 @@ import { warmupInputSchema } from "./warmup";
 import { holdInputSchema } from "./hold";
 import { thawInputSchema } from "./thaw";
 import { sizeInputSchema } from "./size";
+import { coolInputSchema } from "./cool";
 import { calibrateInputSchema } from "./calibrate";
 
 /** Inputs whose JSON Schema `holdline schema <name>` and /api/v1/schema/<name> print. */
@@ -20,6 +21,7 @@ export const NAMED_SCHEMAS: Record<string, z.ZodType> = {
   hold: holdInputSchema,
   thaw: thawInputSchema,
   size: sizeInputSchema,
+  cool: coolInputSchema,
   calibrate: calibrateInputSchema,
 };
 

@@ -132,3 +132,78 @@ describe("published guidance on cooling cooked food (no measured cooling curves 
     console.log(`DH 1989 guideline 90 min to 3 °C for a 50 mm layer; model: ${(t3 / 60).toFixed(0)} min (${(t3 / 5400).toFixed(1)} ×)`);
   });
 });
+
+describe("published observations of food cooling in containers", () => {
+  /** Time for the slowest point to fall from the start to T (linear between the series points), s. */
+  const timeTo = (r: ReturnType<typeof runCool>, T: number) => {
+    const s = r.series;
+    const i = s.findIndex((p) => p.slowest_C <= T);
+    if (i <= 0) return Infinity;
+    const a = s[i - 1];
+    const b = s[i];
+    return a.t_s + ((a.slowest_C - T) / (a.slowest_C - b.slowest_C)) * (b.t_s - a.t_s);
+  };
+  const layer = (depth: number, over: Partial<CoolInput> = {}): CoolInput => ({
+    product: rice,
+    start_C: 74,
+    setup: { kind: "pan", size: "2/1", height_m: 0.2, depth_m: depth },
+    method: { kind: "walk_in" },
+    ruleSet: fda,
+    horizon_s: 30 * 3600,
+    compare: false,
+    searchDepth: false,
+    ...over,
+  });
+
+  it("Dickerson & Read, 'Cooling rates of foods', J. Milk Food Technol. (FDA Cincinnati; 1973, year from memory): with little surface resistance, doubling the shortest dimension takes four times as long", () => {
+    // Their statement holds exactly in the limit of a large Biot number (the heat equation is unchanged by
+    // x → 2x, t → 4t), also with properties that vary with temperature. Both faces at 5000 W/(m²·K): Bi ≈ 250.
+    const stiff = { overrides: { topH_W_m2K: 5000, bottomH_W_m2K: 5000 } };
+    const ratio = timeTo(runCool(layer(0.08, stiff)), 21) / timeTo(runCool(layer(0.04, stiff)), 21);
+    // Band: Bi = 250 rather than ∞ and the solver's error give a few per cent (stated before running: 4 ± 3 %).
+    expect(Math.abs(ratio / 4 - 1)).toBeLessThan(0.03);
+    // With the real surfaces the ratio falls between the lumped limit (2) and theirs (4): nearer 4 on an
+    // ice-water bath (water under the pan) than in refrigerator air.
+    const air = timeTo(runCool(layer(0.08)), 21) / timeTo(runCool(layer(0.04)), 21);
+    const bath = timeTo(runCool(layer(0.08, { method: { kind: "ice_bath", air_C: 3, relativeHumidity: 0.85 } })), 21) / timeTo(runCool(layer(0.04, { method: { kind: "ice_bath", air_C: 3, relativeHumidity: 0.85 } })), 21);
+    for (const r of [air, bath]) {
+      expect(r).toBeGreaterThan(2);
+      expect(r).toBeLessThanOrEqual(4.05);
+    }
+    expect(bath).toBeGreaterThan(air);
+    console.log(`Dickerson & Read depth scaling: ×${ratio.toFixed(2)} (Bi ≈ 250), ×${bath.toFixed(2)} ice bath, ×${air.toFixed(2)} walk-in air, for 40 → 80 mm`);
+  });
+
+  it("Dickerson & Read: an 8-gal (30 L) container of white sauce took 25 h from 105 °F to 57 °F (40.6 → 13.9 °C) in a refrigerator; the model of an unstirred pot of that size is of that order", () => {
+    // The abstract gives neither the container's shape nor the refrigerator's air. Our assumptions: a
+    // stockpot as tall as it is wide (0.34 m × 0.34 m, 31 L) on a rack in still refrigerator air at 4 °C
+    // (40 °F), modelled as a whole piece (the thin metal wall neglected). White sauce: USDA SR "sauce, white,
+    // medium" composition (from memory). A viscous sauce has little convection inside, so conduction is
+    // the right model. Band stated before running: within a factor of 2.5 of 25 h (the geometry and the
+    // air are guesses; evaporation from an open pot would speed it, a lid or a crowded shelf slow it).
+    const sauce = {
+      ...rice,
+      name: "White sauce, 31 L pot",
+      category: "Sauce",
+      shape: "cylinder" as const,
+      dimA_m: 0.34,
+      dimB_m: 0.34,
+      dimC_m: null,
+      mass_kg: 31,
+      composition: { water: 0.74, protein: 0.04, fat: 0.107, carbohydrate: 0.092, fibre: 0.001, ash: 0.02 },
+    };
+    const r = runCool({ product: sauce, start_C: 40.6, setup: { kind: "piece" }, method: { kind: "walk_in", air_C: 4, speed_m_s: 0, relativeHumidity: 0.85, support: "rack" }, ruleSet: fda, horizon_s: 48 * 3600, compare: false, searchDepth: false });
+    const t = timeTo(r, 13.9) / 3600;
+    expect(t).toBeGreaterThan(25 / 2.5);
+    expect(t).toBeLessThan(25 * 2.5);
+    console.log(`Dickerson & Read white sauce: 25 h measured, ${t.toFixed(1)} h modelled (assumed pot and air)`);
+  });
+
+  it("Cook/chill in a school system, J. Food Prot. 40(11):782 (1977): entrées in walk-in refrigerators could not be chilled to 7 °C within 4 h; nor can the demo rice 50 mm or deeper in our walk-in", () => {
+    // Pan depths of the entrées are not in the abstract; 50 and 65 mm are the usual steam-table fills (common practice).
+    for (const d of [0.05, 0.065]) {
+      const t = timeTo(runCool({ ...layer(d), setup: { kind: "pan", size: "1/1", height_m: 0.065, depth_m: d } }), 7);
+      expect(t).toBeGreaterThan(4 * 3600);
+    }
+  });
+});

@@ -27,6 +27,7 @@ const PROMISED: Record<string, string[]> = {
   hold: ["holdTime_s", "margin_s", "failsFirst", "band", "heatGain_J", "energyBalanceError", "warnings", "assumptions", "series"],
   thaw: ["thawTime_s", "surfaceAboveLimit_s", "maxSurface_C", "compliance", "estimates", "startBy", "warnings", "series", "comparison"],
   size: ["candidates", "pareto", "nearMisses"],
+  cool: ["stages", "maxDepth_m", "comparison", "warnings", "assumptions", "series"],
 };
 
 describe("README command-line section, run as typed", () => {
@@ -110,6 +111,9 @@ describe("README command-line section, run as typed", () => {
     expect(warm.timeToLimit_s.center).toBeGreaterThan(0);
     const size = answer(/holdline size public/);
     expect(size.candidates.length).toBeGreaterThan(1);
+    const cool = answer(/holdline cool public/);
+    expect(cool.stages.map((x: { reached_s: number | null }) => x.reached_s).every((t: number | null) => t !== null && t > 600)).toBe(true);
+    expect(cool.maxDepth_m).toBeGreaterThan(0.005);
   });
 
   it("plans lists the saved plan; plans show --json writes an input the planner reruns to the same answer", () => {
@@ -125,6 +129,6 @@ describe("README command-line section, run as typed", () => {
     const inline = (lead: string) => JSON.parse(section.slice(section.indexOf(lead)).match(/`(\{.*?\})`/)![1]);
     expect(inline("A thaw input:")).toEqual(example("thaw.json"));
     expect(inline("A sizing input")).toEqual(example("size.json"));
-    for (const f of ["warmup", "hold", "thaw", "size", "import"]) expect(section).toContain(`(public/examples/${f}.json)`);
+    for (const f of ["warmup", "hold", "thaw", "size", "cool", "import"]) expect(section).toContain(`(public/examples/${f}.json)`);
   });
 });

@@ -136,6 +136,15 @@ describe("cooling planner: directions, through runCool on the demo rice", () => 
   });
 });
 
+describe("cooling planner: a surface that crosses the air temperature", () => {
+  it("an ice-water bath under 3 °C air, 80 mm in a 2/1 pan, runs (the evaporation once took a coefficient that jumped there and the solver found no root)", () => {
+    const r = runCool(base({ setup: { kind: "pan", size: "2/1", height_m: 0.2, depth_m: 0.08 }, method: { kind: "ice_bath", air_C: 3, relativeHumidity: 0.85 }, horizon_s: 30 * 3600 }));
+    expect(stage(r, 1).reached_s).not.toBeNull();
+    expect(Math.min(...r.series.map((p) => p.surface_C))).toBeLessThan(3);
+    expect(r.energyBalanceError).toBeLessThan(1e-6);
+  });
+});
+
 describe("cooling planner: answers", () => {
   it("the deepest layer: at that depth both stages are met, 3 mm deeper one is missed", () => {
     const r = runCool(base({ searchDepth: true }));
