@@ -49,9 +49,10 @@ function shortStage(s: CoolStageResult | undefined, k: Kit): string {
   return `${s.reached_s === null ? "not reached" : k.dur(s.reached_s)} (${verdict(s.meets)})`;
 }
 
-function depthText(r: CoolResult, k: Kit): string {
+function depthText(r: CoolResult, k: Kit, asked: boolean): string {
   const d = r.maxDepth;
-  if (d.limitedBy === "not searched") return d.detail;
+  // Asked for but not in this answer: the quick first answer, the search follows.
+  if (d.limitedBy === "not searched") return asked ? "being worked out…" : d.detail;
   if (r.maxDepth_m === null) return k.text(d.detail);
   return `${k.length(r.maxDepth_m)}${d.limitedBy === "pan" ? " (the whole pan)" : ""}: ${k.text(d.detail)}`;
 }
@@ -99,7 +100,7 @@ export const coolPlanner: PlannerEntry<typeof coolInputSchema, CoolResult> = {
       facts: [
         { label: "Stage 1", testId: "cool-stage-1", value: stageText(s1, k) },
         { label: "Stage 2", testId: "cool-stage-2", value: stageText(s2, k) },
-        { label: pan ? "Deepest layer that meets both stages" : "Deepest layer", testId: "cool-max-depth", value: depthText(r, k) },
+        { label: pan ? "Deepest layer that meets both stages" : "Deepest layer", testId: "cool-max-depth", value: depthText(r, k, input.searchDepth) },
         ...(r.waterEvaporated_kg > 0 ? [{ label: "Water evaporated", testId: "cool-evaporated", value: `${k.mass(r.waterEvaporated_kg)} of ${k.mass(r.mass_kg)}; ${Math.round(r.evaporationShare * 100)} % of the heat lost left by evaporation` }] : []),
       ],
       inputs: [

@@ -197,6 +197,10 @@ describe("API fuzz (fixed seed, bounded)", () => {
     size: [
       { products: [{ product: "Roast chicken thighs, half tray", count: 1, start_C: 2 }], route: "Summer lunch run, Harbour Street", boxes: [{ shipper: "Quillfield thin foam cooler" }], packs: [{ pack: "Gel pack, 600 g", maxCount: 3, conditioning_C: [-18] }] },
     ],
+    cool: [
+      { product: "Steamed rice, full pan", start_C: 74, setup: { kind: "pan", size: "1/1", height_m: 0.065, depth_m: 0.05, material: "stainless", lid: false }, method: { kind: "walk_in", air_C: 3, speed_m_s: 0.5, relativeHumidity: 0.85, support: "rack" } },
+      { product: "Steamed rice, full pan", start_C: 60, setup: { kind: "piece" }, method: { kind: "walk_in", air_C: 3, speed_m_s: 0.5, relativeHumidity: 0.85, support: "shelf" }, searchDepth: false },
+    ],
   };
 
   /** Inputs with templates spelled out (no materials: the API fills them in from the names the box gives). */
