@@ -151,8 +151,8 @@ export function formatQuantity(q: Quantity, si: number | null | undefined, p: Un
 
 const NUM = String.raw`[−-]?\d+(?:\.\d+)?`;
 const TEMP_RE = new RegExp(String.raw`(${NUM})(?:(\s?(?:–|to|and)\s?)(${NUM}))?\s?°C`, "g");
-/** A temperature difference: "±1 K", "0.5 K", never the K of a unit such as W/(m²·K). */
-const DIFF_RE = new RegExp(String.raw`(±?)(\d+(?:\.\d+)?)\s?K(?![\w/)·²])`, "g");
+/** A temperature difference: "±1 K", "0.5 K", "(plus 0.5 K)", never the K of a unit such as W/(m²·K) (no digit before it). */
+const DIFF_RE = new RegExp(String.raw`(±?)(\d+(?:\.\d+)?)\s?K(?![\w/·²])`, "g");
 const MM_RE = new RegExp(String.raw`(\d+(?:\.\d+)?)(?:(\s?(?:–|to|and)\s?)(\d+(?:\.\d+)?))?\s?mm\b`, "g");
 const KG_RE = new RegExp(String.raw`(\d+(?:\.\d+)?)\s?kg\b(?![/·])`, "g");
 const num = (s: string) => Number(s.replace("−", "-"));
