@@ -2,7 +2,7 @@ import { describe, it } from "node:test";
 import assert from "node:assert/strict";
 import { readFileSync } from "node:fs";
 import { browserSuite } from "./harness";
-import { installLatencyProbes, measureLatency, planIdOf, setUnits } from "./planner-checks";
+import { installLatencyProbes, measureLatency, setUnits } from "./planner-checks";
 
 const suite = browserSuite();
 
@@ -46,7 +46,6 @@ describe("hold planner in the browser", () => {
     await page.getByTestId("hold-time").waitFor();
     // The same plan by its address, as the record's link gives it.
     assert.match(page.url(), /\/hold\?plan=\d+$/);
-    assert.equal(planIdOf(`/plans/${new URL(page.url()).searchParams.get("plan")}`), new URL(page.url()).searchParams.get("plan"));
   });
 
   it("downloads the CSV with °F columns after the switch in settings", async () => {
