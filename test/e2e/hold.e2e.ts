@@ -30,8 +30,8 @@ describe("hold planner in the browser", () => {
     await page.getByRole("button", { name: "Download curves (CSV)" }).click();
     const file = await (await download).path();
     const csv = readFileSync(file!, "utf8");
-    assert.match(csv.split("\n")[0], /^t_s,inside_air_C,/);
-    assert.ok(csv.split("\n").length > 20);
+    assert.match(csv.split(/\r?\n/)[0], /^t_s,inside_air_C,/);
+    assert.ok(csv.split(/\r?\n/).length > 20);
 
     await page.getByLabel("Save as a plan").fill("Harbour Street lunch, thick box");
     await page.getByRole("button", { name: "Save plan" }).click();
@@ -57,7 +57,7 @@ describe("hold planner in the browser", () => {
       assert.equal(await page.getByLabel("Packed at").first().inputValue(), "35.6");
       const download = page.waitForEvent("download");
       await page.getByRole("button", { name: "Download curves (CSV)" }).click();
-      const head = readFileSync((await (await download).path())!, "utf8").split("\n")[0];
+      const head = readFileSync((await (await download).path())!, "utf8").split(/\r?\n/)[0];
       assert.match(head, /^t_s,inside_air_F,inside_air_lower_F,inside_air_upper_F,/);
       assert.doesNotMatch(head, /_C(,|$)/);
       // A bad count: its message is tied to the field, not announced on every keystroke.

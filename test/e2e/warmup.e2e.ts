@@ -62,7 +62,7 @@ describe("warm-up / cool-down check in the browser", () => {
       const download = page.waitForEvent("download");
       await page.getByRole("button", { name: "Download curves (CSV)" }).click();
       const csv = readFileSync((await (await download).path())!, "utf8");
-      assert.match(csv.split("\n")[0], /^t_s,center_F,surface_F,mid_face_F,mean_F$/);
+      assert.match(csv.split(/\r?\n/)[0], /^t_s,center_F,surface_F,mid_face_F,mean_F$/);
       await page.getByLabel("Starting temperature").fill("-500");
       await page.locator("#start_C-error").getByText(/−459\.7 °F/).waitFor();
       assert.equal(await page.getByLabel("Starting temperature").getAttribute("aria-describedby"), "start_C-error");
