@@ -20,6 +20,7 @@ export const DEFAULT_UNIT_PREFS: UnitPrefs = { temperatureUnit: "C", massUnit: "
 /** What a number measures; decides how it is shown. SI storage unit in brackets. */
 export type Quantity =
   | "temperature" // [°C]
+  | "temperatureDifference" // [K], shown in K or °F (a difference: no offset)
   | "mass" // [kg]
   | "length" // [m]
   | "duration" // [s], shown in h
@@ -45,6 +46,8 @@ export function unitLabel(q: Quantity, p: UnitPrefs): string {
   switch (q) {
     case "temperature":
       return p.temperatureUnit === "C" ? "°C" : "°F";
+    case "temperatureDifference":
+      return p.temperatureUnit === "C" ? "K" : "°F";
     case "mass":
       return p.massUnit;
     case "length":
@@ -87,6 +90,8 @@ export function toDisplay(q: Quantity, si: number, p: UnitPrefs): number {
   switch (q) {
     case "temperature":
       return p.temperatureUnit === "C" ? si : (si * 9) / 5 + 32;
+    case "temperatureDifference":
+      return p.temperatureUnit === "C" ? si : (si * 9) / 5;
     case "mass":
       return p.massUnit === "kg" ? si : si / LB_KG;
     case "length":
@@ -110,6 +115,8 @@ export function fromDisplay(q: Quantity, shown: number, p: UnitPrefs): number {
   switch (q) {
     case "temperature":
       return p.temperatureUnit === "C" ? shown : ((shown - 32) * 5) / 9;
+    case "temperatureDifference":
+      return p.temperatureUnit === "C" ? shown : (shown * 5) / 9;
     case "mass":
       return p.massUnit === "kg" ? shown : shown * LB_KG;
     case "length":
@@ -144,8 +151,8 @@ export function formatQuantity(q: Quantity, si: number | null | undefined, p: Un
 
 const NUM = String.raw`[−-]?\d+(?:\.\d+)?`;
 const TEMP_RE = new RegExp(String.raw`(${NUM})(?:(\s?(?:–|to|and)\s?)(${NUM}))?\s?°C`, "g");
-/** A temperature difference: "±1 K", "0.5 K", never the K of a unit such as W/(m²·K). */
-const DIFF_RE = new RegExp(String.raw`(±?)(\d+(?:\.\d+)?)\s?K(?![\w/)·²])`, "g");
+/** A temperature difference: "±1 K", "0.5 K", "(plus 0.5 K)", never the K of a unit such as W/(m²·K) (no digit before it). */
+const DIFF_RE = new RegExp(String.raw`(±?)(\d+(?:\.\d+)?)\s?K(?![\w/·²])`, "g");
 const MM_RE = new RegExp(String.raw`(\d+(?:\.\d+)?)(?:(\s?(?:–|to|and)\s?)(\d+(?:\.\d+)?))?\s?mm\b`, "g");
 const KG_RE = new RegExp(String.raw`(\d+(?:\.\d+)?)\s?kg\b(?![/·])`, "g");
 const num = (s: string) => Number(s.replace("−", "-"));

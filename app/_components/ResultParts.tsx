@@ -1,15 +1,22 @@
 "use client";
 import type { Material } from "@/lib/schemas/templates";
 import type { ComplianceLine } from "@/lib/physics/compliance";
+import { localizeText } from "@/lib/units";
+import { useUnits } from "./units-context";
 
-/** The banner shown instead of a result while the inputs have problems. */
+/**
+ * The banner shown instead of a result while the inputs have problems: the one polite summary (each field's
+ * own message sits beside it, tied by aria-describedby, and is not announced on every keystroke). The
+ * schemas speak SI ("below −273.15 °C"); the banner speaks the person's units.
+ */
 export function NoResult({ fieldErrors, testId }: { fieldErrors: Record<string, string[]>; testId?: string }) {
+  const units = useUnits();
   return (
-    <div className="banner error" role="alert" data-testid={testId}>
+    <div className="banner error" role="status" aria-live="polite" data-testid={testId}>
       <p>No result until these are fixed:</p>
       <ul>
         {Object.entries(fieldErrors).map(([k, v]) => (
-          <li key={k}>{v.join("; ")}</li>
+          <li key={k}>{localizeText(v.join("; "), units)}</li>
         ))}
       </ul>
     </div>
@@ -67,14 +74,22 @@ export function NamedSelect<T extends { name: string } | Material>(props: { id: 
   );
 }
 
-/** A field's error message, beside the field; give it an `id` and point the field's aria-describedby at it. */
+/**
+ * A field's error message, beside the field, in the person's units. Give it an `id` and point the input's
+ * aria-describedby at it (with aria-invalid): screen readers read it with the field instead of announcing
+ * it on every keystroke.
+ */
 export function FieldMessage({ msg, id }: { msg?: string; id?: string }) {
+  const units = useUnits();
   return msg ? (
-    <p className="field-error" role="alert" id={id}>
-      {msg}
+    <p className="field-error" id={id}>
+      {localizeText(msg, units)}
     </p>
   ) : null;
 }
+
+/** The id of a field's message, for aria-describedby: "start_C-error". */
+export const errorId = (fieldId: string) => `${fieldId}-error`;
 
 /** "Saved — open the saved plan" after a plan was stored. */
 export function SavedNotice({ id }: { id: number | null }) {

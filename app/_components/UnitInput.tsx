@@ -24,7 +24,8 @@ export function UnitInput(props: {
   // Follow the form when it changes the value from outside (reset, duplicate): adjust the text while
   // rendering when the value differs from the one last seen, as React recommends instead of an effect.
   const [seen, setSeen] = useState(props.value);
-  if (props.value !== seen) {
+  // Object.is: an emptied box is NaN, and NaN !== NaN would set the state on every render (React error 301).
+  if (!Object.is(props.value, seen)) {
     setSeen(props.value);
     const current = text.trim() === "" ? null : fromDisplay(props.quantity, Number(text), prefs);
     const v = props.value ?? null;

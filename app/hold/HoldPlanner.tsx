@@ -5,7 +5,7 @@ import { DEFAULT_CONTACT_W_M2K, holdInputSchema, PLACEMENTS, type HoldInput, typ
 import type { Material, Pack, Product, Route, RuleSet, Shipper } from "@/lib/schemas/templates";
 import { holdPlanner } from "@/lib/planners/hold";
 import { UnitInput } from "@/app/_components/UnitInput";
-import { NamedSelect, FieldMessage } from "@/app/_components/ResultParts";
+import { NamedSelect, FieldMessage, errorId } from "@/app/_components/ResultParts";
 import { usePlanner } from "@/app/_components/usePlanner";
 import { PlannerOutcome } from "@/app/_components/PlannerOutcome";
 import { PlanActions } from "@/app/_components/PlanActions";
@@ -72,13 +72,13 @@ export function HoldPlanner(props: HoldPlannerProps) {
               <div className="inline">
                 <div className="field">
                   <label htmlFor={`pc-${i}`}>How many</label>
-                  <input id={`pc-${i}`} type="number" min={1} step={1} {...register(`products.${i}.count`, { valueAsNumber: true })} />
-                  <FieldMessage msg={e.products?.[i]?.count?.message} />
+                  <input id={`pc-${i}`} type="number" min={1} step={1} aria-invalid={!!e.products?.[i]?.count || undefined} aria-describedby={e.products?.[i]?.count ? errorId(`pc-${i}`) : undefined} {...register(`products.${i}.count`, { valueAsNumber: true })} />
+                  <FieldMessage id={errorId(`pc-${i}`)} msg={e.products?.[i]?.count?.message} />
                 </div>
                 <div className="field">
                   <label htmlFor={`pt-${i}`}>Packed at</label>
-                  <Controller control={control} name={`products.${i}.start_C`} render={({ field }) => <UnitInput id={`pt-${i}`} quantity="temperature" value={field.value as number} onChange={field.onChange} invalid={!!e.products?.[i]?.start_C} />} />
-                  <FieldMessage msg={e.products?.[i]?.start_C?.message} />
+                  <Controller control={control} name={`products.${i}.start_C`} render={({ field }) => <UnitInput id={`pt-${i}`} quantity="temperature" value={field.value as number} onChange={field.onChange} invalid={!!e.products?.[i]?.start_C} describedBy={e.products?.[i]?.start_C ? errorId(`pt-${i}`) : undefined} />} />
+                  <FieldMessage id={errorId(`pt-${i}`)} msg={e.products?.[i]?.start_C?.message} />
                 </div>
                 <button type="button" className="secondary" onClick={() => productLines.remove(i)} aria-label={`Remove product ${i + 1}`}>
                   Remove
@@ -121,13 +121,13 @@ export function HoldPlanner(props: HoldPlannerProps) {
               <div className="inline">
                 <div className="field">
                   <label htmlFor={`kc-${i}`}>How many</label>
-                  <input id={`kc-${i}`} type="number" min={1} step={1} {...register(`packs.${i}.count`, { valueAsNumber: true })} />
-                  <FieldMessage msg={e.packs?.[i]?.count?.message} />
+                  <input id={`kc-${i}`} type="number" min={1} step={1} aria-invalid={!!e.packs?.[i]?.count || undefined} aria-describedby={e.packs?.[i]?.count ? errorId(`kc-${i}`) : undefined} {...register(`packs.${i}.count`, { valueAsNumber: true })} />
+                  <FieldMessage id={errorId(`kc-${i}`)} msg={e.packs?.[i]?.count?.message} />
                 </div>
                 <div className="field">
                   <label htmlFor={`kt-${i}`}>Conditioned at</label>
-                  <Controller control={control} name={`packs.${i}.conditioning_C`} render={({ field }) => <UnitInput id={`kt-${i}`} quantity="temperature" value={field.value as number} onChange={field.onChange} />} />
-                  <FieldMessage msg={e.packs?.[i]?.conditioning_C?.message} />
+                  <Controller control={control} name={`packs.${i}.conditioning_C`} render={({ field }) => <UnitInput id={`kt-${i}`} quantity="temperature" value={field.value as number} onChange={field.onChange} invalid={!!e.packs?.[i]?.conditioning_C} describedBy={e.packs?.[i]?.conditioning_C ? errorId(`kt-${i}`) : undefined} />} />
+                  <FieldMessage id={errorId(`kt-${i}`)} msg={e.packs?.[i]?.conditioning_C?.message} />
                 </div>
               </div>
               <div className="inline">

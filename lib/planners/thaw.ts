@@ -78,7 +78,7 @@ export const thawPlanner: PlannerEntry<typeof thawInputSchema, ThawResult> = {
           ]
         : [],
       compliance: { title: "Against the rule set", lines: k.lines(r.compliance) },
-      assumptions: k.texts([...r.assumptions, ...r.notes, ...r.advice, `Energy balance closes to ${r.energyBalanceError.toExponential(1)} of the heat stored`]),
+      assumptions: k.texts([...r.assumptions, ...r.notes, `Energy balance closes to ${r.energyBalanceError.toExponential(1)} of the heat stored`]),
       warnings: k.texts(r.warnings),
       signOff: {
         title: "Thawing record",
@@ -89,7 +89,8 @@ export const thawPlanner: PlannerEntry<typeof thawInputSchema, ThawResult> = {
           SIGNATURE_LINE,
         ],
       },
-      cautions: { dryIce: false, extra: [] },
+      // What to do once thawed (cook or refrigerate, refreezing) belongs with the cautions, not the assumptions.
+      cautions: { dryIce: false, extra: k.texts(r.advice) },
     };
   },
   csv: (_input, r, u) => r.series.map((p) => ({ t_s: Math.round(p.t_s), [tCol("center", u)]: csvT(p.center_C, u), [tCol("surface", u)]: csvT(p.surface_C, u) })),

@@ -2,6 +2,7 @@ import { describe, it } from "node:test";
 import assert from "node:assert/strict";
 import { readFileSync } from "node:fs";
 import { browserSuite } from "./harness";
+import { installLatencyProbes, measureLatency, setUnits } from "./planner-checks";
 
 const suite = browserSuite();
 
@@ -29,8 +30,8 @@ describe("hold planner in the browser", () => {
     await page.getByRole("button", { name: "Download curves (CSV)" }).click();
     const file = await (await download).path();
     const csv = readFileSync(file!, "utf8");
-    assert.match(csv.split("\n")[0], /^t_s,inside_air_C,/);
-    assert.ok(csv.split("\n").length > 20);
+    assert.match(csv.split(/\r?\n/)[0], /^t_s,inside_air_C,/);
+    assert.ok(csv.split(/\r?\n/).length > 20);
 
     await page.getByLabel("Save as a plan").fill("Harbour Street lunch, thick box");
     await page.getByRole("button", { name: "Save plan" }).click();
@@ -43,6 +44,38 @@ describe("hold planner in the browser", () => {
     assert.equal(await page.getByLabel("Product 2", { exact: true }).inputValue(), "Mixed salad leaves, tub");
     assert.equal(await page.getByLabel("How many").nth(2).inputValue(), "8");
     await page.getByTestId("hold-time").waitFor();
+    // The same plan by its address, as the record's link gives it.
+    assert.match(page.url(), /\/hold\?plan=\d+$/);
+  });
+
+  it("downloads the CSV with °F columns after the switch in settings", async () => {
+    const page = suite.page;
+    await setUnits(page, suite.h.baseUrl, { temperature: "F", mass: "lb", length: "in" });
+    try {
+      await page.goto(suite.h.baseUrl + "/hold");
+      await page.getByTestId("hold-time").waitFor();
+      assert.equal(await page.getByLabel("Packed at").first().inputValue(), "35.6");
+      const download = page.waitForEvent("download");
+      await page.getByRole("button", { name: "Download curves (CSV)" }).click();
+      const head = readFileSync((await (await download).path())!, "utf8").split(/\r?\n/)[0];
+      assert.match(head, /^t_s,inside_air_F,inside_air_lower_F,inside_air_upper_F,/);
+      assert.doesNotMatch(head, /_C(,|$)/);
+      // A bad count: its message is tied to the field, not announced on every keystroke.
+      await page.getByLabel("How many").first().fill("0");
+      await page.locator("#pc-0-error").waitFor();
+      assert.equal(await page.getByLabel("How many").first().getAttribute("aria-describedby"), "pc-0-error");
+      assert.equal(await page.locator("main [role=alert]").count(), 0);
+    } finally {
+      await setUnits(page, suite.h.baseUrl, { temperature: "C", mass: "kg", length: "mm" });
+    }
+  });
+
+  it("latency: the demo hold computed in the page's worker (figures printed, not asserted)", async () => {
+    const page = suite.page;
+    await installLatencyProbes(page);
+    await page.goto(suite.h.baseUrl + "/hold");
+    await page.getByTestId("hold-time").waitFor();
+    await measureLatency(page, "hold", "hold", page.getByLabel("Packed at").first(), ["2.5", "3.5", "1.5", "3", "2"]);
   });
 
   it("answers POST /api/v1/hold with the agreed fields, and 422 on bad input", async () => {

@@ -1,6 +1,8 @@
 import { describe, it } from "node:test";
 import assert from "node:assert/strict";
+import { readFileSync } from "node:fs";
 import { browserSuite } from "./harness";
+import { installLatencyProbes, mainText, measureLatency, planIdOf, setUnits } from "./planner-checks";
 
 const suite = browserSuite();
 
@@ -20,11 +22,13 @@ describe("thaw planner in the browser", () => {
     await page.getByLabel("Frozen item").selectOption("Whole turkey, 6 kg");
     await page.getByLabel("Ready by").fill("2026-12-05T11:00");
     await page.getByTestId("start-by").waitFor();
+    // The chosen method comes first; the side-by-side comparison follows from the same worker.
+    await page.getByTestId("thaw-compare").waitFor();
     const rows = page.getByTestId("thaw-compare").locator("tbody tr");
     assert.equal(await rows.count(), 5);
     for (let i = 0; i < 5; i++) assert.match(await rows.nth(i).locator("td").nth(4).innerText(), /Dec|12/);
 
-    await page.getByLabel("Method").selectOption("tray");
+    await page.getByLabel("Method", { exact: true }).selectOption("tray");
     await page.getByLabel("Tray material").selectOption("Aluminium (pure)");
     await page.getByLabel("Tray thickness").fill("6");
     await page.waitForFunction(() => /on a tray/i.test(document.querySelector('[data-testid="thaw-headline"]')?.textContent ?? ""));
@@ -39,6 +43,77 @@ describe("thaw planner in the browser", () => {
     const board = minutes(await page.getByTestId("thaw-time").innerText());
     assert.ok(metal < board, `aluminium ${metal} min should beat polyethylene ${board} min`);
     await page.getByTestId("caution-block").getByText(/refreezing/).waitFor();
+    // The methods and limits by name, never the schema's codes.
+    assert.doesNotMatch(await mainText(page), /fridge_air|still_water|running_water|room_air/);
+  });
+
+  it("saves a plan, shows its record, and reopens it with the same inputs", async () => {
+    const page = suite.page;
+    await page.goto(suite.h.baseUrl + "/thaw");
+    await page.getByLabel("Frozen item").selectOption("Cod fillets, frozen block");
+    await page.getByLabel("Method", { exact: true }).selectOption("running_water");
+    await page.getByLabel("Water temperature").fill("12");
+    await page.getByLabel("Ready by").fill("2026-12-05T18:30");
+    await page.waitForFunction(() => /running water/i.test(document.querySelector('[data-testid="thaw-headline"]')?.textContent ?? ""));
+    await page.getByTestId("start-by").waitFor();
+    const time = await page.getByTestId("thaw-time").innerText();
+    await page.getByLabel("Save as a plan").fill("Cod for the evening service");
+    await page.getByRole("button", { name: "Save plan" }).click();
+    await page.getByRole("link", { name: "open the saved plan" }).click();
+    await page.getByRole("heading", { name: "Cod for the evening service" }).waitFor();
+    assert.match(await page.locator("main").innerText(), /Cod fillets, frozen block/);
+    const id = planIdOf(page.url());
+    await page.goto(`${suite.h.baseUrl}/thaw?plan=${id}`);
+    await page.getByText(/Reopened the saved plan “Cod for the evening service”/).waitFor();
+    await page.getByTestId("thaw-time").waitFor();
+    assert.equal(await page.getByLabel("Frozen item").inputValue(), "Cod fillets, frozen block");
+    assert.equal(await page.getByLabel("Method", { exact: true }).inputValue(), "running_water");
+    assert.equal(await page.getByLabel("Water temperature").inputValue(), "12");
+    assert.equal(await page.getByLabel("Ready by").inputValue(), "2026-12-05T18:30");
+    await page.waitForFunction((t) => document.querySelector('[data-testid="thaw-time"]')?.textContent === t, time);
+    // A plan id that is not one: the empty planner, no error.
+    await page.goto(`${suite.h.baseUrl}/thaw?plan=12abc`);
+    await page.getByTestId("thaw-time").waitFor();
+    assert.equal(await page.getByText(/Reopened the saved plan/).count(), 0);
+  });
+
+  it("speaks °F, lb and in after the switch in settings: the page and the CSV's columns", async () => {
+    const page = suite.page;
+    await setUnits(page, suite.h.baseUrl, { temperature: "F", mass: "lb", length: "in" });
+    try {
+      await page.goto(suite.h.baseUrl + "/thaw");
+      await page.getByTestId("thaw-compare").waitFor();
+      assert.equal(await page.getByLabel("Starting temperature").inputValue(), "-0.4");
+      await page.getByLabel("Method", { exact: true }).selectOption("tray");
+      await page.getByTestId("thaw-compare").waitFor();
+      const text = await mainText(page);
+      assert.doesNotMatch(text, /°C/);
+      assert.match(text, /°F/);
+      assert.doesNotMatch(text, /\d\s?mm\b/);
+      const download = page.waitForEvent("download");
+      await page.getByRole("button", { name: "Download curves (CSV)" }).click();
+      const csv = readFileSync((await (await download).path())!, "utf8");
+      assert.match(csv.split(/\r?\n/)[0], /^t_s,center_F,surface_F$/);
+      assert.ok(csv.split(/\r?\n/).length > 20);
+      // A bad value: the message beside the field, in °F, tied to it; one polite summary.
+      await page.getByLabel("Starting temperature").fill("-600");
+      const msg = page.locator("#start_C-error");
+      await msg.waitFor();
+      assert.match(await msg.innerText(), /−459\.7 °F/);
+      assert.equal(await page.getByLabel("Starting temperature").getAttribute("aria-describedby"), "start_C-error");
+      assert.equal(await page.getByLabel("Starting temperature").getAttribute("aria-invalid"), "true");
+      assert.equal(await page.locator("main [role=alert]").count(), 0);
+    } finally {
+      await setUnits(page, suite.h.baseUrl, { temperature: "C", mass: "kg", length: "mm" });
+    }
+  });
+
+  it("latency: the demo thaw computed in the page's worker (figures printed, not asserted)", async () => {
+    const page = suite.page;
+    await installLatencyProbes(page);
+    await page.goto(suite.h.baseUrl + "/thaw");
+    await page.getByTestId("thaw-compare").waitFor();
+    await measureLatency(page, "thaw", "thaw", page.getByLabel("Starting temperature"), ["-17", "-19", "-16", "-20", "-18"]);
   });
 
   it("answers POST /api/v1/thaw with the agreed fields, compare included, and 422 when there is nothing to thaw", async () => {

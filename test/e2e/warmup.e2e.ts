@@ -1,11 +1,13 @@
 import { describe, it } from "node:test";
 import assert from "node:assert/strict";
+import { readFileSync } from "node:fs";
 import { browserSuite } from "./harness";
+import { installLatencyProbes, mainText, measureLatency, planIdOf, setUnits } from "./planner-checks";
 
 const suite = browserSuite();
 
 describe("warm-up / cool-down check in the browser", () => {
-  it("shows the curve and the time to the limit, updates when a value changes, and saves a plan", async () => {
+  it("shows the curve and the time to the limit, updates when a value changes, saves a plan and reopens it", async () => {
     await suite.page.goto(suite.h.baseUrl + "/warmup");
     await suite.page.getByLabel("Product").selectOption("Steamed rice, full pan");
     await suite.page.getByLabel("Starting temperature").fill("3");
@@ -13,7 +15,7 @@ describe("warm-up / cool-down check in the browser", () => {
     await suite.page.getByTestId("temperature-chart").locator("svg path.recharts-curve").first().waitFor();
     const before = await suite.page.getByTestId("ttl-center").innerText();
     assert.match(before, /\d+ (h|min)/);
-    assert.match(await suite.page.getByTestId("method").innerText(), /Method:/);
+    assert.match(await suite.page.getByTestId("method").innerText(), /^(lumped capacitance|exact series|numerical enthalpy solver): /);
     await suite.page.getByTestId("caution-block").waitFor();
     // A warmer room: the centre reaches the limit sooner, and the page shows it without a button press.
     await suite.page.getByLabel("Temperature", { exact: true }).fill("35");
@@ -35,7 +37,47 @@ describe("warm-up / cool-down check in the browser", () => {
     await suite.page.getByRole("button", { name: "Save plan" }).click();
     await suite.page.getByRole("link", { name: "open the saved plan" }).click();
     await suite.page.getByRole("heading", { name: "Rice on the buffet, hot day" }).waitFor();
-    assert.match(await suite.page.locator("pre.snapshot").first().innerText(), /Steamed rice, full pan/);
+    assert.match(await suite.page.locator("main").innerText(), /Steamed rice, full pan/);
+    const id = planIdOf(suite.page.url());
+    await suite.page.goto(`${suite.h.baseUrl}/warmup?plan=${id}`);
+    await suite.page.getByText(/Reopened the saved plan “Rice on the buffet, hot day”/).waitFor();
+    await suite.page.getByTestId("ttl-center").waitFor();
+    assert.equal(await suite.page.getByLabel("Product").inputValue(), "Steamed rice, full pan");
+    assert.equal(await suite.page.getByLabel("Starting temperature").inputValue(), "3");
+    assert.equal(await suite.page.getByLabel("Temperature", { exact: true }).inputValue(), "35");
+    await suite.page.waitForFunction((t) => document.querySelector('[data-testid="ttl-center"]')?.textContent === t, after);
+  });
+
+  it("speaks °F after the switch in settings: the page, its field messages and the CSV's columns", async () => {
+    const page = suite.page;
+    await setUnits(page, suite.h.baseUrl, { temperature: "F", mass: "lb", length: "in" });
+    try {
+      await page.goto(suite.h.baseUrl + "/warmup");
+      await page.getByTestId("ttl-center").waitFor();
+      assert.equal(await page.getByLabel("Temperature", { exact: true }).inputValue(), "77");
+      const text = await mainText(page);
+      assert.doesNotMatch(text, /°C/);
+      assert.match(text, /°F/);
+      assert.doesNotMatch(text, /chilledMax|hotHoldMin|frozenMax/);
+      const download = page.waitForEvent("download");
+      await page.getByRole("button", { name: "Download curves (CSV)" }).click();
+      const csv = readFileSync((await (await download).path())!, "utf8");
+      assert.match(csv.split(/\r?\n/)[0], /^t_s,center_F,surface_F,mid_face_F,mean_F$/);
+      await page.getByLabel("Starting temperature").fill("-500");
+      await page.locator("#start_C-error").getByText(/−459\.7 °F/).waitFor();
+      assert.equal(await page.getByLabel("Starting temperature").getAttribute("aria-describedby"), "start_C-error");
+      assert.doesNotMatch(await mainText(page), /°C/);
+    } finally {
+      await setUnits(page, suite.h.baseUrl, { temperature: "C", mass: "kg", length: "mm" });
+    }
+  });
+
+  it("latency: the demo warm-up computed in the page's worker (figures printed, not asserted)", async () => {
+    const page = suite.page;
+    await installLatencyProbes(page);
+    await page.goto(suite.h.baseUrl + "/warmup");
+    await page.getByTestId("ttl-center").waitFor();
+    await measureLatency(page, "warm-up", "warmup", page.getByLabel("Temperature", { exact: true }), ["26", "27", "28", "29", "30"]);
   });
 
   it("answers the API with the same schema: 200 with times, 422 with field errors", async () => {
