@@ -8,6 +8,7 @@ import { holdPlanner } from "./hold";
 import { thawPlanner } from "./thaw";
 import { warmupPlanner } from "./warmup";
 import { sizePlanner } from "./size";
+import { calibratePlanner } from "./calibrate";
 
 /** In the order the pages list them. */
 export const PLANNERS = {
@@ -15,6 +16,7 @@ export const PLANNERS = {
   size: sizePlanner,
   thaw: thawPlanner,
   warmup: warmupPlanner,
+  calibrate: calibratePlanner,
 } as const;
 
 export type PlannerKind = keyof typeof PLANNERS;
