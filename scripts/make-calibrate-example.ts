@@ -9,6 +9,7 @@ import path from "node:path";
 import { runHoldParsed } from "../lib/physics/hold";
 import { holdInputSchema } from "../lib/schemas/hold";
 import { lunchPlan, syntheticCsv } from "../test/helpers/synthetic-log";
+import { EXAMPLE_PLAN } from "../lib/calibration/example";
 
 /** The factors the invented trip was made with (the fit should find them within its intervals). */
 export const EXAMPLE_TRUTH = { wallConductance: 1.25, innerH: 0.85, contact: 1.6 };
@@ -32,15 +33,6 @@ export function exampleLogText(): string {
   return `${EXAMPLE_PREAMBLE}\n${csv}\n`;
 }
 
-export const EXAMPLE_PLAN = {
-  products: [{ product: "Roast chicken thighs, half tray", count: 1, start_C: 1 }],
-  shipper: "Quillfield thin foam cooler",
-  packs: [{ pack: "Gel pack, 600 g", count: 2, conditioning_C: -18 }],
-  route: "Summer lunch run, Harbour Street",
-  ruleSet: "England, Wales and Northern Ireland",
-  boxStart_C: 8,
-  extendFraction: 1,
-};
 
 if (import.meta.url === `file://${process.argv[1]}`) {
   const dir = path.join(import.meta.dirname, "..", "public", "examples");

@@ -28,7 +28,7 @@ export interface GuessOptions {
   columns?: string[];
 }
 
-export type GuessResult = { ok: true; format: LogFormatInput; header: string[] } | { ok: false; message: string };
+export type GuessResult = { ok: true; format: LogFormatInput; header: string[] } | { ok: false; message: string; header?: string[]; skipRows?: number };
 
 /** Parses one "--columns" entry: "product:1:surface" → role product, line 1, surface. */
 export function parseChannelSpec(spec: string): { role: ChannelRole; line: number; point: "centre" | "surface" } | null | "skip" {
@@ -51,7 +51,7 @@ export function guessLogFormat(text: string, planner: "hold" | "thaw", opts: Gue
   const delimiter = opts.delimiter ?? "auto";
   const rows = Papa.parse<string[]>(head, { delimiter: delimiter === "auto" ? "" : delimiter, skipEmptyLines: true }).data;
   // The header: the first row of two or more fields that the next row matches in count (a preamble has fewer).
-  let h = rows.findIndex((r, i) => r.length >= 2 && rows[i + 1]?.length === r.length);
+  const h = rows.findIndex((r, i) => r.length >= 2 && rows[i + 1]?.length === r.length);
   if (h < 0) return { ok: false, message: "No header row with a time column and at least one temperature column was found (is the delimiter right?)" };
   // Lines before the header in the file itself (blank lines are skipped by the reader too).
   const lines = body.split(/\r?\n/);
@@ -67,6 +67,8 @@ export function guessLogFormat(text: string, planner: "hold" | "thaw", opts: Gue
     else
       return {
         ok: false,
+        header,
+        skipRows,
         message: `The time column "${header[0]}" starts with "${first}": say how it is written (--time day_first or month_first for dates such as 14/07/2026, or s, min or h for elapsed time)`,
       };
   }
