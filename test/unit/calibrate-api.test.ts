@@ -31,7 +31,10 @@ describe("POST /api/v1/calibrate", () => {
     expect(r.status).toBe(200);
     const b = await bodyOf(r);
     expect(b.factors).toHaveLength(3);
-    for (const f of b.factors) expect(f.low).toBeLessThanOrEqual(f.value), expect(f.high).toBeGreaterThanOrEqual(f.value);
+    for (const f of b.factors) {
+      expect(f.low).toBeLessThanOrEqual(f.value);
+      expect(f.high).toBeGreaterThanOrEqual(f.value);
+    }
     expect(b.rms_K).toBeGreaterThan(0);
     expect(b.maxResidual_K).toBeGreaterThan(b.rms_K);
     expect(Array.isArray(b.warnings)).toBe(true);

@@ -52,7 +52,7 @@ describe("the calibrate planner through the registry", () => {
     if (!r.ok) throw new Error(JSON.stringify(r.fieldErrors));
     result = r.result.result as CalibrationResult;
     parsed = r.result.parsed;
-  });
+  }, 120_000);
 
   it("answers with factors (value, low, high), rms_K, maxResidual_K and warnings; the factors the log was made with lie inside their intervals", () => {
     expect(result.factors.map((f) => f.name)).toEqual(["wallConductance", "innerH", "contact"]);
@@ -104,7 +104,7 @@ describe("holdline calibrate", () => {
   writeFileSync(planFile, JSON.stringify(lunchPlan));
   writeFileSync(logFile, logText);
 
-  it("--plan FILE --log CSV: the first column is time, the rest inside air, product, pack; the answer names the factors", async () => {
+  it("--plan FILE --log CSV: the first column is time, the rest inside air, product, pack; the answer names the factors", { timeout: 120_000 }, async () => {
     const c = capture();
     const code = await main(["calibrate", "--plan", planFile, "--log", logFile], c.io);
     expect(c.err).not.toMatch(STACK_TRACE);
@@ -116,7 +116,7 @@ describe("holdline calibrate", () => {
     expect(r.log.name).toBe("trip.csv");
   });
 
-  it("--columns leaves columns out and --fit chooses the factors", async () => {
+  it("--columns leaves columns out and --fit chooses the factors", { timeout: 120_000 }, async () => {
     const c = capture();
     expect(await main(["calibrate", "--plan", planFile, "--log", logFile, "--columns", "inside_air,-,-", "--fit", "wallConductance"], c.io)).toBe(0);
     const r = JSON.parse(c.out);
@@ -177,7 +177,7 @@ describe("a box saved from a calibration, planned with", () => {
     const r = await runPlanner(entry, input);
     if (!r.ok) throw new Error("fit");
     result = r.result.result as CalibrationResult;
-  });
+  }, 120_000);
   const boxOf = () => {
     const box = calibratedShipper(holdInputSchema.parse(lunchPlan).shipper, result, { fittedOn: new Date("2026-07-14T12:00:00Z") });
     expect(box).not.toBeNull();
@@ -192,7 +192,7 @@ describe("a box saved from a calibration, planned with", () => {
     expect(calibratedBoxName("x".repeat(118), "a-long-logger-file-name.csv", "2026-07-14").length).toBeLessThanOrEqual(120);
   });
 
-  it("the hold planner applies its factors, says it was calibrated, and draws its band from the fitted intervals", async () => {
+  it("the hold planner applies its factors, says it was calibrated, and draws its band from the fitted intervals", { timeout: 60_000 }, async () => {
     const box = boxOf();
     // One gel pack and a long run after the route, so that the load leaves its band and the band has ends.
     const shorter: HoldInput = { ...lunchPlan, packs: [{ ...lunchPlan.packs![0], count: 1 }], extendFraction: 3 };
