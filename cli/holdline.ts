@@ -46,6 +46,17 @@ Usage:
   holdline export [--out FILE]        write every template (and the units setting) as JSON
   holdline import FILE|-              add or update templates from such a file, all or nothing
 ${await plannerHelp()}
+  holdline calibrate --plan FILE --log CSV
+                                      fit the plan (a hold or thaw input, or
+                                      holdline plans show ID --json) to a logger
+                                      CSV; the first column is time, the next are
+                                      inside air, product, pack, outside air (hold)
+                                      or product centre, surface (thaw), unless
+    --columns R,R,…                   names them: inside_air, product[:LINE][:surface],
+                                      pack[:LINE], outside_air, or - to leave one out
+    --time s|min|h|iso|day_first|month_first   (default: guessed from the file)
+    --unit C|F  --delimiter ,|;|tab  --decimal .|,  --fit wallConductance,innerH,…
+    --planner hold|thaw               (default: from the plan file)
   holdline plans [--json]             list the saved plans (id, kind, name, when saved)
   holdline plans show ID [--json]     one saved plan; with --json its input, as a file that
                                       holdline KIND FILE accepts
@@ -155,6 +166,16 @@ async function run(argv: string[], io: CliIo): Promise<number> {
         db: { type: "string" },
         "no-seed": { type: "boolean" },
         json: { type: "boolean" },
+        // holdline calibrate --plan FILE --log CSV (cli/calibrate-args.ts)
+        plan: { type: "string" },
+        log: { type: "string" },
+        planner: { type: "string" },
+        columns: { type: "string" },
+        time: { type: "string" },
+        unit: { type: "string" },
+        delimiter: { type: "string" },
+        decimal: { type: "string" },
+        fit: { type: "string" },
       },
     });
   } catch (e) {
@@ -248,8 +269,9 @@ async function run(argv: string[], io: CliIo): Promise<number> {
   const { isPlannerKind, plannerOf } = await import("../lib/planners/registry");
   if (isPlannerKind(command)) {
     const file = rest[0];
-    if (!file) throw new CliError(`holdline ${command}: give an input file, or - for standard input (see holdline schema ${command})`, 2);
-    const data = readJsonInput(file, command, io);
+    const fromFiles = command === "calibrate" && (values.plan !== undefined || values.log !== undefined);
+    if (!file && !fromFiles) throw new CliError(`holdline ${command}: give an input file, or - for standard input (see holdline schema ${command})`, 2);
+    const data = fromFiles ? (await import("./calibrate-args")).calibrateInputFromFiles(values, (f) => readJsonInput(f, command, io)) : readJsonInput(file, command, io);
     const entry = plannerOf(command);
     const { resolvePlannerInput } = await import("../lib/db/resolve");
     let resolved: Resolved;

@@ -12,6 +12,7 @@ import {
   templateSchemas,
   layerSchema,
   segmentSchema,
+  boxCalibrationSchema,
   TEMPLATE_LABELS,
 } from "../schemas/templates";
 import { z } from "zod";
@@ -62,6 +63,7 @@ function fromRow<K extends TemplateKind>(kind: K, row: Row): TemplateOutput[K] {
         ...rest,
         wallLayers: parseJson(rest.wallLayers, z.array(layerSchema)),
         lidLayers: rest.lidLayers === null ? null : parseJson(rest.lidLayers, z.array(layerSchema)),
+        calibration: rest.calibration === null || rest.calibration === undefined ? null : parseJson(rest.calibration, boxCalibrationSchema),
       } as unknown as TemplateOutput[K];
     case "routes":
       return { ...rest, segments: parseJson(rest.segments, z.array(segmentSchema)) } as unknown as TemplateOutput[K];
@@ -89,7 +91,7 @@ function toRow(kind: TemplateKind, data: TemplateOutput[TemplateKind]): Record<s
     }
     case "shippers": {
       const s = data as TemplateOutput["shippers"];
-      return { ...s, wallLayers: JSON.stringify(s.wallLayers), lidLayers: s.lidLayers ? JSON.stringify(s.lidLayers) : null };
+      return { ...s, wallLayers: JSON.stringify(s.wallLayers), lidLayers: s.lidLayers ? JSON.stringify(s.lidLayers) : null, calibration: s.calibration ? JSON.stringify(s.calibration) : null };
     }
     case "routes": {
       const r = data as TemplateOutput["routes"];

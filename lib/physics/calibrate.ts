@@ -19,7 +19,7 @@
 import { levenbergMarquardt } from "ml-levenberg-marquardt";
 import { EigenvalueDecomposition, Matrix, inverse } from "ml-matrix";
 import { calibrateInputSchema, FACTOR_LABELS, type CalibrateInput, type CalibrateParsed, type FactorName, type LogChannel } from "../schemas/calibrate";
-import type { HoldParsed } from "../schemas/hold";
+import { effectiveHoldCalibration, type HoldParsed } from "../schemas/hold";
 import type { ThawParsed } from "../schemas/thaw";
 import { runHoldParsed, type HoldResult } from "./hold";
 import { runThawParsed, type ThawResult } from "./thaw";
@@ -62,6 +62,8 @@ export interface CalibrationResult {
   before: { rms_K: number; maxResidual_K: number };
   /** The fitted plan against the log, channel by channel (for the chart). */
   comparison: LogComparison;
+  /** The plan as built against the log, channel by channel. */
+  comparisonBefore: LogComparison;
   /** Residual standard deviation s, K, and the widening of the intervals for serially correlated residuals. */
   noise_K: number;
   serialCorrelation: number;
@@ -295,6 +297,7 @@ function fit(pb: Problem, initial: number[], requested: Set<FactorName>, log: Pa
     if (l > 0.05) warnings.push(`The log ends before pack line ${i + 1} has melted (${Math.round(l * 100)} % still frozen in the fitted model): how long the packs last is not in the log, so the factors are judged from the melting phase only`);
   });
   const comparison = pb.compare(f);
+  const comparisonBefore = pb.compare(ones);
   const maxResidual = Math.max(...res.map(Math.abs));
   return {
     planner: pb.names.includes("surfaceH") ? "thaw" : "hold",
@@ -304,6 +307,7 @@ function fit(pb: Problem, initial: number[], requested: Set<FactorName>, log: Pa
     maxResidualAt: comparison.maxResidualAt,
     before: beforeStats,
     comparison,
+    comparisonBefore,
     noise_K: Math.sqrt(s2 || res.reduce((a, r) => a + r * r, 0) / dof),
     serialCorrelation: rho,
     intervalWidening: Math.sqrt(widen),
@@ -473,7 +477,8 @@ function holdProblem(plan0: HoldParsed, fitNames: string[], useOutside: boolean,
   ];
   const logEnd = log.t_s[log.t_s.length - 1] - planStart_s;
   let plan: HoldParsed = { ...plan0, uncertainty: { outerH_frac: 0, insulationK_frac: 0, conditioning_K: 0 }, calibration: undefined };
-  if (plan0.calibration) warnings.push(`The plan already carries a calibration${plan0.calibration.source ? ` (${plan0.calibration.source})` : ""}: it is refitted from 1`);
+  const prior = effectiveHoldCalibration(plan0);
+  if (prior) warnings.push(`The plan already carries a calibration${prior.source ? ` (${prior.source})` : ""}: it is refitted from 1`);
   const outside = log.series.findIndex((s) => s.channel.role === "outside_air");
   const drives = useOutside && outside >= 0;
   if (drives) {

@@ -4,7 +4,7 @@
  * end, to measure the margin), finds the first moment any product's centre or surface leaves its
  * band, and repeats the run over a small deterministic sample for an uncertainty band.
  */
-import { DEFAULT_CONTACT_W_M2K, holdInputSchema, type HoldInput, type HoldParsed } from "../schemas/hold";
+import { DEFAULT_CONTACT_W_M2K, effectiveHoldCalibration, holdInputSchema, type HoldCalibration, type HoldInput, type HoldParsed } from "../schemas/hold";
 import type { Material, Pack, Product } from "../schemas/templates";
 import { productThermal, simpleMaterial } from "./properties";
 import { itemShape } from "./geometry";
@@ -132,7 +132,7 @@ interface Prepared {
 
 function prepare(given: HoldParsed): Prepared {
   // A calibration's contact factor scales every pack line's contact coefficient (the wall and inside factors are applied below).
-  const cal = given.calibration;
+  const cal = effectiveHoldCalibration(given);
   const inp = cal && cal.contact !== 1 ? { ...given, packs: given.packs.map((p) => ({ ...p, contact_W_m2K: p.contact_W_m2K * cal.contact })) } : given;
   const warnings: string[] = [];
   const assumptions: string[] = [];
@@ -644,6 +644,34 @@ export function uncertaintyCorners(u: HoldParsed["uncertainty"]): HoldCorner[] {
   return out;
 }
 
+const CALIBRATED_FACTORS = ["wallConductance", "innerH", "contact"] as const;
+
+/**
+ * The uncertainty sample of a plan calibrated with fitted intervals (a box saved from a calibration) that
+ * asks for a band (an outer-coefficient or insulation spread above zero): every corner of the fitted
+ * factors' 95 % intervals, each at pack conditioning ± its spread. The wall factor absorbed the outer
+ * coefficient and insulation conductivity in the fit, so its interval replaces their default spreads.
+ * Null: no intervals, or no band asked for — the default corners apply.
+ */
+export function calibratedCorners(inp: HoldParsed): { inp: HoldParsed; conditioningShift_K: number }[] | null {
+  const cal = effectiveHoldCalibration(inp);
+  const iv = cal?.intervals;
+  if (!cal || !iv || (inp.uncertainty.outerH_frac === 0 && inp.uncertainty.insulationK_frac === 0)) return null;
+  const names = CALIBRATED_FACTORS.filter((n) => iv[n]);
+  if (!names.length) return null;
+  let sets: HoldCalibration[] = [cal];
+  for (const n of names) sets = sets.flatMap((c) => [{ ...c, [n]: iv[n]!.low }, { ...c, [n]: iv[n]!.high }]);
+  const k = inp.uncertainty.conditioning_K;
+  const shifts = k === 0 ? [0] : [-k, k];
+  return sets.flatMap((c) => shifts.map((sh) => ({ inp: { ...inp, calibration: c }, conditioningShift_K: sh })));
+}
+
+function calibratedIntervalText(inp: HoldParsed): string {
+  const iv = effectiveHoldCalibration(inp)?.intervals ?? {};
+  const label = { wallConductance: "wall conductance", innerH: "inside coefficient", contact: "pack contact" };
+  return CALIBRATED_FACTORS.flatMap((n) => (iv[n] ? [`${label[n]} ×${iv[n].low.toPrecision(3)}–${iv[n].high.toPrecision(3)}`] : [])).join(", ");
+}
+
 /**
  * Runs the corners asked for, without curves, each stopping at its first failure: what the pack-out sizer
  * needs. With `lowOnly`, each run after the first also stops at the earliest failure found so far (it can
@@ -685,7 +713,10 @@ export function runHoldParsed(inp: HoldParsed, opts: { resolution?: number } = {
   const central = runOnce(P, { resolution: opts.resolution, outerHScale: 1, insulationKScale: 1, conditioningShift_K: 0, keepSeries: true });
   // Uncertainty: the central run and every corner of the shared sample.
   const holds: (number | null)[] = [central.holdTime_s];
-  for (const c of uncertaintyCorners(inp.uncertainty).slice(1)) holds.push(runOnce(P, { ...c, resolution: opts.resolution, keepSeries: false }).holdTime_s);
+  // A calibrated box's band comes from its fitted intervals; otherwise from the default spreads.
+  const calSample = calibratedCorners(inp);
+  if (calSample) for (const c of calSample) holds.push(runOnce(prepare(c.inp), { outerHScale: 1, insulationKScale: 1, conditioningShift_K: c.conditioningShift_K, resolution: opts.resolution, keepSeries: false }).holdTime_s);
+  else for (const c of uncertaintyCorners(inp.uncertainty).slice(1)) holds.push(runOnce(P, { ...c, resolution: opts.resolution, keepSeries: false }).holdTime_s);
   const asNumber = (x: number | null) => (x === null ? Infinity : x);
   const low = Math.min(...holds.map(asNumber));
   const high = Math.max(...holds.map(asNumber));
@@ -698,7 +729,9 @@ export function runHoldParsed(inp: HoldParsed, opts: { resolution?: number } = {
   const ua = steadyUA(P.wallLayers, P.lidLayers, P.inner, hOuter[0], P.innerH, P.kScaleForUA, P.edgeG);
   const assumptions = [...P.assumptions];
   assumptions.push(
-    `Uncertainty band: the lowest and highest hold over the central run and every corner of outer coefficient ±${Math.round(inp.uncertainty.outerH_frac * 100)} %, insulation conductivity ±${Math.round(inp.uncertainty.insulationK_frac * 100)} % and pack conditioning ±${inp.uncertainty.conditioning_K} K`,
+    calSample
+      ? `Uncertainty band: the lowest and highest hold over the central run and every corner of the fitted 95 % intervals (${calibratedIntervalText(inp)}) and pack conditioning ±${inp.uncertainty.conditioning_K} K; the fitted wall factor stands in for the default outer-coefficient and insulation spreads`
+      : `Uncertainty band: the lowest and highest hold over the central run and every corner of outer coefficient ±${Math.round(inp.uncertainty.outerH_frac * 100)} %, insulation conductivity ±${Math.round(inp.uncertainty.insulationK_frac * 100)} % and pack conditioning ±${inp.uncertainty.conditioning_K} K`,
   );
   assumptions.push(`After the route ends, the last segment's conditions are continued for ${Math.round(inp.extendFraction * 100)} % of the route length to measure the margin`);
   return {

@@ -9,6 +9,7 @@ import { thawPlanner } from "./thaw";
 import { warmupPlanner } from "./warmup";
 import { sizePlanner } from "./size";
 import { coolPlanner } from "./cool";
+import { calibratePlanner } from "./calibrate";
 
 /** In the order the pages list them. */
 export const PLANNERS = {
@@ -17,6 +18,7 @@ export const PLANNERS = {
   thaw: thawPlanner,
   warmup: warmupPlanner,
   cool: coolPlanner,
+  calibrate: calibratePlanner,
 } as const;
 
 export type PlannerKind = keyof typeof PLANNERS;

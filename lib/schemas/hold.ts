@@ -59,14 +59,46 @@ const factor = (what: string) =>
  * Scale factors fitted from a logged trip (lib/physics/calibrate.ts), 1 = the model as built: every wall,
  * lid and edge conductivity; the inside surface coefficient; every pack line's contact coefficient.
  */
+const fittedInterval = z.object({ low: z.number().min(0.01).max(50), high: z.number().min(0.01).max(50) });
+
 export const holdCalibrationSchema = z.object({
   wallConductance: factor("Wall conductance factor"),
   innerH: factor("Inside coefficient factor"),
   contact: factor("Pack contact factor"),
   /** Where the factors came from (the log's name and date), shown in the assumptions. */
   source: z.string().trim().max(300).default(""),
+  /**
+   * The fitted factors' 95 % intervals (a calibrated box's): with them, the uncertainty band is drawn from
+   * these intervals instead of the default outer-coefficient and insulation spreads.
+   */
+  intervals: z
+    .object({
+      wallConductance: fittedInterval.optional(),
+      innerH: fittedInterval.optional(),
+      contact: fittedInterval.optional(),
+    })
+    .optional(),
 });
 export type HoldCalibration = z.output<typeof holdCalibrationSchema>;
+
+/**
+ * The calibration a hold plan runs with: its own, or else the one its box was saved with (a box calibrated
+ * from a logged trip: its factors, source and intervals); undefined for a box as built.
+ */
+export function effectiveHoldCalibration(inp: Pick<HoldParsed, "calibration" | "shipper">): HoldCalibration | undefined {
+  if (inp.calibration) return inp.calibration;
+  const c = inp.shipper.calibration;
+  if (!c) return undefined;
+  const f = c.factors;
+  const iv = (x: typeof f.wallConductance) => (x && x.low !== null && x.high !== null ? { low: x.low, high: x.high } : undefined);
+  return {
+    wallConductance: f.wallConductance?.value ?? 1,
+    innerH: f.innerH?.value ?? 1,
+    contact: f.contact?.value ?? 1,
+    source: c.source,
+    intervals: { wallConductance: iv(f.wallConductance), innerH: iv(f.innerH), contact: iv(f.contact) },
+  };
+}
 
 export const holdInputSchema = z
   .object({

@@ -142,6 +142,41 @@ export const layerSchema = z.object({
 });
 export type Layer = z.output<typeof layerSchema>;
 
+/** One factor fitted from a logged trip, with its 95 % interval (null ends: the log could not tell it, held at 1). */
+export const fittedFactorSchema = z
+  .object({
+    value: num("Factor").min(0.05, { error: "Factor: at least 0.05" }).max(20, { error: "Factor: at most 20" }),
+    low: num("Interval, low end").positive({ error: "Interval, low end: greater than zero" }).nullable().default(null),
+    high: num("Interval, high end").positive({ error: "Interval, high end: greater than zero" }).nullable().default(null),
+  })
+  .refine((f) => (f.low === null) === (f.high === null) && (f.low === null || (f.low <= f.value && f.value <= f.high!)), {
+    error: "Interval: give both ends, low ≤ value ≤ high",
+    path: ["low"],
+  });
+export type FittedFactor = z.output<typeof fittedFactorSchema>;
+
+/**
+ * Where a calibrated box's factors came from (lib/physics/calibrate.ts): the log's name and first reading,
+ * and each fitted factor with its interval. The hold planner applies the factors and draws its uncertainty
+ * band from the intervals instead of the default spreads.
+ */
+export const boxCalibrationSchema = z.object({
+  /** "logger-trip.csv, logged 2026-07-14 06:00": shown as "calibrated from …". */
+  source: z.string().trim().min(1, { error: "Calibration: name its source" }).max(300),
+  logName: z.string().trim().max(200).default(""),
+  /** The log's first reading (ISO), null for an elapsed-time log. */
+  logStart: z.string().max(40).nullable().default(null),
+  factors: z.object({
+    wallConductance: fittedFactorSchema.optional(),
+    innerH: fittedFactorSchema.optional(),
+    contact: fittedFactorSchema.optional(),
+  }),
+  /** Fit quality, K. */
+  rms_K: num("RMS").nonnegative().nullable().default(null),
+  maxResidual_K: num("Largest residual").nonnegative().nullable().default(null),
+});
+export type BoxCalibration = z.output<typeof boxCalibrationSchema>;
+
 export const shipperSchema = z.object({
   name,
   innerLength_m: positive("Inner length"),
@@ -157,6 +192,8 @@ export const shipperSchema = z.object({
   emptyMass_kg: nonNegative("Empty mass"),
   cost: nonNegative("Cost"),
   notes,
+  /** Set on a box saved from a calibration (null: the box as built). */
+  calibration: boxCalibrationSchema.nullish(),
 });
 export type ShipperInput = z.input<typeof shipperSchema>;
 export type Shipper = z.output<typeof shipperSchema>;

@@ -72,6 +72,7 @@ async function route(pathname: string): Promise<{ mod: RouteModule; params: Reco
     return { mod: m(await import("../../app/api/v1/[kind]/route")), params: { kind: p[0] } };
   }
   if (p.length === 2 && p[0] === "plans") return { mod: m(await import("../../app/api/v1/plans/[id]/route")), params: { id: p[1] } };
+  if (p.length === 2 && p[0] === "calibrate" && p[1] === "save") return { mod: m(await import("../../app/api/v1/calibrate/save/route")), params: {} };
   if (p.length === 2 && p[0] === "schema") return { mod: m(await import("../../app/api/v1/schema/[name]/route")), params: { name: p[1] } };
   if (p.length === 2) return { mod: m(await import("../../app/api/v1/[kind]/[id]/route")), params: { kind: p[0], id: p[1] } };
   if (p.length === 3 && p[2] === "history") return { mod: m(await import("../../app/api/v1/[kind]/[id]/history/route")), params: { kind: p[0], id: p[1] } };
