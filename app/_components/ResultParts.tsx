@@ -67,10 +67,13 @@ export function NamedSelect<T extends { name: string } | Material>(props: { id: 
   );
 }
 
-/** A field's error message, beside the field. */
-export function FieldMessage({ msg }: { msg?: string }) {
+/**
+ * A field's error message, beside the field. Give it an `id` and point the input's `aria-describedby` at
+ * it: a screen reader reads it with the field, and it is not announced on every keystroke (no live region).
+ */
+export function FieldMessage({ msg, id }: { msg?: string; id?: string }) {
   return msg ? (
-    <p className="field-error" role="alert">
+    <p className="field-error" id={id}>
       {msg}
     </p>
   ) : null;
