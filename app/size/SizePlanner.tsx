@@ -8,7 +8,7 @@ import { PLACEMENTS } from "@/lib/schemas/hold";
 import { PACK_KIND_LABELS, type Material, type Pack, type Product, type Route, type RuleSet, type Shipper } from "@/lib/schemas/templates";
 import { planSizing, runSizing, type SizingPlan, type SizingResult, type CandidateRow } from "@/lib/physics/sizing";
 import { makePool, type FromWorker } from "@/lib/physics/sizing-worker";
-import { sizePlanner, candidateHold, candidateLabel, candidateHoldText, litres, type CandidateHandoff } from "@/lib/planners/size";
+import { sizePlanner, boxLabel, candidateHold, candidateLabel, candidateHoldText, litres, type CandidateHandoff } from "@/lib/planners/size";
 import { PLACEMENT_LABELS } from "@/lib/planners/hold";
 import { encodeHandoff } from "@/lib/planners/handoff";
 import { kit } from "@/lib/planners/view-kit";
@@ -519,7 +519,7 @@ export function SizePlanner(props: SizePlannerProps) {
             {rows.slice(0, showAll ? 500 : 25).map((c) => (
               <tr key={c.index} data-pareto={r.pareto.includes(c.index) || undefined}>
                 <td title={r.pareto.includes(c.index) ? "a best trade-off" : ""}>{r.pareto.includes(c.index) ? "★" : ""}</td>
-                <td>{c.boxName}</td>
+                <td>{boxLabel(c.boxName, k)}</td>
                 <td>{c.packs.map((p) => `${p.count} × ${p.name} at ${k.temp(p.conditioning_C)}`).join("; ")}</td>
                 <td>{k.mass(c.mass_kg)}</td>
                 <td>{c.cost.toFixed(2)}</td>

@@ -8,10 +8,13 @@ import type { PlannerEntry } from "./types";
 import { kit, mCol, csvM, SIGNATURE_LINE, type Kit } from "./view-kit";
 import { PLACEMENT_LABELS } from "./hold";
 
+/** A candidate box's name in the person's units: a wall-thickness variant is named "Thin cooler (40 mm)" by the model. */
+export const boxLabel = (boxName: string, k: Kit) => boxName.replace(/\((\d+) mm\)$/, (m) => k.text(m));
+
 /** How a candidate reads: "Thick cooler (40 mm) with 3 × Gel pack at −18 °C". */
 export function candidateLabel(c: CandidateRow, k: Kit): string {
   const packs = c.packs.filter((p) => p.count > 0).map((p) => `${p.count} × ${p.name} at ${k.temp(p.conditioning_C)}`).join(" + ") || "no packs";
-  return `${c.boxName} with ${packs}`;
+  return `${boxLabel(c.boxName, k)} with ${packs}`;
 }
 
 /**
@@ -157,7 +160,7 @@ export const sizePlanner: PlannerEntry<typeof sizeInputSchema, SizingResult> = {
   csv: (_i, r, u) =>
     r.candidates.map((c) => ({
       index: c.index,
-      box: c.boxName,
+      box: boxLabel(c.boxName, kit(u)),
       packs: c.packs.map((p) => `${p.count} × ${p.name}`).join(" + "),
       verdict: c.verdict,
       hold_s: c.hold_s === null ? null : Math.round(c.hold_s),
