@@ -24,7 +24,7 @@ export default async function HoldPage({ searchParams }: { searchParams: Promise
         <>
           {carried ? (
             <p className={carried.success ? "banner ok no-print" : "banner error no-print"} role="status" data-testid="hold-from">
-              {carried.success ? `From the pack-out sizer: ${carried.data.label}. Not saved: use “Save plan” to keep it.` : "The candidate in this address could not be read; the planner starts from the library instead."}
+              {carried.success ? "Opened from the pack-out sizer with that candidate's inputs. Not saved: use “Save plan” to keep it." : "The candidate in this address could not be read; the planner starts from the library instead."}
             </p>
           ) : null}
           <HoldPlanner {...lib} initial={initial?.success ? (initial.data as never) : carried?.success ? (carried.data.input as never) : undefined} reopened={saved?.name} />

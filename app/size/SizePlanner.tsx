@@ -8,7 +8,7 @@ import { PLACEMENTS } from "@/lib/schemas/hold";
 import { PACK_KIND_LABELS, type Material, type Pack, type Product, type Route, type RuleSet, type Shipper } from "@/lib/schemas/templates";
 import { planSizing, runSizing, type SizingPlan, type SizingResult, type CandidateRow } from "@/lib/physics/sizing";
 import { makePool, type FromWorker } from "@/lib/physics/sizing-worker";
-import { sizePlanner, boxLabel, candidateHold, candidateLabel, candidateHoldText, litres, type CandidateHandoff } from "@/lib/planners/size";
+import { sizePlanner, boxLabel, candidateHold, candidateHoldText, litres, type CandidateHandoff } from "@/lib/planners/size";
 import { PLACEMENT_LABELS } from "@/lib/planners/hold";
 import { encodeHandoff } from "@/lib/planners/handoff";
 import { kit } from "@/lib/planners/view-kit";
@@ -468,7 +468,7 @@ export function SizePlanner(props: SizePlannerProps) {
     if (!holding.length) return null;
     const front = holding.filter((c) => r.pareto.includes(c.index));
     const point = (c: CandidateRow) => ({ mass: roundForDisplay(toDisplay("mass", c.mass_kg, units), 4), cost: c.cost, vol: Math.round(c.outerVolume_m3 * 1000) });
-    const carried = (c: CandidateRow) => (): CandidateHandoff => ({ label: candidateLabel(c, k), input: candidateHold(inp, plan.candidates[c.index]) });
+    const carried = (c: CandidateRow) => (): CandidateHandoff => ({ input: candidateHold(inp, plan.candidates[c.index]) });
     return (
       <section className="no-print">
         <h3>Trade-offs</h3>

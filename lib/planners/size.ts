@@ -31,10 +31,17 @@ export function candidateHold(inp: SizeParsed, c: Candidate): HoldParsed {
 
 /**
  * A candidate carried to the hold planner (`/hold?from=…`) or its pack-out sheet (`/size/sheet?from=…`)
- * without saving: how it reads and its hold input (lib/planners/handoff.ts packs it into the address).
+ * without saving: its hold input (lib/planners/handoff.ts packs it into the address). How it reads is
+ * made where it is read (carriedLabel), in that page's units.
  */
-export const candidateHandoffSchema = z.object({ label: z.string().trim().min(1).max(400), input: holdInputSchema });
+export const candidateHandoffSchema = z.object({ input: holdInputSchema });
 export type CandidateHandoff = z.input<typeof candidateHandoffSchema>;
+
+/** A carried candidate as it reads, like candidateLabel: "Thin cooler (1.575 in) with 3 × Gel pack at −0.4 °F". */
+export function carriedLabel(h: HoldParsed, k: Kit): string {
+  const packs = h.packs.map((p) => `${p.count} × ${p.pack.name}${p.pack.kind === "dry_ice" ? "" : ` at ${k.temp(p.conditioning_C)}`}`).join(" + ") || "no packs";
+  return `${boxLabel(h.shipper.name, k)} with ${packs}`;
+}
 
 /** A candidate's judged hold as it reads: "at most 9.5 h", "more than 21.6 h", "holds (decided without a run)". */
 export function candidateHoldText(c: CandidateRow, required_s: number, k: Kit): string {

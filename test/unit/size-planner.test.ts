@@ -4,7 +4,7 @@ import { sizeInputSchema, type SizeInput } from "../../lib/schemas/size";
 import { holdInputSchema } from "../../lib/schemas/hold";
 import { planSizing, runSizing, evaluateHere, candidateHoldInput } from "../../lib/physics/sizing";
 import { runHoldParsed } from "../../lib/physics/hold";
-import { sizePlanner, candidateHold, candidateHandoffSchema } from "../../lib/planners/size";
+import { sizePlanner, candidateHold, candidateHandoffSchema, carriedLabel } from "../../lib/planners/size";
 import { packOutSheet } from "../../lib/planners/pack-out-sheet";
 import { encodeHandoff, decodeHandoff, MAX_HANDOFF_CHARS } from "../../lib/planners/handoff";
 import { kit } from "../../lib/planners/view-kit";
@@ -45,13 +45,15 @@ describe("carrying a candidate in the address", () => {
   });
 
   it("round-trips through the address, compactly, and the hold schema accepts what arrives", async () => {
-    const text = await encodeHandoff({ label: "three gel packs", input: candidateHold(inp, c) });
+    const text = await encodeHandoff({ input: candidateHold(inp, c) });
     expect(text).toMatch(/^[A-Za-z0-9_-]+$/);
     expect(text.length).toBeLessThan(MAX_HANDOFF_CHARS);
     const back = candidateHandoffSchema.safeParse(await decodeHandoff(text));
     expect(back.success).toBe(true);
     expect(back.success && back.data.input.packs.map((p) => [p.pack.name, p.count])).toEqual([["Gel pack, 600 g", 3]]);
     expect(holdInputSchema.safeParse(back.success && back.data.input).success).toBe(true);
+    // How it reads is made on arrival, in that page's units.
+    expect(back.success && carriedLabel(back.data.input, kit(US))).toBe("Quillfield thin foam cooler with 3 × Gel pack, 600 g at -0.4 °F");
   });
 
   it("answers null, never throws, for anything that is not a carried input", async () => {

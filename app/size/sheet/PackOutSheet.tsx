@@ -3,6 +3,8 @@ import { useEffect, useState } from "react";
 import type { HoldParsed } from "@/lib/schemas/hold";
 import type { HoldResult } from "@/lib/physics/hold";
 import { packOutSheet } from "@/lib/planners/pack-out-sheet";
+import { carriedLabel } from "@/lib/planners/size";
+import { kit } from "@/lib/planners/view-kit";
 import { usePlanner } from "@/app/_components/usePlanner";
 import { useUnits } from "@/app/_components/units-context";
 import { LayerDiagram } from "@/app/_components/LayerDiagram";
@@ -27,8 +29,10 @@ function useConditioningTimes(packs: HoldParsed["packs"]): (number | null)[] | n
  * One printable page for the packer, from a hold input (a sizer candidate carried in the address, or a
  * saved hold plan): the hold and the conditioning times are computed in browser workers; nothing is saved.
  */
-export function PackOutSheet({ name, input, saved }: { name: string; input: HoldParsed; saved: boolean }) {
+export function PackOutSheet({ name, input, saved }: { name?: string; input: HoldParsed; saved: boolean }) {
+  // A saved plan is called by its name; a carried candidate by what it is, in the reader's units.
   const units = useUnits();
+  const title = name ?? carriedLabel(input, kit(units));
   const hold = usePlanner("hold", input);
   const times = useConditioningTimes(input.packs);
   const ready = hold.status === "ready" ? hold : null;
@@ -41,7 +45,7 @@ export function PackOutSheet({ name, input, saved }: { name: string; input: Hold
         <PrintButton />
       </header>
       <p>
-        <strong data-testid="sheet-name">{name}</strong> — {sheet.route}.
+        <strong data-testid="sheet-name">{title}</strong> — {sheet.route}.
       </p>
       {!saved ? (
         <p className="muted no-print" data-testid="sheet-unsaved">

@@ -8,5 +8,5 @@ export default async function CandidatePackOutSheet({ searchParams }: { searchPa
   const { from } = await searchParams;
   const carried = candidateHandoffSchema.safeParse(await decodeHandoff(from));
   if (!carried.success) notFound();
-  return <PackOutSheet name={carried.data.label} input={carried.data.input} saved={false} />;
+  return <PackOutSheet input={carried.data.input} saved={false} />;
 }
