@@ -12,6 +12,8 @@ export function LayerDiagram(props: {
   lid_m: number;
   packs: { name: string; count: number; thickness_m: number; placement: Placement; touchesLoad?: boolean }[];
   productLabel: string;
+  /** The wall and lid thicknesses in the reader's units: "lid 40 mm · walls 40 mm". */
+  wallsLabel: string;
 }) {
   const W = 420;
   const scale = (W - 40) / (props.inner.L + 2 * props.wall_m);
@@ -48,7 +50,7 @@ export function LayerDiagram(props: {
       <rect x={20} y={20} width={iw + 2 * w} height={ih + 2 * lid} fill="#ddd" stroke="#000" />
       <rect x={x0} y={y0} width={iw} height={ih} fill="#fff" stroke="#000" />
       <text x={22} y={14} fontSize={10}>
-        lid {Math.round(props.lid_m * 1000)} mm · walls {Math.round(props.wall_m * 1000)} mm
+        {props.wallsLabel}
       </text>
       {layers.map((l, i) => (
         <g key={i}>

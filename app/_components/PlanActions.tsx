@@ -7,7 +7,7 @@ import { downloadCsv } from "./csv";
 import { SavedNotice } from "./ResultParts";
 
 /** Save as a named plan (the server computes what it stores), download the curves as CSV, print the record. */
-export function PlanActions({ kind, input, csv, defaultName, csvName }: { kind: PlannerKind; input: unknown; csv: CsvRow[]; defaultName: string; csvName?: string }) {
+export function PlanActions({ kind, input, csv, defaultName, csvName, csvLabel = "Download curves (CSV)" }: { kind: PlannerKind; input: unknown; csv: CsvRow[]; defaultName: string; csvName?: string; csvLabel?: string }) {
   const [name, setName] = useState("");
   const [saved, setSaved] = useState<number | null>(null);
   const [problem, setProblem] = useState<string | null>(null);
@@ -34,7 +34,7 @@ export function PlanActions({ kind, input, csv, defaultName, csvName }: { kind: 
         {saving ? "Saving…" : "Save plan"}
       </button>
       <button type="button" className="secondary" disabled={!csv.length} onClick={() => downloadCsv(csvName ?? `holdline-${kind}.csv`, csv)}>
-        Download curves (CSV)
+        {csvLabel}
       </button>
       <button type="button" className="secondary" onClick={() => window.print()}>
         Print plan record

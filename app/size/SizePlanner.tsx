@@ -1,96 +1,152 @@
 "use client";
-import { useMemo, useRef, useState } from "react";
-import { useRouter } from "next/navigation";
-import { Controller, useFieldArray, useForm, useWatch } from "react-hook-form";
+import { useEffect, useMemo, useRef, useState } from "react";
+import { Controller, useFieldArray, useForm, useWatch, type FieldErrors, type FieldValues } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { CartesianGrid, ResponsiveContainer, Scatter, ScatterChart, Tooltip, XAxis, YAxis, ZAxis, Legend } from "recharts";
 import { sizeInputSchema, type SizeInput, type SizeParsed } from "@/lib/schemas/size";
-import type { Material, Pack, Product, Route, RuleSet, Shipper } from "@/lib/schemas/templates";
-import { planSizing, runSizing, candidateHoldInput, type SizingPlan, type SizingResult, type CandidateRow } from "@/lib/physics/sizing";
+import { PLACEMENTS } from "@/lib/schemas/hold";
+import { PACK_KIND_LABELS, type Material, type Pack, type Product, type Route, type RuleSet, type Shipper } from "@/lib/schemas/templates";
+import { planSizing, runSizing, type SizingPlan, type SizingResult, type CandidateRow } from "@/lib/physics/sizing";
 import { makePool, type FromWorker } from "@/lib/physics/sizing-worker";
-import { fromDisplay, formatQuantity, roundForDisplay, toDisplay, unitLabel } from "@/lib/units";
-import { formatDuration } from "@/lib/format";
+import { sizePlanner, boxLabel, candidateHold, candidateHoldText, litres, type CandidateHandoff } from "@/lib/planners/size";
+import { PLACEMENT_LABELS } from "@/lib/planners/hold";
+import { encodeHandoff } from "@/lib/planners/handoff";
+import { kit } from "@/lib/planners/view-kit";
+import { localizeText, roundForDisplay, toDisplay, unitLabel } from "@/lib/units";
 import { UnitInput } from "@/app/_components/UnitInput";
 import { useUnits } from "@/app/_components/units-context";
 import { CautionBlock } from "@/app/_components/CautionBlock";
-import { NamedSelect } from "@/app/_components/ResultParts";
-import { savePlanAction } from "@/app/plans/actions";
+import { NamedSelect, FieldMessage } from "@/app/_components/ResultParts";
+import { PlanView } from "@/app/_components/PlanView";
+import { PlanActions } from "@/app/_components/PlanActions";
+import { UnitListInput } from "./UnitListInput";
 
 type SortKey = "mass_kg" | "cost" | "outerVolume_m3" | "hold_s";
 
-export function SizePlanner(props: { products: Product[]; shippers: Shipper[]; packs: Pack[]; routes: Route[]; ruleSets: RuleSet[]; materials: Material[]; defaultRuleSet: string }) {
-  const units = useUnits();
-  const router = useRouter();
-  const { products, shippers, packs, routes, ruleSets, materials } = props;
-  const tUnit = unitLabel("temperature", units);
-  const lUnit = unitLabel("length", units);
-  // Candidate boxes and packs: which are in, and their ranges, as the person types them.
-  const [boxSel, setBoxSel] = useState<Record<string, { on: boolean; variants: string }>>(() => Object.fromEntries(shippers.map((s) => [s.name, { on: true, variants: "" }])));
-  const [packSel, setPackSel] = useState<Record<string, { on: boolean; min: string; max: string; cond: string; cost: string }>>(() =>
-    Object.fromEntries(
-      packs.map((p) => [p.name, { on: p.kind !== "dry_ice", min: "0", max: "6", cond: String(roundForDisplay(toDisplay("temperature", p.conditioning_C, units), 4)), cost: "0" }]),
-    ),
+export interface SizePlannerProps {
+  products: Product[];
+  shippers: Shipper[];
+  packs: Pack[];
+  routes: Route[];
+  ruleSets: RuleSet[];
+  materials: Material[];
+  defaultRuleSet: string;
+  /** A saved sizing reopened (`/size?plan=ID`): its inputs, and the result the server stored, if readable. */
+  initial?: SizeParsed;
+  initialResult?: SizingResult;
+  reopened?: string;
+}
+
+/** The first message anywhere inside a field's errors (a list's item errors included). */
+function firstMessage(e: unknown): string | undefined {
+  if (!e || typeof e !== "object") return undefined;
+  const m = (e as { message?: unknown }).message;
+  if (typeof m === "string" && m) return m;
+  for (const v of Object.values(e as Record<string, unknown>)) {
+    if (v && typeof v === "object" && v !== (e as { ref?: unknown }).ref) {
+      const x = firstMessage(v);
+      if (x) return x;
+    }
+  }
+  return undefined;
+}
+
+/** Every message in the form's errors, for the summary shown once when "Find pack-outs" is pressed. */
+function allMessages(e: FieldErrors<FieldValues>, out: string[] = []): string[] {
+  for (const [k, v] of Object.entries(e)) {
+    if (k === "ref" || !v || typeof v !== "object") continue;
+    const m = (v as { message?: unknown }).message;
+    if (typeof m === "string" && m && !out.includes(m)) out.push(m);
+    allMessages(v as FieldErrors<FieldValues>, out);
+  }
+  return out;
+}
+
+/** An address that carries a candidate to the hold planner or its sheet, made once the row is shown. */
+function HandoffLink({ to, carried, children, className }: { to: "/hold" | "/size/sheet"; carried: () => CandidateHandoff; children: React.ReactNode; className?: string }) {
+  const [href, setHref] = useState<string | null>(null);
+  const make = useRef(carried);
+  useEffect(() => {
+    let live = true;
+    void encodeHandoff(make.current()).then((from) => live && setHref(`${to}?from=${from}`));
+    return () => {
+      live = false;
+    };
+  }, [to]);
+  return href ? (
+    <a className={className} href={href}>
+      {children}
+    </a>
+  ) : (
+    <span className={className} aria-disabled="true">
+      {children}
+    </span>
   );
-  const form = useForm<SizeInput>({
-    resolver: zodResolver(sizeInputSchema) as never,
-    defaultValues: {
-      products: [{ product: products.find((p) => /chicken/i.test(p.name)) ?? products[0], count: 1, start_C: 2 }],
+}
+
+export function SizePlanner(props: SizePlannerProps) {
+  const units = useUnits();
+  const k = kit(units);
+  // A reopened sizing brings its own templates: offer them in the pickers even if the library changed.
+  const init = props.initial;
+  const withSnapshot = <T extends { name: string }>(xs: T[], extra: (T | undefined)[]) => [...xs, ...extra.filter((x): x is T => !!x && !xs.some((y) => y.name === x.name))];
+  const products = withSnapshot(props.products, init?.products.map((l) => l.product) ?? []);
+  const shippers = withSnapshot(props.shippers, init?.boxes.map((b) => b.shipper) ?? []);
+  const packs = withSnapshot(props.packs, init?.packs.map((p) => p.pack) ?? []);
+  const routes = withSnapshot(props.routes, [init?.route]);
+  const ruleSets = withSnapshot(props.ruleSets, [init?.ruleSet]);
+  const materials = withSnapshot(props.materials, init?.materials ?? []);
+  const packLine = (p: Pack): SizeInput["packs"][number] => ({ pack: p, minCount: 0, maxCount: 6, conditioning_C: [p.conditioning_C], placement: "around", touchesLoad: true, unitCost: 0 });
+  const form = useForm<SizeInput, unknown, SizeParsed>({
+    resolver: zodResolver(sizeInputSchema),
+    // Messages appear once a field is left, then follow each change; none is announced while typing.
+    mode: "onTouched",
+    defaultValues: (init as SizeInput | undefined) ?? {
+      products: products.length ? [{ product: products.find((p) => /chicken/i.test(p.name)) ?? products[0], count: 1, start_C: 2 }] : [],
       route: routes.find((r) => /overnight/i.test(r.name)) ?? routes[0],
       ruleSet: ruleSets.find((r) => r.name === props.defaultRuleSet) ?? ruleSets[0],
       materials,
-      boxes: [],
-      packs: [],
+      boxes: shippers.map((s) => ({ shipper: s, thicknessVariants_m: [], extraInsulationCost_per_m3: null })),
+      // Dry ice is offered but not tried unless asked for: it needs ventilation and UN 1845 marking.
+      packs: packs.filter((p) => p.kind !== "dry_ice").map(packLine),
       margin: { kind: "percent", value: 20 },
       judgeBy: "low",
+      boxStart_C: null,
     },
   });
-  const { control, register, setValue, handleSubmit, formState } = form;
-  const lines = useFieldArray({ control, name: "products" });
+  const { control, register, setValue, getValues, handleSubmit, formState } = form;
+  const e = formState.errors;
+  const productLines = useFieldArray({ control, name: "products" });
+  const boxLines = useFieldArray({ control, name: "boxes" });
+  const packLines = useFieldArray({ control, name: "packs" });
   const values = useWatch({ control }) as SizeInput;
   const [running, setRunning] = useState<{ done: number; total: number } | null>(null);
-  const [result, setResult] = useState<{ r: SizingResult; inp: SizeParsed; plan: SizingPlan } | null>(null);
-  const [error, setError] = useState<string | null>(null);
+  const [result, setResult] = useState<{ r: SizingResult; inp: SizeParsed; plan: SizingPlan; ranWith: string } | null>(() => {
+    if (!init || !props.initialResult) return null;
+    try {
+      return { r: props.initialResult, inp: init, plan: planSizing(init), ranWith: JSON.stringify(init) };
+    } catch {
+      return null;
+    }
+  });
+  const [problem, setProblem] = useState<{ message: string; list: string[] } | null>(null);
   const [sort, setSort] = useState<SortKey>("mass_kg");
   const [showAll, setShowAll] = useState(false);
   const stopRef = useRef<(() => void) | null>(null);
 
-  const derived = () => {
-    const boxes = shippers
-      .filter((s) => boxSel[s.name]?.on)
-      .map((s) => ({
-        shipper: s,
-        thicknessVariants_m: boxSel[s.name].variants
-          .split(/[,;\s]+/)
-          .filter(Boolean)
-          .map((x) => fromDisplay("length", Number(x), units)),
-      }));
-    const ps = packs
-      .filter((p) => packSel[p.name]?.on)
-      .map((p) => {
-        const s = packSel[p.name];
-        return {
-          pack: p,
-          minCount: Number(s.min),
-          maxCount: Number(s.max),
-          conditioning_C: s.cond
-            .split(/[,;\s]+/)
-            .filter(Boolean)
-            .map((x) => fromDisplay("temperature", Number(x), units)),
-          placement: "around" as const,
-          unitCost: Number(s.cost || 0),
-        };
-      });
-    return { boxes, packs: ps };
-  };
+  /** A line's message, named by its template: "Gel pack, 600 g: Most must be at least Fewest". */
+  const named = (who: string | undefined, msg: string | undefined) => (msg ? `${who ? `${who}: ` : ""}${localizeText(msg, units)}` : undefined);
+  const described = (id: string, msg: string | undefined) => ({ "aria-invalid": msg ? true : undefined, "aria-describedby": msg ? id : undefined });
 
   async function start(inp: SizeParsed) {
-    setError(null);
+    setProblem(null);
     setResult(null);
+    const ranWith = JSON.stringify(getValues());
     let plan: SizingPlan;
     try {
       plan = planSizing(inp);
-    } catch (e) {
-      setError((e as Error).message);
+    } catch (err) {
+      setProblem({ message: localizeText((err as Error).message, units), list: [] });
       return;
     }
     const n = Math.max(1, Math.min(2, navigator.hardwareConcurrency || 2));
@@ -99,10 +155,10 @@ export function SizePlanner(props: { products: Product[]; shippers: Shipper[]; p
     let live = 0;
     setRunning({ done: 0, total: plan.candidates.length });
     const evaluate = makePool(
-      workers.map((w) => ({ post: (m) => w.postMessage(m), onMessage: (f: (m: FromWorker) => void) => w.addEventListener("message", (e: MessageEvent<FromWorker>) => f(e.data)) })),
+      workers.map((w) => ({ post: (m) => w.postMessage(m), onMessage: (f: (m: FromWorker) => void) => w.addEventListener("message", (ev: MessageEvent<FromWorker>) => f(ev.data)) })),
       inp,
-      (k) => {
-        live += k;
+      (c) => {
+        live += c;
         setRunning({ done: Math.min(plan.candidates.length, base + live), total: plan.candidates.length });
       },
     );
@@ -121,9 +177,9 @@ export function SizePlanner(props: { products: Product[]; shippers: Shipper[]; p
           setRunning({ done: d, total: t });
         },
       });
-      setResult({ r, inp, plan });
-    } catch (e) {
-      setError((e as Error).message === "cancelled" ? "Stopped. Nothing was changed." : (e as Error).message);
+      setResult({ r, inp, plan, ranWith });
+    } catch (err) {
+      setProblem({ message: (err as Error).message === "cancelled" ? "Stopped. Nothing was changed." : localizeText((err as Error).message, units), list: [] });
     } finally {
       workers.forEach((w) => w.terminate());
       stopRef.current = null;
@@ -131,79 +187,89 @@ export function SizePlanner(props: { products: Product[]; shippers: Shipper[]; p
     }
   }
 
-  async function openAs(row: CandidateRow, where: "plan" | "sheet") {
-    if (!result) return;
-    const c = result.plan.candidates[row.index];
-    const hold = { ...candidateHoldInput(result.inp, c, 0.5), uncertainty: result.inp.uncertainty };
-    const name = `${row.boxName} + ${row.packs.map((p) => `${p.count} × ${p.name}`).join(", ")}`;
-    const res = await savePlanAction({ kind: "hold", name, input: hold, result: { from: "pack-out sizer", hold_s: row.hold_s, mass_kg: row.mass_kg, cost: row.cost, outerVolume_m3: row.outerVolume_m3 } });
-    if (res.ok) router.push(where === "plan" ? `/hold?plan=${res.id}` : `/size/sheet/${res.id}`);
-  }
-
   const rows = useMemo(() => {
     if (!result) return [];
     const holding = result.r.candidates.filter((c) => c.holds);
-    const key = (c: CandidateRow) => (sort === "hold_s" ? -(c.hold_s ?? Infinity) : c[sort]);
+    const key = (c: CandidateRow) => (sort === "hold_s" ? -(c.pruned ? Infinity : (c.hold_s ?? Infinity)) : c[sort]);
     return [...holding].sort((a, b) => {
       const pa = result.r.pareto.includes(a.index) ? 0 : 1;
       const pb = result.r.pareto.includes(b.index) ? 0 : 1;
-      return pa - pb || key(a) - key(b);
+      return pa - pb || key(a) - key(b) || a.index - b.index;
     });
   }, [result, sort]);
+  const view = useMemo(() => (result ? sizePlanner.view(result.inp, result.r, units) : null), [result, units]);
+  const csv = useMemo(() => (result ? sizePlanner.csv(result.inp, result.r, units) : []), [result, units]);
+  const stale = !!result && JSON.stringify(values) !== result.ranWith;
 
   return (
     <div className="planner size">
+      {props.reopened ? (
+        <p className="banner ok no-print" role="status" style={{ gridColumn: "1 / -1" }}>
+          Reopened the saved sizing &ldquo;{props.reopened}&rdquo; with the templates as they were when it was saved.
+        </p>
+      ) : null}
       <form
-        className="template-form planner-inputs"
+        className="template-form planner-inputs no-print"
         noValidate
-        onSubmit={(ev) => {
-          ev.preventDefault();
-          const d = derived();
-          setValue("boxes", d.boxes as never);
-          setValue("packs", d.packs as never);
-          void handleSubmit((inp) => start(inp as SizeParsed), () => setError("Some inputs need attention; see the messages beside them."))();
-        }}
+        onSubmit={(ev) =>
+          void handleSubmit(
+            (inp) => start(inp),
+            (errs) => setProblem({ message: "Some inputs need attention; see the messages beside them.", list: allMessages(errs).map((m) => localizeText(m, units)) }),
+          )(ev)
+        }
       >
         <fieldset className="group">
           <legend>Load</legend>
-          {lines.fields.map((f, i) => (
-            <div key={f.id} className="line">
-              <div className="field">
-                <label htmlFor={`sp-${i}`}>Product {i + 1}</label>
-                <NamedSelect id={`sp-${i}`} items={products} value={values.products?.[i]?.product?.name} onChange={(x) => setValue(`products.${i}.product`, x)} />
-              </div>
-              <div className="inline">
+          {productLines.fields.map((f, i) => {
+            const who = values.products?.[i]?.product?.name;
+            const mc = named(who, e.products?.[i]?.count?.message);
+            const mt = named(who, e.products?.[i]?.start_C?.message);
+            return (
+              <div key={f.id} className="line" data-testid={`product-line-${i}`}>
                 <div className="field">
-                  <label htmlFor={`spc-${i}`}>How many</label>
-                  <input id={`spc-${i}`} type="number" min={1} {...register(`products.${i}.count`, { valueAsNumber: true })} />
+                  <label htmlFor={`sp-${i}`}>Product {i + 1}</label>
+                  <NamedSelect id={`sp-${i}`} items={products} value={who} onChange={(x) => setValue(`products.${i}.product`, x, { shouldValidate: true })} />
                 </div>
-                <div className="field">
-                  <label htmlFor={`spt-${i}`}>Packed at</label>
-                  <Controller control={control} name={`products.${i}.start_C`} render={({ field }) => <UnitInput id={`spt-${i}`} quantity="temperature" value={field.value as number} onChange={field.onChange} />} />
+                <div className="inline">
+                  <div className="field">
+                    <label htmlFor={`spc-${i}`}>How many</label>
+                    <input id={`spc-${i}`} type="number" min={1} step={1} {...register(`products.${i}.count`, { valueAsNumber: true })} {...described(`spc-${i}-msg`, mc)} />
+                    <FieldMessage id={`spc-${i}-msg`} msg={mc} />
+                  </div>
+                  <div className="field">
+                    <label htmlFor={`spt-${i}`}>Packed at</label>
+                    <Controller
+                      control={control}
+                      name={`products.${i}.start_C`}
+                      render={({ field }) => <UnitInput id={`spt-${i}`} quantity="temperature" value={field.value as number} onChange={field.onChange} onBlur={field.onBlur} invalid={!!mt} describedBy={mt ? `spt-${i}-msg` : undefined} />}
+                    />
+                    <FieldMessage id={`spt-${i}-msg`} msg={mt} />
+                  </div>
+                  <button type="button" className="secondary" onClick={() => productLines.remove(i)} aria-label={`Remove product ${i + 1}${who ? ` (${who})` : ""}`}>
+                    Remove
+                  </button>
                 </div>
-                <button type="button" className="secondary" onClick={() => lines.remove(i)} aria-label={`Remove product ${i + 1}`}>
-                  Remove
-                </button>
               </div>
-            </div>
-          ))}
-          <button type="button" className="secondary" onClick={() => lines.append({ product: products[0], count: 1, start_C: 3 })}>
+            );
+          })}
+          <button type="button" className="secondary" onClick={() => productLines.append({ product: products[0], count: 1, start_C: 3 })}>
             Add a product
           </button>
-          {formState.errors.products?.message ? <p className="field-error">{formState.errors.products.message}</p> : null}
+          <FieldMessage id="products-msg" msg={e.products?.message ?? e.products?.root?.message} />
         </fieldset>
         <div className="field">
           <label htmlFor="s-route">Route</label>
-          <NamedSelect id="s-route" items={routes} value={values.route?.name} onChange={(x) => setValue("route", x)} />
+          <NamedSelect id="s-route" items={routes} value={values.route?.name} onChange={(x) => setValue("route", x, { shouldValidate: true })} />
         </div>
         <div className="field">
           <label htmlFor="s-rules">Rule set</label>
-          <NamedSelect id="s-rules" items={ruleSets} value={values.ruleSet?.name} onChange={(x) => setValue("ruleSet", x)} />
+          <NamedSelect id="s-rules" items={ruleSets} value={values.ruleSet?.name} onChange={(x) => setValue("ruleSet", x, { shouldValidate: true })} />
         </div>
         <div className="inline">
           <div className="field">
             <label htmlFor="s-margin">Margin</label>
-            <input id="s-margin" type="number" min={0} step="any" {...register("margin.value", { valueAsNumber: true })} />
+            <input id="s-margin" type="number" min={0} step="any" {...register("margin.value", { valueAsNumber: true })} {...described("s-margin-msg", e.margin?.value?.message)} />
+            <FieldMessage id="s-margin-msg" msg={e.margin?.value?.message} />
           </div>
           <div className="field">
             <label htmlFor="s-mkind">as</label>
@@ -222,49 +288,124 @@ export function SizePlanner(props: { products: Product[]; shippers: Shipper[]; p
         </div>
         <fieldset className="group">
           <legend>Candidate boxes</legend>
-          {shippers.map((s) => (
-            <div key={s.name} className="line">
-              <label className="checkbox">
-                <input type="checkbox" checked={boxSel[s.name]?.on ?? false} onChange={(e) => setBoxSel({ ...boxSel, [s.name]: { ...boxSel[s.name], on: e.target.checked } })} /> {s.name}
-              </label>
-              <div className="field">
-                <label htmlFor={`bv-${s.name}`}>Also try insulation thicknesses ({lUnit}, comma-separated)</label>
-                <input id={`bv-${s.name}`} value={boxSel[s.name]?.variants ?? ""} onChange={(e) => setBoxSel({ ...boxSel, [s.name]: { ...boxSel[s.name], variants: e.target.value } })} />
-              </div>
-            </div>
-          ))}
-        </fieldset>
-        <fieldset className="group">
-          <legend>Candidate packs</legend>
-          {packs.map((p) => {
-            const s = packSel[p.name];
-            const set = (k: keyof typeof s, v: string | boolean) => setPackSel({ ...packSel, [p.name]: { ...s, [k]: v } });
+          {boxLines.fields.map((f, i) => {
+            const who = values.boxes?.[i]?.shipper?.name;
+            const mv = named(who, firstMessage(e.boxes?.[i]?.thicknessVariants_m));
             return (
-              <div key={p.name} className="line">
-                <label className="checkbox">
-                  <input type="checkbox" checked={s.on} onChange={(e) => set("on", e.target.checked)} /> {p.name}
-                </label>
+              <div key={f.id} className="line" data-testid={`box-line-${i}`}>
+                <div className="field">
+                  <label htmlFor={`bx-${i}`}>Box {i + 1}</label>
+                  <NamedSelect id={`bx-${i}`} items={shippers} value={who} onChange={(x) => setValue(`boxes.${i}.shipper`, x, { shouldValidate: true })} />
+                </div>
                 <div className="inline">
                   <div className="field">
-                    <label htmlFor={`pmin-${p.name}`}>Fewest</label>
-                    <input id={`pmin-${p.name}`} type="number" min={0} value={s.min} onChange={(e) => set("min", e.target.value)} />
+                    <label htmlFor={`bv-${i}`}>Also try insulation thicknesses</label>
+                    <Controller
+                      control={control}
+                      name={`boxes.${i}.thicknessVariants_m`}
+                      render={({ field }) => (
+                        <UnitListInput id={`bv-${i}`} quantity="length" placeholder="none; e.g. 30, 50" value={field.value} onChange={field.onChange} onBlur={field.onBlur} invalid={!!mv} describedBy={mv ? `bv-${i}-msg` : undefined} />
+                      )}
+                    />
+                    <FieldMessage id={`bv-${i}-msg`} msg={mv} />
                   </div>
-                  <div className="field">
-                    <label htmlFor={`pmax-${p.name}`}>Most</label>
-                    <input id={`pmax-${p.name}`} type="number" min={0} value={s.max} onChange={(e) => set("max", e.target.value)} />
-                  </div>
-                  <div className="field">
-                    <label htmlFor={`pcond-${p.name}`}>Conditioned at ({tUnit})</label>
-                    <input id={`pcond-${p.name}`} value={s.cond} onChange={(e) => set("cond", e.target.value)} />
-                  </div>
-                  <div className="field">
-                    <label htmlFor={`pcost-${p.name}`}>Cost each</label>
-                    <input id={`pcost-${p.name}`} type="number" min={0} step="any" value={s.cost} onChange={(e) => set("cost", e.target.value)} />
-                  </div>
+                  <button type="button" className="secondary" onClick={() => boxLines.remove(i)} aria-label={`Remove box ${i + 1}${who ? ` (${who})` : ""}`}>
+                    Remove
+                  </button>
                 </div>
               </div>
             );
           })}
+          <button
+            type="button"
+            className="secondary"
+            onClick={() => boxLines.append({ shipper: shippers.find((s) => !values.boxes?.some((b) => b?.shipper?.name === s.name)) ?? shippers[0], thicknessVariants_m: [], extraInsulationCost_per_m3: null })}
+          >
+            Add a box
+          </button>
+          <FieldMessage id="boxes-msg" msg={e.boxes?.message ?? e.boxes?.root?.message} />
+        </fieldset>
+        <fieldset className="group">
+          <legend>Candidate packs</legend>
+          {packLines.fields.map((f, i) => {
+            const line = values.packs?.[i];
+            const who = line?.pack?.name;
+            const dry = line?.pack?.kind === "dry_ice";
+            const pe = e.packs?.[i];
+            const mMin = named(who, pe?.minCount?.message);
+            const mMax = named(who, pe?.maxCount?.message);
+            const mCond = named(who, firstMessage(pe?.conditioning_C));
+            const mCost = named(who, pe?.unitCost?.message);
+            return (
+              <div key={f.id} className="line" data-testid={`pack-line-${i}`}>
+                <div className="field">
+                  <label htmlFor={`pk-${i}`}>Pack {i + 1}</label>
+                  <NamedSelect
+                    id={`pk-${i}`}
+                    items={packs}
+                    value={who}
+                    onChange={(p) => {
+                      setValue(`packs.${i}.pack`, p, { shouldValidate: true });
+                      setValue(`packs.${i}.conditioning_C`, [p.conditioning_C], { shouldValidate: true });
+                    }}
+                  />
+                  {line?.pack?.kind ? <p className="muted">{PACK_KIND_LABELS[line.pack.kind]}</p> : null}
+                </div>
+                <div className="inline">
+                  <div className="field">
+                    <label htmlFor={`pmin-${i}`}>Fewest</label>
+                    <input id={`pmin-${i}`} type="number" min={0} step={1} {...register(`packs.${i}.minCount`, { valueAsNumber: true, deps: [`packs.${i}.maxCount`] })} {...described(`pmin-${i}-msg`, mMin)} />
+                    <FieldMessage id={`pmin-${i}-msg`} msg={mMin} />
+                  </div>
+                  <div className="field">
+                    <label htmlFor={`pmax-${i}`}>Most</label>
+                    <input id={`pmax-${i}`} type="number" min={0} step={1} {...register(`packs.${i}.maxCount`, { valueAsNumber: true })} {...described(`pmax-${i}-msg`, mMax)} />
+                    <FieldMessage id={`pmax-${i}-msg`} msg={mMax} />
+                  </div>
+                  <div className="field">
+                    {dry ? <span className="muted">Conditioned: as delivered</span> : <label htmlFor={`pcond-${i}`}>Conditioned at</label>}
+                    {dry ? null : (
+                      <Controller
+                        control={control}
+                        name={`packs.${i}.conditioning_C`}
+                        render={({ field }) => (
+                          <UnitListInput id={`pcond-${i}`} quantity="temperature" value={field.value} onChange={field.onChange} onBlur={field.onBlur} invalid={!!mCond} describedBy={mCond ? `pcond-${i}-msg` : undefined} />
+                        )}
+                      />
+                    )}
+                    <FieldMessage id={`pcond-${i}-msg`} msg={mCond} />
+                  </div>
+                  <div className="field">
+                    <label htmlFor={`pcost-${i}`}>Cost each</label>
+                    <input id={`pcost-${i}`} type="number" min={0} step="any" {...register(`packs.${i}.unitCost`, { valueAsNumber: true })} {...described(`pcost-${i}-msg`, mCost)} />
+                    <FieldMessage id={`pcost-${i}-msg`} msg={mCost} />
+                  </div>
+                </div>
+                <div className="inline">
+                  <div className="field">
+                    <label htmlFor={`ppl-${i}`}>Placed</label>
+                    <select id={`ppl-${i}`} {...register(`packs.${i}.placement`)}>
+                      {PLACEMENTS.map((p) => (
+                        <option key={p} value={p}>
+                          {PLACEMENT_LABELS[p]}
+                        </option>
+                      ))}
+                    </select>
+                  </div>
+                  <label className="checkbox">
+                    <input type="checkbox" {...register(`packs.${i}.touchesLoad`)} /> touching the load
+                  </label>
+                  <button type="button" className="secondary" onClick={() => packLines.remove(i)} aria-label={`Remove pack ${i + 1}${who ? ` (${who})` : ""}`}>
+                    Remove
+                  </button>
+                </div>
+              </div>
+            );
+          })}
+          <button type="button" className="secondary" onClick={() => packLines.append(packLine(packs.find((p) => !values.packs?.some((l) => l?.pack?.name === p.name)) ?? packs[0]))}>
+            Add a pack
+          </button>
+          <FieldMessage id="packs-msg" msg={e.packs?.message ?? e.packs?.root?.message} />
         </fieldset>
         <div className="form-actions">
           <button type="submit" disabled={!!running}>
@@ -278,151 +419,134 @@ export function SizePlanner(props: { products: Product[]; shippers: Shipper[]; p
         </div>
       </form>
 
-      <section className="planner-results" aria-live="polite" data-testid="size-results">
+      <section className="planner-results" data-testid="size-results">
         {running ? (
-          <div data-testid="size-progress">
+          <div data-testid="size-progress" role="status" aria-live="polite">
             <p>
               Working: {running.done} of {running.total} candidates
             </p>
-            <progress value={running.done} max={running.total} style={{ width: "100%" }} />
+            <progress value={running.done} max={running.total} style={{ width: "100%" }} aria-label="Candidates worked out" />
           </div>
         ) : null}
-        {error ? (
-          <div className="banner error" role="alert">
-            <p>{error}</p>
-            {formState.errors.boxes || formState.errors.packs ? (
+        {problem ? (
+          <div className="banner error" role="alert" data-testid="size-errors">
+            <p>{problem.message}</p>
+            {problem.list.length ? (
               <ul>
-                {[formState.errors.boxes?.message, formState.errors.packs?.message, ...(Array.isArray(formState.errors.packs) ? formState.errors.packs.map((e) => e?.maxCount?.message ?? e?.conditioning_C?.message) : [])]
-                  .filter(Boolean)
-                  .map((m) => (
-                    <li key={m}>{m}</li>
-                  ))}
+                {problem.list.map((m) => (
+                  <li key={m}>{m}</li>
+                ))}
               </ul>
             ) : null}
           </div>
         ) : null}
-        {result ? <Results /> : !running ? <p className="muted">Choose the load, the route and the candidates, then find the pack-outs that hold.</p> : null}
-        <CautionBlock dryIce={!!result?.inp.packs.some((p) => p.pack.kind === "dry_ice")} />
+        {result && view ? (
+          <>
+            {stale ? (
+              <p className="banner conflict no-print" role="status">
+                The inputs changed since this search: press &ldquo;Find pack-outs&rdquo; to search again. Saving keeps the search shown.
+              </p>
+            ) : null}
+            <PlanView view={view} stale={stale} />
+            {candidates()}
+            <PlanActions kind="size" input={result.inp} csv={csv} defaultName={sizePlanner.defaultName(result.inp)} csvName="holdline-pack-out-candidates.csv" csvLabel="Download candidates (CSV)" />
+          </>
+        ) : !running ? (
+          <>
+            <p className="muted">Choose the load, the route and the candidates, then find the pack-outs that hold.</p>
+            <CautionBlock />
+          </>
+        ) : null}
       </section>
     </div>
   );
 
-  function Results() {
-    const { r } = result!;
+  /** The interactive part: the trade-off chart and every candidate that holds, each with its two ways on. */
+  function candidates() {
+    const { r, inp, plan } = result!;
     const holding = r.candidates.filter((c) => c.holds);
+    if (!holding.length) return null;
     const front = holding.filter((c) => r.pareto.includes(c.index));
+    const point = (c: CandidateRow) => ({ mass: roundForDisplay(toDisplay("mass", c.mass_kg, units), 4), cost: c.cost, vol: Math.round(c.outerVolume_m3 * 1000) });
+    const carried = (c: CandidateRow) => (): CandidateHandoff => ({ input: candidateHold(inp, plan.candidates[c.index]) });
     return (
-      <>
-        <h2 data-testid="size-headline">
-          {holding.length} of {r.candidates.length} candidates hold for {formatDuration(r.required_s)} ({formatDuration(r.routeLength_s)} route + margin)
-        </h2>
-        <p className="muted">
-          {r.evaluated} run through the hold model, {r.pruned} decided by monotonicity (more of the same pack never shortens the hold), {r.doesNotFit} did not fit.
-        </p>
-        {r.message ? (
-          <p className="banner conflict" role="status">
-            {r.message}
+      <section className="no-print">
+        <h3>Trade-offs</h3>
+        <div style={{ width: "100%", height: 260 }} data-testid="pareto-chart" role="img" aria-label={`Packed mass against cost of the ${holding.length} candidates that hold; ${front.length} are best trade-offs`}>
+          <ResponsiveContainer>
+            <ScatterChart margin={{ top: 10, right: 20, bottom: 24, left: 8 }}>
+              <CartesianGrid stroke="#e3e6e8" />
+              <XAxis dataKey="mass" type="number" name="packed mass" unit={` ${unitLabel("mass", units)}`} domain={["auto", "auto"]} />
+              <YAxis dataKey="cost" type="number" name="cost" domain={["auto", "auto"]} />
+              <ZAxis dataKey="vol" range={[30, 200]} name="outer volume (L)" />
+              <Tooltip />
+              <Legend verticalAlign="top" height={24} />
+              <Scatter name="holds" data={holding.filter((c) => !r.pareto.includes(c.index)).slice(0, 400).map(point)} fill="#b9c2c7" isAnimationActive={false} />
+              <Scatter name="best trade-offs" data={front.map(point)} fill="#235a6b" isAnimationActive={false} />
+            </ScatterChart>
+          </ResponsiveContainer>
+        </div>
+        <h3>Candidates that hold</h3>
+        <table className="list" data-testid="size-table">
+          <thead>
+            <tr>
+              <th scope="col">
+                <span className="visually-hidden">Best trade-off</span>
+              </th>
+              <th scope="col">Box</th>
+              <th scope="col">Packs</th>
+              {(
+                [
+                  ["mass_kg", "Packed mass"],
+                  ["cost", "Cost"],
+                  ["outerVolume_m3", "Outer volume"],
+                  ["hold_s", "Hold"],
+                ] as [SortKey, string][]
+              ).map(([key, label]) => (
+                <th key={key} scope="col" aria-sort={sort === key ? (key === "hold_s" ? "descending" : "ascending") : undefined}>
+                  <button type="button" className="link" onClick={() => setSort(key)} aria-pressed={sort === key}>
+                    {label}
+                    {sort === key ? " ▲" : ""}
+                  </button>
+                </th>
+              ))}
+              <th scope="col">
+                <span className="visually-hidden">Open</span>
+              </th>
+            </tr>
+          </thead>
+          <tbody>
+            {rows.slice(0, showAll ? 500 : 25).map((c) => (
+              <tr key={c.index} data-pareto={r.pareto.includes(c.index) || undefined}>
+                <td title={r.pareto.includes(c.index) ? "a best trade-off" : ""}>{r.pareto.includes(c.index) ? "★" : ""}</td>
+                <td>{boxLabel(c.boxName, k)}</td>
+                <td>{c.packs.map((p) => `${p.count} × ${p.name} at ${k.temp(p.conditioning_C)}`).join("; ")}</td>
+                <td>{k.mass(c.mass_kg)}</td>
+                <td>{c.cost.toFixed(2)}</td>
+                <td>{litres(c.outerVolume_m3)}</td>
+                <td>{candidateHoldText(c, r.required_s, k)}</td>
+                <td className="row-actions">
+                  <HandoffLink to="/hold" carried={carried(c)} className="button">
+                    Open in the hold planner
+                  </HandoffLink>{" "}
+                  <HandoffLink to="/size/sheet" carried={carried(c)} className="button secondary">
+                    Pack-out sheet
+                  </HandoffLink>
+                </td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+        {rows.length > 25 ? (
+          <p className="muted">
+            Showing {showAll ? Math.min(500, rows.length) : 25} of {rows.length} that hold, best trade-offs first.{" "}
+            <button type="button" className="link" onClick={() => setShowAll(!showAll)}>
+              {showAll ? "Show fewer" : "Show more"}
+            </button>
           </p>
         ) : null}
-        {holding.length ? (
-          <>
-            <div style={{ width: "100%", height: 260 }} data-testid="pareto-chart">
-              <ResponsiveContainer>
-                <ScatterChart margin={{ top: 10, right: 20, bottom: 24, left: 8 }}>
-                  <CartesianGrid stroke="#e3e6e8" />
-                  <XAxis dataKey="mass" type="number" name="packed mass" unit={` ${unitLabel("mass", units)}`} domain={["auto", "auto"]} />
-                  <YAxis dataKey="cost" type="number" name="cost" domain={["auto", "auto"]} />
-                  <ZAxis dataKey="vol" range={[30, 200]} name="outer volume (L)" />
-                  <Tooltip />
-                  <Legend verticalAlign="top" height={24} />
-                  <Scatter name="holds" data={holding.filter((c) => !r.pareto.includes(c.index)).slice(0, 400).map((c) => ({ mass: roundForDisplay(toDisplay("mass", c.mass_kg, units), 4), cost: c.cost, vol: Math.round(c.outerVolume_m3 * 1000) }))} fill="#b9c2c7" isAnimationActive={false} />
-                  <Scatter name="best trade-offs (Pareto front)" data={front.map((c) => ({ mass: roundForDisplay(toDisplay("mass", c.mass_kg, units), 4), cost: c.cost, vol: Math.round(c.outerVolume_m3 * 1000) }))} fill="#235a6b" isAnimationActive={false} />
-                </ScatterChart>
-              </ResponsiveContainer>
-            </div>
-            <table className="list" data-testid="size-table">
-              <thead>
-                <tr>
-                  <th />
-                  <th>Box</th>
-                  <th>Packs</th>
-                  {(
-                    [
-                      ["mass_kg", "Packed mass"],
-                      ["cost", "Cost"],
-                      ["outerVolume_m3", "Outer volume"],
-                      ["hold_s", "Hold"],
-                    ] as [SortKey, string][]
-                  ).map(([k, label]) => (
-                    <th key={k}>
-                      <button type="button" className="link" onClick={() => setSort(k)} aria-pressed={sort === k}>
-                        {label}
-                        {sort === k ? " ▲" : ""}
-                      </button>
-                    </th>
-                  ))}
-                  <th />
-                </tr>
-              </thead>
-              <tbody>
-                {rows.slice(0, showAll ? 500 : 25).map((c) => (
-                  <tr key={c.index} data-pareto={r.pareto.includes(c.index) || undefined}>
-                    <td title={r.pareto.includes(c.index) ? "on the Pareto front" : ""}>{r.pareto.includes(c.index) ? "★" : ""}</td>
-                    <td>{c.boxName}</td>
-                    <td>{c.packs.map((p) => `${p.count} × ${p.name} at ${formatQuantity("temperature", p.conditioning_C, units, 3)}`).join("; ")}</td>
-                    <td>{formatQuantity("mass", c.mass_kg, units, 3)}</td>
-                    <td>{c.cost.toFixed(2)}</td>
-                    <td>{(c.outerVolume_m3 * 1000).toFixed(1)} L</td>
-                    <td>{c.pruned ? "holds (not run)" : c.hold_s === null ? `> ${formatDuration(r.required_s)}` : `${c.holdIsUpperBound ? "at most " : ""}${formatDuration(c.hold_s)}`}</td>
-                    <td className="row-actions">
-                      <button type="button" onClick={() => openAs(c, "plan")}>
-                        Open as plan
-                      </button>
-                      <button type="button" className="secondary" onClick={() => openAs(c, "sheet")}>
-                        Pack-out sheet
-                      </button>
-                    </td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-            {rows.length > 25 ? (
-              <p className="muted">
-                Showing {showAll ? Math.min(500, rows.length) : 25} of {rows.length} that hold, best trade-offs first.{" "}
-                <button type="button" className="link" onClick={() => setShowAll(!showAll)}>
-                  {showAll ? "Show fewer" : "Show more"}
-                </button>
-              </p>
-            ) : null}
-          </>
-        ) : null}
-        {r.nearMisses.length ? (
-          <>
-            <h3>Near misses</h3>
-            <ul className="facts" data-testid="near-misses">
-              {r.nearMisses.map((n) => {
-                const c = r.candidates.find((x) => x.index === n.index)!;
-                return (
-                  <li key={n.index}>
-                    {c.boxName} with {c.packs.map((p) => `${p.count} × ${p.name}`).join(", ")}: holds {formatDuration(n.hold_s)} — {n.reason}
-                  </li>
-                );
-              })}
-            </ul>
-          </>
-        ) : null}
-        <h3>How it was judged</h3>
-        <ul className="facts">
-          <li>
-            Every candidate is run through the hold model at the {result!.inp.judgeBy === "low" ? "low end of the uncertainty band: the shortest hold over the central run and every corner of the outer coefficient, insulation conductivity and conditioning spreads, the same runs as the hold planner's range (with sun no single corner is always the worst; only the conditioning side that provably cannot fail first is skipped)" : "central estimate"}.
-          </li>
-          <li>A candidate already short of three quarters of the required hold is not run at its remaining corners: its hold shows as &ldquo;at most&rdquo;.</li>
-          <li>The Pareto front keeps each candidate that no other beats on packed mass, cost and outer volume at once.</li>
-          <li>A wall-thickness variant adds (or saves) its insulation&rsquo;s mass, and its cost at the box&rsquo;s own insulation cost per m³ where given, else at the box&rsquo;s price spread over its shell volume (as if the price were all insulation).</li>
-          <li>Packs are placed as each line says (&ldquo;around&rdquo; shares them over top, underneath and sides) and touch the load, as in the hold planner.</li>
-          <li>Open a candidate as a plan to see its full curves and uncertainty band.</li>
-        </ul>
-      </>
+        <p className="muted">Opening a candidate saves nothing: save it from the hold planner, or save this sizing below.</p>
+      </section>
     );
   }
 }

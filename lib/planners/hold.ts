@@ -7,7 +7,8 @@ import type { PlannerEntry, ChartSpec } from "./types";
 import { kit, limitLines, PALETTE, tCol, csvT, round3, mCol, csvM, SIGNATURE_LINE } from "./view-kit";
 
 const WH = 3600;
-const PLACEMENT_LABELS: Record<HoldParsed["packs"][number]["placement"], string> = { around: "around the load", top: "on top", bottom: "underneath", side: "at one side" };
+/** How a placement reads: "around the load", "on top"… */
+export const PLACEMENT_LABELS: Record<HoldParsed["packs"][number]["placement"], string> = { around: "around the load", top: "on top", bottom: "underneath", side: "at one side" };
 
 export const holdPlanner: PlannerEntry<typeof holdInputSchema, HoldResult> = {
   kind: "hold",
