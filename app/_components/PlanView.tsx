@@ -1,11 +1,20 @@
 "use client";
+import { memo, useMemo } from "react";
+import { thin } from "@/lib/planners/view-kit";
 import type { ChartSpec, PlanView as View } from "@/lib/planners/types";
 import { PackStateChart, TemperatureChart } from "./TemperatureChart";
 import { CautionBlock } from "./CautionBlock";
 import { ComplianceList, FactList } from "./ResultParts";
 
-/** A chart of a result, as its planner's view describes it: pack state on its fixed 0–100 % axis, else temperatures. */
-export function ChartFromSpec({ spec }: { spec: ChartSpec }) {
+/** Points a chart draws at most: more adds nothing a reader sees and costs the page's thread (recharts draws in SVG). */
+const CHART_POINTS = 160;
+
+/**
+ * A chart of a result, as its planner's view describes it: pack state on its fixed 0–100 % axis, else
+ * temperatures. Memoised on the spec, so typing in the form never redraws a chart whose result did not change.
+ */
+export const ChartFromSpec = memo(function ChartFromSpec({ spec: full }: { spec: ChartSpec }) {
+  const spec = useMemo(() => ({ ...full, data: thin(full.data, CHART_POINTS) }), [full]);
   const edge = (v: number | undefined) => (v !== undefined && Number.isFinite(v) ? v : null);
   return (
     <figure className="chart-figure">
@@ -26,7 +35,7 @@ export function ChartFromSpec({ spec }: { spec: ChartSpec }) {
       )}
     </figure>
   );
-}
+});
 
 /**
  * A planner's result as a person reads it: headline, key figures, charts, tables, the rule-set lines,
@@ -36,6 +45,15 @@ export function ChartFromSpec({ spec }: { spec: ChartSpec }) {
 export function PlanView({ view, record = false, stale = false }: { view: View; record?: boolean; stale?: boolean }) {
   return (
     <div className={stale ? "plan-view stale" : "plan-view"} aria-busy={stale || !!view.pending}>
+      <ViewBody view={view} record={record} />
+    </div>
+  );
+}
+
+/** The view itself, memoised: while an input changes only the wrapper's "being updated" state changes. */
+const ViewBody = memo(function ViewBody({ view, record }: { view: View; record: boolean }) {
+  return (
+    <>
       <h1 className={record ? undefined : "print-only"}>{view.title}</h1>
       <h2 data-testid={view.headlineTestId}>{view.headline}</h2>
       {view.pending ? (
@@ -105,6 +123,6 @@ export function PlanView({ view, record = false, stale = false }: { view: View; 
           <p key={l}>{l}</p>
         ))}
       </section>
-    </div>
+    </>
   );
-}
+});

@@ -42,6 +42,11 @@ export default async function PlanPage({ params }: { params: Promise<{ id: strin
             Reopen in the {entry.title.toLowerCase()}
           </Link>
         ) : null}
+        {plan.kind === "hold" ? (
+          <Link className="button secondary" href={`/size/sheet/${plan.id}`}>
+            Pack-out sheet
+          </Link>
+        ) : null}
         <PrintButton label="Print the record" />
         {view ? (
           <a className="button secondary" href={`/plans/${plan.id}/csv`} download>
