@@ -260,24 +260,84 @@ function bodyChain(b: BodySpec, zones: number): Chain {
   return ch;
 }
 
-/** Solves the small dense system A x = r (A row-major n×n, overwritten; r overwritten) into x (Gaussian elimination; A is diagonally dominant). */
-function solveSmall(A: Float64Array, r: Float64Array, n: number, x: Float64Array): void {
+/**
+ * The fill-in pattern of Gaussian elimination in row order on a symmetric pattern (entries listed as
+ * pairs, the diagonal implied): for each pivot i, the rows below it with an entry in column i (`below`) and
+ * the columns right of it with an entry in row i (`right`), as offsets into flat lists. Worked out once
+ * per network; the numbers are eliminated over it on every Newton iteration.
+ */
+interface Elimination {
+  n: number;
+  belowStart: Int32Array;
+  below: Int32Array;
+  rightStart: Int32Array;
+  right: Int32Array;
+}
+
+function eliminationPattern(n: number, pairs: [number, number][]): Elimination {
+  const P = new Uint8Array(n * n);
+  for (const [i, j] of pairs) {
+    P[i * n + j] = 1;
+    P[j * n + i] = 1;
+  }
+  for (let i = 0; i < n; i++) {
+    for (let j = i + 1; j < n; j++) {
+      if (!P[j * n + i]) continue;
+      for (let k = i + 1; k < n; k++) if (P[i * n + k]) P[j * n + k] = 1;
+    }
+  }
+  const belowStart = new Int32Array(n + 1);
+  const rightStart = new Int32Array(n + 1);
+  const below: number[] = [];
+  const right: number[] = [];
+  for (let i = 0; i < n; i++) {
+    belowStart[i] = below.length;
+    rightStart[i] = right.length;
+    for (let j = i + 1; j < n; j++) {
+      if (P[j * n + i]) below.push(j);
+      if (P[i * n + j]) right.push(j);
+    }
+  }
+  belowStart[n] = below.length;
+  rightStart[n] = right.length;
+  return { n, belowStart, below: Int32Array.from(below), rightStart, right: Int32Array.from(right) };
+}
+
+/**
+ * Solves A x = r (A row-major n×n with the sparsity of `E`, overwritten; r overwritten) into x by Gaussian
+ * elimination without pivoting (A is diagonally dominant), touching only the entries of the fill-in pattern.
+ */
+function solveSparse(E: Elimination, A: Float64Array, r: Float64Array, x: Float64Array): void {
+  const n = E.n;
+  const below = E.below;
+  const belowStart = E.belowStart;
+  const right = E.right;
+  const rightStart = E.rightStart;
   for (let i = 0; i < n; i++) {
     const ii = i * n;
     const piv = A[ii + i];
-    for (let j = i + 1; j < n; j++) {
+    const r0 = rightStart[i];
+    const r1 = rightStart[i + 1];
+    for (let q = belowStart[i]; q < belowStart[i + 1]; q++) {
+      const j = below[q];
       const jj = j * n;
       const aji = A[jj + i];
       if (aji === 0) continue;
       const f = aji / piv;
-      for (let k = i; k < n; k++) A[jj + k] -= f * A[ii + k];
+      for (let p = r0; p < r1; p++) {
+        const k = right[p];
+        A[jj + k] -= f * A[ii + k];
+      }
       r[j] -= f * r[i];
     }
   }
   for (let i = n - 1; i >= 0; i--) {
     const ii = i * n;
     let s = r[i];
-    for (let k = i + 1; k < n; k++) s -= A[ii + k] * x[k];
+    for (let p = rightStart[i]; p < rightStart[i + 1]; p++) {
+      const k = right[p];
+      s -= A[ii + k] * x[k];
+    }
     x[i] = s / A[ii + i];
   }
 }
@@ -319,6 +379,11 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
   for (let ci = 0; ci < chains.length; ci++) if (inContact[ci]) keyRow[ci] = nK++;
   const zoneRow = new Int32Array(nZ);
   for (let z = 0; z < nZ; z++) zoneRow[z] = nK++;
+  // Where the dense system has entries: contacts, contact nodes to the zones they touch, the zones among themselves.
+  const pattern: [number, number][] = links.map((l) => [keyRow[l.a], keyRow[l.b]]);
+  for (let ci = 0; ci < chains.length; ci++) if (keyRow[ci] >= 0) for (let z = 0; z < nZ; z++) if (chains[ci].U[z] !== 0) pattern.push([keyRow[ci], zoneRow[z]]);
+  for (let z = 0; z < nZ; z++) for (let y = z + 1; y < nZ; y++) pattern.push([zoneRow[z], zoneRow[y]]);
+  const elim = eliminationPattern(nK, pattern);
   const airRho = P_ATM_PA / (R_AIR_J_KGK * (spec.boxStart_C + KELVIN_OFFSET));
   const totalVol = spec.zones.reduce((a, z) => a + z.volume_m3, 0);
   const Cair = Array.from({ length: nZ }, (_, z) => Math.max(airRho * CP_AIR_J_KGK * Math.max(spec.zones[z]?.volume_m3 ?? totalVol, 1e-4 / nZ), 1 / nZ));
@@ -538,7 +603,7 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
         } else schurOntoZones(ch, A, rhs, nK, nZ, zoneRow);
       }
       for (let z = 0; z < nZ; z++) rhs[zoneRow[z]] -= res[z];
-      solveSmall(A, rhs, nK, dAir);
+      solveSparse(elim, A, rhs, dAir);
       let maxStep = 0;
       for (let z = 0; z < nZ; z++) {
         const d = dAir[zoneRow[z]];
