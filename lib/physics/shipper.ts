@@ -571,6 +571,7 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
     }
     let converged = false;
     let it = 0;
+    let lastStep = Infinity;
     for (; it < 40; it++) {
       A.set(A0);
       rhs.fill(0);
@@ -616,11 +617,16 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
         const m = backSubstitute(ch, row >= 0 ? dAir[row] : NaN, dAir, nZ, zoneRow);
         if (m > maxStep) maxStep = m;
       }
-      if (it > 0 && maxStep < NEWTON_TOL_K) {
+      // Converged once the error left after this update is below the tolerance: the update itself, or,
+      // while the updates shrink at a rate θ = |δ_k|/|δ_k−1| < 1, the next one bounded by θ/(1 − θ)·|δ_k|
+      // (the contraction estimate of Hairer & Wanner, Solving ODEs II, IV.8 [hairerWanner1996]).
+      const theta = it > 0 ? maxStep / lastStep : 1;
+      if (it > 0 && (maxStep < NEWTON_TOL_K || (theta < 0.5 && (theta / (1 - theta)) * maxStep < NEWTON_TOL_K))) {
         converged = true;
         it++;
         break;
       }
+      lastStep = maxStep;
     }
     if (!converged) {
       for (const ch of chains) {
@@ -633,6 +639,7 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
       continue;
     }
     newton += it;
+    if (process.env.HL_DEBUG) (globalThis as unknown as { hist: number[] }).hist[it] = ((globalThis as unknown as { hist: number[] }).hist[it] ?? 0) + 1;
     // H of the converged temperatures, carried into the next step, the step control and the state.
     for (let ci = bodyStart; ci < chains.length; ci++) {
       const ch = chains[ci];
