@@ -639,7 +639,6 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
       continue;
     }
     newton += it;
-    if (process.env.HL_DEBUG) (globalThis as unknown as { hist: number[] }).hist[it] = ((globalThis as unknown as { hist: number[] }).hist[it] ?? 0) + 1;
     // H of the converged temperatures, carried into the next step, the step control and the state.
     for (let ci = bodyStart; ci < chains.length; ci++) {
       const ch = chains[ci];
@@ -666,9 +665,12 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
     }
     // Step control. With two steps of history: the local error of BDF2, estimated from the distance to the
     // quadratic extrapolation of the last three states (E − E_pred ≈ (11/2)·LTE at constant steps), in kelvin
-    // of a 3 kJ/(kg·K) body; else the largest enthalpy change of any node.
+    // of a 3 kJ/(kg·K) body. With one (the step after a restart): the distance to the linear extrapolation
+    // of the last two, ≈ h(h + h₁)/2·E'', of which the share h/(h + h₁) is a first-order local error
+    // (a bound for this step's, which is second order). Right after a restart: the largest enthalpy change of any node.
     const haveEst = hist >= 2;
-    let L0 = 0;
+    const haveLin = hist === 1;
+    let L0 = 1;
     let L1 = 0;
     let L2 = 0;
     if (haveEst) {
@@ -677,25 +679,26 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
       L0 = ((h + h1) * (h + h1 + h2)) / (h1 * (h1 + h2));
       L1 = -(h * (h + h1 + h2)) / (h1 * h2);
       L2 = (h * (h + h1)) / ((h1 + h2) * h2);
+    } else if (haveLin) {
+      L0 = 1 + h / hPrev1;
+      L1 = -h / hPrev1;
     }
     let maxChange = 0;
-    for (const ch of chains) {
-      const sc = ch.mat ? 1 / 3000 : 1;
-      for (let i = 0; i < ch.n; i++) {
-        const now = ch.mat ? ch.Hcur[i] : ch.T[i];
-        const d = haveEst ? Math.abs(now - (L0 * ch.Hs[i] + L1 * ch.Hm1[i] + L2 * ch.Hm2[i])) * sc : Math.abs(now - ch.Hs[i]) * sc;
-        if (d > maxChange) maxChange = d;
-      }
+    for (let ci = 0; ci < chains.length; ci++) {
+      const d = extrapolationDistance(chains[ci], L0, L1, L2);
+      if (d > maxChange) maxChange = d;
     }
     for (let z = 0; z < nZ; z++) {
-      const d = haveEst ? Math.abs(Tair[z] - (L0 * TairOld[z] + L1 * TairM1[z] + L2 * TairM2[z])) : Math.abs(Tair[z] - TairOld[z]);
+      const d = Math.abs(Tair[z] - (L0 * TairOld[z] + L1 * TairM1[z] + L2 * TairM2[z]));
       maxChange = Math.max(maxChange, d * 0.2);
     }
-    // Shift the history.
+    // Shift the history (by swapping the arrays: H⁻² takes H⁻¹'s, H⁻¹ the start's, the old H⁻² is the next start's).
     for (let ci = 0; ci < chains.length; ci++) {
       const ch = chains[ci];
-      ch.Hm2.set(ch.Hm1);
-      ch.Hm1.set(ch.Hs);
+      const spare = ch.Hm2;
+      ch.Hm2 = ch.Hm1;
+      ch.Hm1 = ch.Hs;
+      ch.Hs = spare;
       ch.Tp.set(ch.Told);
     }
     for (let z = 0; z < nZ; z++) {
@@ -712,6 +715,9 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
     if (haveEst) {
       const err = (2 / 11) * maxChange;
       grow = err > 0 ? 0.9 * Math.cbrt(tolK / err) : 2;
+    } else if (haveLin) {
+      const err = (h / (h + hPrev1)) * maxChange;
+      grow = err > 0 ? 0.9 * Math.sqrt(tolK / err) : 2;
     } else grow = maxChange > 0 ? target / maxChange : 2;
     dt = Math.min(dtMax, Math.max(1, h * Math.min(2, Math.max(0.5, grow))));
     fillState();
@@ -720,6 +726,22 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
   const stored = energy() - E0;
   const totalIn = FACE_KINDS.reduce((a, k) => a + gains.faces[k], 0) + gains.edges + gains.openings;
   return { steps, newtonIterations: newton, gains_J: gains, storedChange_J: stored, energyError_J: stored - totalIn, t_end_s: t, heatCapacity_J_K: heatCapacity };
+}
+
+/** Largest distance of a chain's stored quantity from its extrapolation L0·E⁰ + L1·E⁻¹ + L2·E⁻², in kelvin (H over 3 kJ/(kg·K)). */
+function extrapolationDistance(ch: Chain, L0: number, L1: number, L2: number): number {
+  const n = ch.n;
+  const now = ch.mat ? ch.Hcur : ch.T;
+  const sc = ch.mat ? 1 / 3000 : 1;
+  const Hs = ch.Hs;
+  const Hm1 = ch.Hm1;
+  const Hm2 = ch.Hm2;
+  let m = 0;
+  for (let i = 0; i < n; i++) {
+    const d = Math.abs(now[i] - (L0 * Hs[i] + L1 * Hm1[i] + L2 * Hm2[i]));
+    if (d > m) m = d;
+  }
+  return m * sc;
 }
 
 /**
