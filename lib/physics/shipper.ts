@@ -498,6 +498,7 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
   const pathPrev = new Float64Array(6);
   const pathFlow = new Float64Array(6);
   const tolK = target * LTE_PER_TARGET;
+  const sys: NewtonSystem = { chains, nFaces, nZ, nK, keyRow, zoneRow, elim, linkA, linkB, linkG, A, A0, rhs, dAir, res, outerG, outerT, Cair: Float64Array.from(Cair), edgeShare: Float64Array.from(edgeShare), openShare: Float64Array.from(openShare), sumU, Tair, TairStar };
 
   while (t < spec.tEnd_s - 1e-9) {
     while (nextBreak < breaks.length && breaks[nextBreak] <= t + 1e-9) nextBreak++;
@@ -539,95 +540,9 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
       if (fPred > 0) Tair[z] += fPred * (Tair[z] - TairP[z]);
     }
     const invH = 1 / hE;
-    // The parts of the dense system that stay fixed over the step's Newton iterations.
-    A0.fill(0);
-    for (let l = 0; l < linkA.length; l++) {
-      const ra = keyRow[linkA[l]];
-      const rb = keyRow[linkB[l]];
-      A0[ra * nK + rb] -= linkG[l];
-      A0[rb * nK + ra] -= linkG[l];
-    }
-    for (let z = 0; z < nZ; z++) {
-      const zr = zoneRow[z];
-      A0[zr * nK + zr] = Cair[z] * invH + Gedge * edgeShare[z] + Gopen * openShare[z] + sumU[z];
-    }
-    if (nZ > 1 && Gzz > 0) {
-      const z0 = zoneRow[0];
-      const z1 = zoneRow[1];
-      A0[z0 * nK + z0] += Gzz;
-      A0[z1 * nK + z1] += Gzz;
-      A0[z0 * nK + z1] -= Gzz;
-      A0[z1 * nK + z0] -= Gzz;
-    }
-    for (let ci = 0; ci < chains.length; ci++) {
-      const row = keyRow[ci];
-      if (row < 0) continue;
-      const U = chains[ci].U;
-      for (let z = 0; z < nZ; z++) {
-        const zr = zoneRow[z];
-        A0[row * nK + zr] -= U[z];
-        A0[zr * nK + row] -= U[z];
-      }
-    }
-    let converged = false;
-    let it = 0;
-    let lastStep = Infinity;
-    for (; it < 40; it++) {
-      A.set(A0);
-      rhs.fill(0);
-      // Contact fluxes at this iterate (their Jacobian is in the dense system).
-      for (let ci = 0; ci < chains.length; ci++) chains[ci].extra = 0;
-      for (let l = 0; l < linkA.length; l++) {
-        const P = chains[linkA[l]];
-        const Q = chains[linkB[l]];
-        const q = linkG[l] * (Q.T[Q.n - 1] - P.T[P.n - 1]);
-        P.extra += q;
-        Q.extra -= q;
-      }
-      // The zones' own residuals.
-      for (let z = 0; z < nZ; z++) {
-        res[z] = Cair[z] * (Tair[z] - TairStar[z]) * invH - (Gedge * edgeShare[z] + Gopen * openShare[z]) * (amb.air_C - Tair[z]);
-      }
-      if (nZ > 1 && Gzz > 0) {
-        res[0] -= Gzz * (Tair[1] - Tair[0]);
-        res[1] -= Gzz * (Tair[0] - Tair[1]);
-      }
-      // Build and forward-eliminate each chain, then couple its end node to the dense system.
-      for (let ci = 0; ci < chains.length; ci++) {
-        const ch = chains[ci];
-        assembleChain(ch, invH, ci < nFaces ? outerG[ci] : 0, ci < nFaces ? outerT[ci] : 0, Tair, nZ, res);
-        const row = keyRow[ci];
-        if (row >= 0) {
-          // The end node stays an unknown: bp δ_end − Σ U_z δ_z − Σ G δ_partner = dp.
-          A[row * nK + row] += ch.bp[ch.n - 1];
-          rhs[row] += ch.dp[ch.n - 1];
-        } else schurOntoZones(ch, A, rhs, nK, nZ, zoneRow);
-      }
-      for (let z = 0; z < nZ; z++) rhs[zoneRow[z]] -= res[z];
-      solveSparse(elim, A, rhs, dAir);
-      let maxStep = 0;
-      for (let z = 0; z < nZ; z++) {
-        const d = dAir[zoneRow[z]];
-        Tair[z] += d;
-        maxStep = Math.max(maxStep, Math.abs(d));
-      }
-      for (let ci = 0; ci < chains.length; ci++) {
-        const ch = chains[ci];
-        const row = keyRow[ci];
-        const m = backSubstitute(ch, row >= 0 ? dAir[row] : NaN, dAir, nZ, zoneRow);
-        if (m > maxStep) maxStep = m;
-      }
-      // Converged once the error left after this update is below the tolerance: the update itself, or,
-      // while the updates shrink at a rate θ = |δ_k|/|δ_k−1| < 1, the next one bounded by θ/(1 − θ)·|δ_k|
-      // (the contraction estimate of Hairer & Wanner, Solving ODEs II, IV.8 [hairerWanner1996]).
-      const theta = it > 0 ? maxStep / lastStep : 1;
-      if (it > 0 && (maxStep < NEWTON_TOL_K || (theta < 0.5 && (theta / (1 - theta)) * maxStep < NEWTON_TOL_K))) {
-        converged = true;
-        it++;
-        break;
-      }
-      lastStep = maxStep;
-    }
+    fixedSystem(sys, invH, Gedge, Gopen, Gzz);
+    const it = newtonStep(sys, invH, Gedge, Gopen, Gzz, amb.air_C);
+    const converged = it > 0;
     if (!converged) {
       for (const ch of chains) {
         ch.T.set(ch.Told);
@@ -726,6 +641,129 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
   const stored = energy() - E0;
   const totalIn = FACE_KINDS.reduce((a, k) => a + gains.faces[k], 0) + gains.edges + gains.openings;
   return { steps, newtonIterations: newton, gains_J: gains, storedChange_J: stored, energyError_J: stored - totalIn, t_end_s: t, heatCapacity_J_K: heatCapacity };
+}
+
+/** Everything one Newton solve of the network works on, fixed for a run (arrays are overwritten in place). */
+interface NewtonSystem {
+  chains: Chain[];
+  nFaces: number;
+  nZ: number;
+  nK: number;
+  keyRow: Int32Array;
+  zoneRow: Int32Array;
+  elim: Elimination;
+  linkA: Int32Array;
+  linkB: Int32Array;
+  linkG: Float64Array;
+  A: Float64Array;
+  A0: Float64Array;
+  rhs: Float64Array;
+  dAir: Float64Array;
+  res: Float64Array;
+  outerG: Float64Array;
+  outerT: Float64Array;
+  Cair: Float64Array;
+  edgeShare: Float64Array;
+  openShare: Float64Array;
+  sumU: Float64Array;
+  Tair: Float64Array;
+  TairStar: Float64Array;
+}
+
+/** The parts of the dense system that stay fixed over a step's Newton iterations, into A0. */
+function fixedSystem(S: NewtonSystem, invH: number, Gedge: number, Gopen: number, Gzz: number): void {
+  const { A0, nK, nZ, keyRow, zoneRow, linkA, linkB, linkG, chains } = S;
+  A0.fill(0);
+  for (let l = 0; l < linkA.length; l++) {
+    const ra = keyRow[linkA[l]];
+    const rb = keyRow[linkB[l]];
+    A0[ra * nK + rb] -= linkG[l];
+    A0[rb * nK + ra] -= linkG[l];
+  }
+  for (let z = 0; z < nZ; z++) {
+    const zr = zoneRow[z];
+    A0[zr * nK + zr] = S.Cair[z] * invH + Gedge * S.edgeShare[z] + Gopen * S.openShare[z] + S.sumU[z];
+  }
+  if (nZ > 1 && Gzz > 0) {
+    const z0 = zoneRow[0];
+    const z1 = zoneRow[1];
+    A0[z0 * nK + z0] += Gzz;
+    A0[z1 * nK + z1] += Gzz;
+    A0[z0 * nK + z1] -= Gzz;
+    A0[z1 * nK + z0] -= Gzz;
+  }
+  for (let ci = 0; ci < chains.length; ci++) {
+    const row = keyRow[ci];
+    if (row < 0) continue;
+    const U = chains[ci].U;
+    for (let z = 0; z < nZ; z++) {
+      const zr = zoneRow[z];
+      A0[row * nK + zr] -= U[z];
+      A0[zr * nK + row] -= U[z];
+    }
+  }
+}
+
+/**
+ * Newton iterations of one implicit step (backward Euler of length 1/invH from the stored H* and T*_air),
+ * from the temperatures in the chains and zones. Returns the number of iterations, or 0 if it did not
+ * converge within 40.
+ */
+function newtonStep(S: NewtonSystem, invH: number, Gedge: number, Gopen: number, Gzz: number, air_C: number): number {
+  const { chains, nFaces, nZ, nK, keyRow, zoneRow, elim, linkA, linkB, linkG, A, A0, rhs, dAir, res, outerG, outerT, Cair, edgeShare, openShare, Tair, TairStar } = S;
+  let lastStep = Infinity;
+  for (let it = 0; it < 40; it++) {
+    A.set(A0);
+    rhs.fill(0);
+    // Contact fluxes at this iterate (their Jacobian is in the dense system).
+    for (let ci = 0; ci < chains.length; ci++) chains[ci].extra = 0;
+    for (let l = 0; l < linkA.length; l++) {
+      const P = chains[linkA[l]];
+      const Q = chains[linkB[l]];
+      const q = linkG[l] * (Q.T[Q.n - 1] - P.T[P.n - 1]);
+      P.extra += q;
+      Q.extra -= q;
+    }
+    // The zones' own residuals.
+    for (let z = 0; z < nZ; z++) {
+      res[z] = Cair[z] * (Tair[z] - TairStar[z]) * invH - (Gedge * edgeShare[z] + Gopen * openShare[z]) * (air_C - Tair[z]);
+    }
+    if (nZ > 1 && Gzz > 0) {
+      res[0] -= Gzz * (Tair[1] - Tair[0]);
+      res[1] -= Gzz * (Tair[0] - Tair[1]);
+    }
+    // Build and forward-eliminate each chain, then couple its end node to the dense system.
+    for (let ci = 0; ci < chains.length; ci++) {
+      const ch = chains[ci];
+      assembleChain(ch, invH, ci < nFaces ? outerG[ci] : 0, ci < nFaces ? outerT[ci] : 0, Tair, nZ, res);
+      const row = keyRow[ci];
+      if (row >= 0) {
+        // The end node stays an unknown: bp δ_end − Σ U_z δ_z − Σ G δ_partner = dp.
+        A[row * nK + row] += ch.bp[ch.n - 1];
+        rhs[row] += ch.dp[ch.n - 1];
+      } else schurOntoZones(ch, A, rhs, nK, nZ, zoneRow);
+    }
+    for (let z = 0; z < nZ; z++) rhs[zoneRow[z]] -= res[z];
+    solveSparse(elim, A, rhs, dAir);
+    let maxStep = 0;
+    for (let z = 0; z < nZ; z++) {
+      const d = dAir[zoneRow[z]];
+      Tair[z] += d;
+      maxStep = Math.max(maxStep, Math.abs(d));
+    }
+    for (let ci = 0; ci < chains.length; ci++) {
+      const row = keyRow[ci];
+      const m = backSubstitute(chains[ci], row >= 0 ? dAir[row] : NaN, dAir, nZ, zoneRow);
+      if (m > maxStep) maxStep = m;
+    }
+    // Converged once the error left after this update is below the tolerance: the update itself, or,
+    // while the updates shrink at a rate θ = |δ_k|/|δ_k−1| < 1/2, the next one, bounded by θ/(1 − θ)·|δ_k|
+    // (the contraction estimate of Hairer & Wanner [hairerWanner1996]).
+    const theta = maxStep / lastStep;
+    if (it > 0 && (maxStep < NEWTON_TOL_K || (theta < 0.5 && (theta / (1 - theta)) * maxStep < NEWTON_TOL_K))) return it + 1;
+    lastStep = maxStep;
+  }
+  return 0;
 }
 
 /** Largest distance of a chain's stored quantity from its extrapolation L0·E⁰ + L1·E⁻¹ + L2·E⁻², in kelvin (H over 3 kJ/(kg·K)). */
