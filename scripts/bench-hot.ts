@@ -40,14 +40,20 @@ if (what === "hold" || what === "all") {
   console.log(`hold with band (CPU): ${median(h9).toFixed(2)} ms; band ${rb.band.low === null ? "-" : (rb.band.low / 3600).toFixed(4)} / ${rb.band.central === null ? "-" : (rb.band.central / 3600).toFixed(4)} / ${rb.band.high === null ? "-" : (rb.band.high / 3600).toFixed(4)} h`);
 }
 if (what === "size" || what === "all") {
+  // process.cpuUsage counts every thread of the process, the worker threads included.
+  const cpuMs = (c: NodeJS.CpuUsage) => (c.user + c.system) / 1000;
   const inp = sizeInput(true);
   const t0 = performance.now();
+  const c0 = process.cpuUsage();
   const pool = nodePool(inp);
   const cold = await runSizing(inp, pool.evaluate);
   const coldMs = performance.now() - t0;
+  const coldCpu = cpuMs(process.cpuUsage(c0));
   const t1 = performance.now();
+  const c1 = process.cpuUsage();
   const warm = await runSizing(inp, pool.evaluate);
   const warmMs = performance.now() - t1;
+  const warmCpu = cpuMs(process.cpuUsage(c1));
   await pool.close();
-  console.log(`sizing ${warm.candidates.length} candidates: cold ${coldMs.toFixed(0)} ms (pool created inside), warm ${warmMs.toFixed(0)} ms; ${warm.evaluated} run, ${warm.pruned} pruned; front ${JSON.stringify(cold.pareto) === JSON.stringify(warm.pareto) ? "same" : "DIFFERS"} (${warm.pareto.length})`);
+  console.log(`sizing ${warm.candidates.length} candidates, 2 worker threads: cold ${coldMs.toFixed(0)} ms wall, ${coldCpu.toFixed(0)} ms CPU (pool created inside); warm ${warmMs.toFixed(0)} ms wall, ${warmCpu.toFixed(0)} ms CPU; ${warm.evaluated} run, ${warm.pruned} pruned; front ${JSON.stringify(cold.pareto) === JSON.stringify(warm.pareto) ? "same" : "DIFFERS"} (${warm.pareto.length})`);
 }
