@@ -287,6 +287,14 @@ export const BIBLIOGRAPHY = {
     where: "Ch. 3 (cooperative systems of ODEs; Kamke's comparison theorem)",
     note: "from memory",
   },
+  hairerWanner1996: {
+    authors: "E. Hairer, G. Wanner",
+    title: "Solving Ordinary Differential Equations II: Stiff and Differential-Algebraic Problems",
+    year: 1996,
+    edition: "2nd ed., Springer",
+    where: "§IV.8 (simplified Newton iterations: the contraction-rate stopping test θ/(1 − θ)·‖Δ‖ ≤ tol); §III.5 and V.1 (variable-step BDF)",
+    note: "from memory",
+  },
   globeDropkin1959: {
     authors: "S. Globe, D. Dropkin",
     title: "Natural-convection heat transfer in liquids confined by two horizontal plates and heated from below",

@@ -112,6 +112,8 @@ interface Prepared {
   assumptions: string[];
   bands: ProductBand[];
   productMats: { mat: EnthalpyMaterial & { Tf_C: number }; shapeM: 0 | 1 | 2; R: number; V: number; A: number; footprint: number }[];
+  /** Each pack line's material, built once and shared by every corner's run. */
+  packMats: (EnthalpyMaterial & { Tf_C: number })[];
   routeLength_s: number;
   segments: { label: string; start_s: number; end_s: number; seg: HoldParsed["route"]["segments"][number] }[];
   openings: { start_s: number; end_s: number }[];
@@ -289,7 +291,8 @@ function prepare(given: HoldParsed): Prepared {
   // The load blocks the middle of the box: the halves of the air meet over the rest of the mid-plane (at least a tenth of it).
   const midPlane_m2 = Math.max(inner.L * inner.W - layout.loadFootprint_m2, 0.1 * inner.L * inner.W);
 
-  return { inp, warnings, assumptions, bands, productMats, routeLength_s, segments, openings, finish, wallLayers, lidLayers, inner, outer, edgeG, innerH, airVolume_m3, kScaleForUA, hasDryIce, layout, midPlane_m2 };
+  const packMats = inp.packs.map((l) => packMaterial(l.pack));
+  return { inp, warnings, assumptions, bands, productMats, packMats, routeLength_s, segments, openings, finish, wallLayers, lidLayers, inner, outer, edgeG, innerH, airVolume_m3, kScaleForUA, hasDryIce, layout, midPlane_m2 };
 }
 
 export function steadyUA(
@@ -430,7 +433,7 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
     const A = 2 * (p.length_m * p.width_m + p.length_m * p.thickness_m + p.width_m * p.thickness_m);
     bodies.push({
       label: p.name,
-      material: packMaterial(p),
+      material: P.packMats[g.line],
       shapeM: 0,
       halfSize_m: V / A,
       volume_m3: V,
@@ -502,7 +505,7 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
   let routeGains: Gains | null = null;
   const groupLatent = L.groups.map((g) => {
     const line = inp.packs[g.line];
-    return { Htop: packMaterial(line.pack).H_J_kg(line.pack.phaseChange_C + packMeltBand_K(line.pack) / 2), L: line.pack.latentHeat_J_kg };
+    return { Htop: P.packMats[g.line].H_J_kg(line.pack.phaseChange_C + packMeltBand_K(line.pack) / 2), L: line.pack.latentHeat_J_kg };
   });
   const dryGroups = L.groups.map((g, k) => (inp.packs[g.line].pack.kind === "dry_ice" ? k : -1)).filter((k) => k >= 0);
   let dryIceGone: number | null = null;

@@ -74,7 +74,7 @@ export interface NetworkSpec {
   /** Inside air zones (one well-mixed zone, or lower and upper halves). */
   zones: { volume_m3: number }[];
   /** Conductance between zone 0 (lower) and zone 1 (upper), W/K, from the zone temperatures at the start of each step. */
-  zoneExchange?: (zone_C: number[]) => number;
+  zoneExchange?: (zone_C: ArrayLike<number>) => number;
   edgeConductance_W_K: number;
   /** Share of the edge conductance and of the lid-opening exchange that reaches each zone (sums to 1). */
   edgeZoneShare: number[];
@@ -146,6 +146,8 @@ const FACE_KINDS: FaceKind[] = ["base", "sidesLower", "sidesUpper", "lid"];
 const FACE_INDEX: Record<FaceKind, number> = { base: 0, sidesLower: 1, sidesUpper: 2, lid: 3 };
 /** Local error aimed at per step, K, for each kelvin of `targetChange_K` (tuned with npm run bench:peer). */
 const LTE_PER_TARGET = 0.05;
+/** Newton stops once no node moves by more than this, K. */
+const NEWTON_TOL_K = 1e-7;
 
 interface Chain {
   n: number;
@@ -173,8 +175,11 @@ interface Chain {
   R: Float64Array;
   bp: Float64Array;
   dp: Float64Array;
-  extra: number; // explicit-in-iteration contact flux into the last node, W
-  extraDiag: number;
+  /** Temperatures at the start of the previous step (the predictor's history). */
+  Tp: Float64Array;
+  extra: number; // contact flux into the last node at this iterate, W
+  linkDiag: number; // sum of the last node's contact conductances, W/K
+
   k: Float64Array; // node conductivities of this iteration (enthalpy chains)
 }
 
@@ -201,8 +206,9 @@ function newChain(n: number, zones: number): Chain {
     R: f(),
     bp: f(),
     dp: f(),
+    Tp: f(),
     extra: 0,
-    extraDiag: 0,
+    linkDiag: 0,
     k: f(),
   };
 }
@@ -254,24 +260,84 @@ function bodyChain(b: BodySpec, zones: number): Chain {
   return ch;
 }
 
-/** Solves the small dense system A x = r (A row-major n×n, overwritten; r overwritten) into x (Gaussian elimination; A is diagonally dominant). */
-function solveSmall(A: Float64Array, r: Float64Array, n: number, x: Float64Array): void {
+/**
+ * The fill-in pattern of Gaussian elimination in row order on a symmetric pattern (entries listed as
+ * pairs, the diagonal implied): for each pivot i, the rows below it with an entry in column i (`below`) and
+ * the columns right of it with an entry in row i (`right`), as offsets into flat lists. Worked out once
+ * per network; the numbers are eliminated over it on every Newton iteration.
+ */
+interface Elimination {
+  n: number;
+  belowStart: Int32Array;
+  below: Int32Array;
+  rightStart: Int32Array;
+  right: Int32Array;
+}
+
+function eliminationPattern(n: number, pairs: [number, number][]): Elimination {
+  const P = new Uint8Array(n * n);
+  for (const [i, j] of pairs) {
+    P[i * n + j] = 1;
+    P[j * n + i] = 1;
+  }
+  for (let i = 0; i < n; i++) {
+    for (let j = i + 1; j < n; j++) {
+      if (!P[j * n + i]) continue;
+      for (let k = i + 1; k < n; k++) if (P[i * n + k]) P[j * n + k] = 1;
+    }
+  }
+  const belowStart = new Int32Array(n + 1);
+  const rightStart = new Int32Array(n + 1);
+  const below: number[] = [];
+  const right: number[] = [];
+  for (let i = 0; i < n; i++) {
+    belowStart[i] = below.length;
+    rightStart[i] = right.length;
+    for (let j = i + 1; j < n; j++) {
+      if (P[j * n + i]) below.push(j);
+      if (P[i * n + j]) right.push(j);
+    }
+  }
+  belowStart[n] = below.length;
+  rightStart[n] = right.length;
+  return { n, belowStart, below: Int32Array.from(below), rightStart, right: Int32Array.from(right) };
+}
+
+/**
+ * Solves A x = r (A row-major n×n with the sparsity of `E`, overwritten; r overwritten) into x by Gaussian
+ * elimination without pivoting (A is diagonally dominant), touching only the entries of the fill-in pattern.
+ */
+function solveSparse(E: Elimination, A: Float64Array, r: Float64Array, x: Float64Array): void {
+  const n = E.n;
+  const below = E.below;
+  const belowStart = E.belowStart;
+  const right = E.right;
+  const rightStart = E.rightStart;
   for (let i = 0; i < n; i++) {
     const ii = i * n;
     const piv = A[ii + i];
-    for (let j = i + 1; j < n; j++) {
+    const r0 = rightStart[i];
+    const r1 = rightStart[i + 1];
+    for (let q = belowStart[i]; q < belowStart[i + 1]; q++) {
+      const j = below[q];
       const jj = j * n;
       const aji = A[jj + i];
       if (aji === 0) continue;
       const f = aji / piv;
-      for (let k = i; k < n; k++) A[jj + k] -= f * A[ii + k];
+      for (let p = r0; p < r1; p++) {
+        const k = right[p];
+        A[jj + k] -= f * A[ii + k];
+      }
       r[j] -= f * r[i];
     }
   }
   for (let i = n - 1; i >= 0; i--) {
     const ii = i * n;
     let s = r[i];
-    for (let k = i + 1; k < n; k++) s -= A[ii + k] * x[k];
+    for (let p = rightStart[i]; p < rightStart[i + 1]; p++) {
+      const k = right[p];
+      s -= A[ii + k] * x[k];
+    }
     x[i] = s / A[ii + i];
   }
 }
@@ -304,14 +370,26 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
   ];
   // Chains with a surface contact keep their end node in the small dense system with the zones, so
   // contacts are solved implicitly (Newton stays quadratic and the energy balance closes to round-off).
+  // Rows: the contact end nodes in chain order, then the zones last, so that elimination (zones coupled to
+  // almost everything) creates fill-in only among a contact node's few partners.
   const keyRow = new Int32Array(chains.length).fill(-1);
-  let nK = nZ;
-  for (const c of links) for (const ci of [c.a, c.b]) if (keyRow[ci] < 0) keyRow[ci] = nK++;
+  const inContact = new Uint8Array(chains.length);
+  for (const c of links) inContact[c.a] = inContact[c.b] = 1;
+  let nK = 0;
+  for (let ci = 0; ci < chains.length; ci++) if (inContact[ci]) keyRow[ci] = nK++;
+  const zoneRow = new Int32Array(nZ);
+  for (let z = 0; z < nZ; z++) zoneRow[z] = nK++;
+  // Where the dense system has entries: contacts, contact nodes to the zones they touch, the zones among themselves.
+  const pattern: [number, number][] = links.map((l) => [keyRow[l.a], keyRow[l.b]]);
+  for (let ci = 0; ci < chains.length; ci++) if (keyRow[ci] >= 0) for (let z = 0; z < nZ; z++) if (chains[ci].U[z] !== 0) pattern.push([keyRow[ci], zoneRow[z]]);
+  for (let z = 0; z < nZ; z++) for (let y = z + 1; y < nZ; y++) pattern.push([zoneRow[z], zoneRow[y]]);
+  const elim = eliminationPattern(nK, pattern);
   const airRho = P_ATM_PA / (R_AIR_J_KGK * (spec.boxStart_C + KELVIN_OFFSET));
   const totalVol = spec.zones.reduce((a, z) => a + z.volume_m3, 0);
   const Cair = Array.from({ length: nZ }, (_, z) => Math.max(airRho * CP_AIR_J_KGK * Math.max(spec.zones[z]?.volume_m3 ?? totalVol, 1e-4 / nZ), 1 / nZ));
-  const Tair = new Array<number>(nZ).fill(spec.boxStart_C);
-  const TairOld = [...Tair];
+  const Tair = new Float64Array(nZ).fill(spec.boxStart_C);
+  const TairOld = Tair.slice();
+  const TairP = Tair.slice();
   const edgeShare = Array.from({ length: nZ }, (_, z) => spec.edgeZoneShare[z] ?? (z === 0 ? 1 : 0));
   const openShare = Array.from({ length: nZ }, (_, z) => spec.openZoneShare[z] ?? (z === 0 ? 1 : 0));
   if (spec.onAssembled) {
@@ -392,6 +470,15 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
   let newton = 0;
   // Work arrays, allocated once: the dense system (row-major), its right-hand side and solution, the zone residuals, the outer film conductances.
   const A = new Float64Array(nK * nK);
+  const A0 = new Float64Array(nK * nK);
+  const outerT = new Float64Array(nFaces);
+  // Each zone's total coupling to chain ends, and each chain end's total contact conductance (both fixed).
+  const sumU = new Float64Array(nZ);
+  for (const ch of chains) for (let z = 0; z < nZ; z++) sumU[z] += ch.U[z];
+  for (const l of links) {
+    chains[l.a].linkDiag += l.G;
+    chains[l.b].linkDiag += l.G;
+  }
   const rhs = new Float64Array(nK);
   const dAir = new Float64Array(nK);
   const res = new Float64Array(nZ);
@@ -411,6 +498,7 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
   const pathPrev = new Float64Array(6);
   const pathFlow = new Float64Array(6);
   const tolK = target * LTE_PER_TARGET;
+  const sys: NewtonSystem = { chains, nFaces, nZ, nK, keyRow, zoneRow, elim, linkA, linkB, linkG, A, A0, rhs, dAir, res, outerG, outerT, Cair: Float64Array.from(Cair), edgeShare: Float64Array.from(edgeShare), openShare: Float64Array.from(openShare), sumU, Tair, TairStar };
 
   while (t < spec.tEnd_s - 1e-9) {
     while (nextBreak < breaks.length && breaks[nextBreak] <= t + 1e-9) nextBreak++;
@@ -434,158 +522,27 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
     const star = a2 / a0;
     // Conditions hold piecewise-constant over the step: take them at its middle.
     const amb = spec.ambient(t + h / 2);
-    for (let ci = 0; ci < nFaces; ci++) outerG[ci] = 1 / (faceParts[ci].halfOuter + 1 / (amb.outerH_W_m2K * faceParts[ci].area));
+    for (let ci = 0; ci < nFaces; ci++) {
+      outerG[ci] = 1 / (faceParts[ci].halfOuter + 1 / (amb.outerH_W_m2K * faceParts[ci].area));
+      outerT[ci] = amb.solAir_C[faceParts[ci].kind];
+    }
     const Gedge = spec.edgeConductance_W_K;
     const Gopen = amb.openExchange_W_K;
     // Exchange between the zones, from the temperatures at the start of the step.
     const Gzz = nZ > 1 && spec.zoneExchange ? spec.zoneExchange(Tair) : 0;
-    for (let ci = 0; ci < chains.length; ci++) {
-      const ch = chains[ci];
-      ch.Told.set(ch.T);
-      ch.Hs.set(ch.mat ? ch.Hcur : ch.T);
-      if (bdf) for (let i = 0; i < ch.n; i++) ch.Hold[i] = ch.Hs[i] + star * (ch.Hs[i] - ch.Hm1[i]);
-      else ch.Hold.set(ch.Hs);
-    }
+    // Predictor: the last step's change, extrapolated (the converged answer does not depend on it; it
+    // saves a Newton iteration or two).
+    const fPred = hist >= 1 ? Math.min(2, h / hPrev1) : 0;
+    for (let ci = 0; ci < chains.length; ci++) startChainStep(chains[ci], bdf, star, fPred);
     for (let z = 0; z < nZ; z++) {
       TairOld[z] = Tair[z];
       TairStar[z] = bdf ? Tair[z] + star * (Tair[z] - TairM1[z]) : Tair[z];
+      if (fPred > 0) Tair[z] += fPred * (Tair[z] - TairP[z]);
     }
-    let converged = false;
-    let it = 0;
-    for (; it < 40; it++) {
-      // Contact fluxes at this iterate (their Jacobian is in the dense system below).
-      for (let ci = 0; ci < chains.length; ci++) {
-        chains[ci].extra = 0;
-        chains[ci].extraDiag = 0;
-      }
-      A.fill(0);
-      rhs.fill(0);
-      for (let l = 0; l < linkA.length; l++) {
-        const P = chains[linkA[l]];
-        const Q = chains[linkB[l]];
-        const G = linkG[l];
-        const q = G * (Q.T[Q.n - 1] - P.T[P.n - 1]);
-        P.extra += q;
-        Q.extra -= q;
-        P.extraDiag += G;
-        Q.extraDiag += G;
-        const ra = keyRow[linkA[l]];
-        const rb = keyRow[linkB[l]];
-        A[ra * nK + rb] -= G;
-        A[rb * nK + ra] -= G;
-      }
-      // The zones' own rows.
-      for (let z = 0; z < nZ; z++) {
-        const ge = Gedge * edgeShare[z];
-        const go = Gopen * openShare[z];
-        A[z * nK + z] = Cair[z] / hE + ge + go;
-        res[z] = (Cair[z] * (Tair[z] - TairStar[z])) / hE - (ge + go) * (amb.air_C - Tair[z]);
-      }
-      if (nZ > 1 && Gzz > 0) {
-        A[0] += Gzz;
-        A[nK + 1] += Gzz;
-        A[1] -= Gzz;
-        A[nK] -= Gzz;
-        res[0] -= Gzz * (Tair[1] - Tair[0]);
-        res[1] -= Gzz * (Tair[0] - Tair[1]);
-      }
-      // Build and forward-eliminate each chain.
-      for (let ci = 0; ci < chains.length; ci++) {
-        const ch = chains[ci];
-        const n = ch.n;
-        const mat = ch.mat;
-        if (mat) {
-          // One fused table look-up per node: H, its slope and k.
-          evalMaterial(mat, ch.T, 0, n, ch.Hn, ch.cn, ch.k, 1);
-          capacityRows(n, ch.mass, ch.cn, ch.Hn, ch.Hold, 1 / hE, ch.b, ch.R);
-        } else capacityRowsLinear(n, ch.mass, ch.T, ch.Hold, 1 / hE, ch.b, ch.R);
-        ch.a.fill(0);
-        ch.c.fill(0);
-        for (let i = 0; i < n - 1; i++) {
-          const G = mat ? ch.Gfac[i] * harmonic(ch.k[i], ch.k[i + 1]) : ch.Gfac[i];
-          const q = G * (ch.T[i + 1] - ch.T[i]);
-          ch.R[i] -= q;
-          ch.R[i + 1] += q;
-          ch.b[i] += G;
-          ch.b[i + 1] += G;
-          ch.c[i] = -G;
-          ch.a[i + 1] = -G;
-        }
-        if (ci < nFaces) {
-          const G = outerG[ci];
-          ch.R[0] -= G * (amb.solAir_C[faceParts[ci].kind] - ch.T[0]);
-          ch.b[0] += G;
-        }
-        ch.R[n - 1] -= ch.extra;
-        ch.b[n - 1] += ch.extraDiag;
-        // Coupling to the air zones at the last node.
-        for (let z = 0; z < nZ; z++) {
-          const U = ch.U[z];
-          if (U === 0) continue;
-          ch.R[n - 1] -= U * (Tair[z] - ch.T[n - 1]);
-          ch.b[n - 1] += U;
-          res[z] -= U * (ch.T[n - 1] - Tair[z]);
-          A[z * nK + z] += U;
-        }
-        // Forward elimination towards the air-coupled end.
-        ch.bp[0] = ch.b[0];
-        ch.dp[0] = -ch.R[0];
-        for (let i = 1; i < n; i++) {
-          const w = ch.a[i] / ch.bp[i - 1];
-          ch.bp[i] = ch.b[i] - w * ch.c[i - 1];
-          ch.dp[i] = -ch.R[i] - w * ch.dp[i - 1];
-        }
-        const bpn = ch.bp[n - 1];
-        const row = keyRow[ci];
-        if (row >= 0) {
-          // The end node stays an unknown: bp δ_end − Σ U_z δ_z − Σ G δ_partner = dp.
-          A[row * nK + row] += bpn;
-          rhs[row] += ch.dp[n - 1];
-          for (let z = 0; z < nZ; z++) {
-            A[row * nK + z] -= ch.U[z];
-            A[z * nK + row] -= ch.U[z];
-          }
-          continue;
-        }
-        // δ_end = (dp + Σ U_z δ_z)/bp: the Schur complement onto the zones.
-        for (let z = 0; z < nZ; z++) {
-          const Uz = ch.U[z];
-          if (Uz === 0) continue;
-          rhs[z] += (Uz * ch.dp[n - 1]) / bpn;
-          for (let y = 0; y < nZ; y++) if (ch.U[y] !== 0) A[z * nK + y] -= (Uz * ch.U[y]) / bpn;
-        }
-      }
-      for (let z = 0; z < nZ; z++) rhs[z] -= res[z];
-      solveSmall(A, rhs, nK, dAir);
-      let maxStep = 0;
-      for (let z = 0; z < nZ; z++) {
-        Tair[z] += dAir[z];
-        maxStep = Math.max(maxStep, Math.abs(dAir[z]));
-      }
-      for (let ci = 0; ci < chains.length; ci++) {
-        const ch = chains[ci];
-        const n = ch.n;
-        let next: number;
-        if (keyRow[ci] >= 0) next = dAir[keyRow[ci]];
-        else {
-          let coupled = ch.dp[n - 1];
-          for (let z = 0; z < nZ; z++) coupled += ch.U[z] * dAir[z];
-          next = coupled / ch.bp[n - 1];
-        }
-        ch.T[n - 1] += next;
-        maxStep = Math.max(maxStep, Math.abs(next));
-        for (let i = n - 2; i >= 0; i--) {
-          next = (ch.dp[i] - ch.c[i] * next) / ch.bp[i];
-          ch.T[i] += next;
-          if (Math.abs(next) > maxStep) maxStep = Math.abs(next);
-        }
-      }
-      if (it > 0 && maxStep < 1e-7) {
-        converged = true;
-        it++;
-        break;
-      }
-    }
+    const invH = 1 / hE;
+    fixedSystem(sys, invH, Gedge, Gopen, Gzz);
+    const it = newtonStep(sys, invH, Gedge, Gopen, Gzz, amb.air_C);
+    const converged = it > 0;
     if (!converged) {
       for (const ch of chains) {
         ch.T.set(ch.Told);
@@ -623,9 +580,12 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
     }
     // Step control. With two steps of history: the local error of BDF2, estimated from the distance to the
     // quadratic extrapolation of the last three states (E − E_pred ≈ (11/2)·LTE at constant steps), in kelvin
-    // of a 3 kJ/(kg·K) body; else the largest enthalpy change of any node.
+    // of a 3 kJ/(kg·K) body. With one (the step after a restart): the distance to the linear extrapolation
+    // of the last two, ≈ h(h + h₁)/2·E'', of which the share h/(h + h₁) is a first-order local error
+    // (a bound for this step's, which is second order). Right after a restart: the largest enthalpy change of any node.
     const haveEst = hist >= 2;
-    let L0 = 0;
+    const haveLin = hist === 1;
+    let L0 = 1;
     let L1 = 0;
     let L2 = 0;
     if (haveEst) {
@@ -634,29 +594,32 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
       L0 = ((h + h1) * (h + h1 + h2)) / (h1 * (h1 + h2));
       L1 = -(h * (h + h1 + h2)) / (h1 * h2);
       L2 = (h * (h + h1)) / ((h1 + h2) * h2);
+    } else if (haveLin) {
+      L0 = 1 + h / hPrev1;
+      L1 = -h / hPrev1;
     }
     let maxChange = 0;
-    for (const ch of chains) {
-      const sc = ch.mat ? 1 / 3000 : 1;
-      for (let i = 0; i < ch.n; i++) {
-        const now = ch.mat ? ch.Hcur[i] : ch.T[i];
-        const d = haveEst ? Math.abs(now - (L0 * ch.Hs[i] + L1 * ch.Hm1[i] + L2 * ch.Hm2[i])) * sc : Math.abs(now - ch.Hs[i]) * sc;
-        if (d > maxChange) maxChange = d;
-      }
+    for (let ci = 0; ci < chains.length; ci++) {
+      const d = extrapolationDistance(chains[ci], L0, L1, L2);
+      if (d > maxChange) maxChange = d;
     }
     for (let z = 0; z < nZ; z++) {
-      const d = haveEst ? Math.abs(Tair[z] - (L0 * TairOld[z] + L1 * TairM1[z] + L2 * TairM2[z])) : Math.abs(Tair[z] - TairOld[z]);
+      const d = Math.abs(Tair[z] - (L0 * TairOld[z] + L1 * TairM1[z] + L2 * TairM2[z]));
       maxChange = Math.max(maxChange, d * 0.2);
     }
-    // Shift the history.
+    // Shift the history (by swapping the arrays: H⁻² takes H⁻¹'s, H⁻¹ the start's, the old H⁻² is the next start's).
     for (let ci = 0; ci < chains.length; ci++) {
       const ch = chains[ci];
-      ch.Hm2.set(ch.Hm1);
-      ch.Hm1.set(ch.Hs);
+      const spare = ch.Hm2;
+      ch.Hm2 = ch.Hm1;
+      ch.Hm1 = ch.Hs;
+      ch.Hs = spare;
+      ch.Tp.set(ch.Told);
     }
     for (let z = 0; z < nZ; z++) {
       TairM2[z] = TairM1[z];
       TairM1[z] = TairOld[z];
+      TairP[z] = TairOld[z];
     }
     hPrev2 = hPrev1;
     hPrev1 = h;
@@ -667,6 +630,9 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
     if (haveEst) {
       const err = (2 / 11) * maxChange;
       grow = err > 0 ? 0.9 * Math.cbrt(tolK / err) : 2;
+    } else if (haveLin) {
+      const err = (h / (h + hPrev1)) * maxChange;
+      grow = err > 0 ? 0.9 * Math.sqrt(tolK / err) : 2;
     } else grow = maxChange > 0 ? target / maxChange : 2;
     dt = Math.min(dtMax, Math.max(1, h * Math.min(2, Math.max(0.5, grow))));
     fillState();
@@ -675,6 +641,278 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
   const stored = energy() - E0;
   const totalIn = FACE_KINDS.reduce((a, k) => a + gains.faces[k], 0) + gains.edges + gains.openings;
   return { steps, newtonIterations: newton, gains_J: gains, storedChange_J: stored, energyError_J: stored - totalIn, t_end_s: t, heatCapacity_J_K: heatCapacity };
+}
+
+/** Everything one Newton solve of the network works on, fixed for a run (arrays are overwritten in place). */
+interface NewtonSystem {
+  chains: Chain[];
+  nFaces: number;
+  nZ: number;
+  nK: number;
+  keyRow: Int32Array;
+  zoneRow: Int32Array;
+  elim: Elimination;
+  linkA: Int32Array;
+  linkB: Int32Array;
+  linkG: Float64Array;
+  A: Float64Array;
+  A0: Float64Array;
+  rhs: Float64Array;
+  dAir: Float64Array;
+  res: Float64Array;
+  outerG: Float64Array;
+  outerT: Float64Array;
+  Cair: Float64Array;
+  edgeShare: Float64Array;
+  openShare: Float64Array;
+  sumU: Float64Array;
+  Tair: Float64Array;
+  TairStar: Float64Array;
+}
+
+/** The parts of the dense system that stay fixed over a step's Newton iterations, into A0. */
+function fixedSystem(S: NewtonSystem, invH: number, Gedge: number, Gopen: number, Gzz: number): void {
+  const { A0, nK, nZ, keyRow, zoneRow, linkA, linkB, linkG, chains } = S;
+  A0.fill(0);
+  for (let l = 0; l < linkA.length; l++) {
+    const ra = keyRow[linkA[l]];
+    const rb = keyRow[linkB[l]];
+    A0[ra * nK + rb] -= linkG[l];
+    A0[rb * nK + ra] -= linkG[l];
+  }
+  for (let z = 0; z < nZ; z++) {
+    const zr = zoneRow[z];
+    A0[zr * nK + zr] = S.Cair[z] * invH + Gedge * S.edgeShare[z] + Gopen * S.openShare[z] + S.sumU[z];
+  }
+  if (nZ > 1 && Gzz > 0) {
+    const z0 = zoneRow[0];
+    const z1 = zoneRow[1];
+    A0[z0 * nK + z0] += Gzz;
+    A0[z1 * nK + z1] += Gzz;
+    A0[z0 * nK + z1] -= Gzz;
+    A0[z1 * nK + z0] -= Gzz;
+  }
+  for (let ci = 0; ci < chains.length; ci++) {
+    const row = keyRow[ci];
+    if (row < 0) continue;
+    const U = chains[ci].U;
+    for (let z = 0; z < nZ; z++) {
+      const zr = zoneRow[z];
+      A0[row * nK + zr] -= U[z];
+      A0[zr * nK + row] -= U[z];
+    }
+  }
+}
+
+/**
+ * Newton iterations of one implicit step (backward Euler of length 1/invH from the stored H* and T*_air),
+ * from the temperatures in the chains and zones. Returns the number of iterations, or 0 if it did not
+ * converge within 40.
+ */
+function newtonStep(S: NewtonSystem, invH: number, Gedge: number, Gopen: number, Gzz: number, air_C: number): number {
+  const { chains, nFaces, nZ, nK, keyRow, zoneRow, elim, linkA, linkB, linkG, A, A0, rhs, dAir, res, outerG, outerT, Cair, edgeShare, openShare, Tair, TairStar } = S;
+  let lastStep = Infinity;
+  for (let it = 0; it < 40; it++) {
+    A.set(A0);
+    rhs.fill(0);
+    // Contact fluxes at this iterate (their Jacobian is in the dense system).
+    for (let ci = 0; ci < chains.length; ci++) chains[ci].extra = 0;
+    for (let l = 0; l < linkA.length; l++) {
+      const P = chains[linkA[l]];
+      const Q = chains[linkB[l]];
+      const q = linkG[l] * (Q.T[Q.n - 1] - P.T[P.n - 1]);
+      P.extra += q;
+      Q.extra -= q;
+    }
+    // The zones' own residuals.
+    for (let z = 0; z < nZ; z++) {
+      res[z] = Cair[z] * (Tair[z] - TairStar[z]) * invH - (Gedge * edgeShare[z] + Gopen * openShare[z]) * (air_C - Tair[z]);
+    }
+    if (nZ > 1 && Gzz > 0) {
+      res[0] -= Gzz * (Tair[1] - Tair[0]);
+      res[1] -= Gzz * (Tair[0] - Tair[1]);
+    }
+    // Build and forward-eliminate each chain, then couple its end node to the dense system.
+    for (let ci = 0; ci < chains.length; ci++) {
+      const ch = chains[ci];
+      assembleChain(ch, invH, ci < nFaces ? outerG[ci] : 0, ci < nFaces ? outerT[ci] : 0, Tair, nZ, res);
+      const row = keyRow[ci];
+      if (row >= 0) {
+        // The end node stays an unknown: bp δ_end − Σ U_z δ_z − Σ G δ_partner = dp.
+        A[row * nK + row] += ch.bp[ch.n - 1];
+        rhs[row] += ch.dp[ch.n - 1];
+      } else schurOntoZones(ch, A, rhs, nK, nZ, zoneRow);
+    }
+    for (let z = 0; z < nZ; z++) rhs[zoneRow[z]] -= res[z];
+    solveSparse(elim, A, rhs, dAir);
+    let maxStep = 0;
+    for (let z = 0; z < nZ; z++) {
+      const d = dAir[zoneRow[z]];
+      Tair[z] += d;
+      maxStep = Math.max(maxStep, Math.abs(d));
+    }
+    for (let ci = 0; ci < chains.length; ci++) {
+      const row = keyRow[ci];
+      const m = backSubstitute(chains[ci], row >= 0 ? dAir[row] : NaN, dAir, nZ, zoneRow);
+      if (m > maxStep) maxStep = m;
+    }
+    // Converged once the error left after this update is below the tolerance: the update itself, or,
+    // while the updates shrink at a rate θ = |δ_k|/|δ_k−1| < 1/2, the next one, bounded by θ/(1 − θ)·|δ_k|
+    // (the contraction estimate of Hairer & Wanner [hairerWanner1996]).
+    const theta = maxStep / lastStep;
+    if (it > 0 && (maxStep < NEWTON_TOL_K || (theta < 0.5 && (theta / (1 - theta)) * maxStep < NEWTON_TOL_K))) return it + 1;
+    lastStep = maxStep;
+  }
+  return 0;
+}
+
+/** Largest distance of a chain's stored quantity from its extrapolation L0·E⁰ + L1·E⁻¹ + L2·E⁻², in kelvin (H over 3 kJ/(kg·K)). */
+function extrapolationDistance(ch: Chain, L0: number, L1: number, L2: number): number {
+  const n = ch.n;
+  const now = ch.mat ? ch.Hcur : ch.T;
+  const sc = ch.mat ? 1 / 3000 : 1;
+  const Hs = ch.Hs;
+  const Hm1 = ch.Hm1;
+  const Hm2 = ch.Hm2;
+  let m = 0;
+  for (let i = 0; i < n; i++) {
+    const d = Math.abs(now[i] - (L0 * Hs[i] + L1 * Hm1[i] + L2 * Hm2[i]));
+    if (d > m) m = d;
+  }
+  return m * sc;
+}
+
+/**
+ * Start of a step for one chain: keeps the start state, forms the BDF2 history term
+ * H* = H⁰ + star·(H⁰ − H⁻¹) (or H⁰ for backward Euler) and puts the predictor T⁰ + f·(T⁰ − T⁻¹) in T.
+ */
+function startChainStep(ch: Chain, bdf: boolean, star: number, fPred: number): void {
+  const n = ch.n;
+  const T = ch.T;
+  ch.Told.set(T);
+  ch.Hs.set(ch.mat ? ch.Hcur : T);
+  const Hs = ch.Hs;
+  const Hold = ch.Hold;
+  if (bdf) {
+    const Hm1 = ch.Hm1;
+    for (let i = 0; i < n; i++) Hold[i] = Hs[i] + star * (Hs[i] - Hm1[i]);
+  } else Hold.set(Hs);
+  if (fPred > 0) {
+    const Tp = ch.Tp;
+    for (let i = 0; i < n; i++) T[i] += fPred * (T[i] - Tp[i]);
+  }
+}
+
+/**
+ * One chain's Newton rows at the current iterate (capacity, internal links, the outer film for a face,
+ * contact and zone coupling at the end node), forward-eliminated towards the end node (bp, dp); adds the
+ * chain's share to the zones' residuals.
+ */
+function assembleChain(ch: Chain, invH: number, Gout: number, Tout: number, Tair: Float64Array, nZ: number, res: Float64Array): void {
+  const n = ch.n;
+  const T = ch.T;
+  const a = ch.a;
+  const b = ch.b;
+  const c = ch.c;
+  const R = ch.R;
+  const mat = ch.mat;
+  const Gfac = ch.Gfac;
+  if (mat) {
+    // One fused table look-up per node: H, its slope and k.
+    evalMaterial(mat, T, 0, n, ch.Hn, ch.cn, ch.k, 1);
+    capacityRows(n, ch.mass, ch.cn, ch.Hn, ch.Hold, invH, b, R);
+    const k = ch.k;
+    for (let i = 0; i < n - 1; i++) {
+      const k1 = k[i];
+      const k2 = k[i + 1];
+      const G = (Gfac[i] * 2 * k1 * k2) / (k1 + k2);
+      const q = G * (T[i + 1] - T[i]);
+      R[i] -= q;
+      R[i + 1] += q;
+      b[i] += G;
+      b[i + 1] += G;
+      c[i] = -G;
+      a[i + 1] = -G;
+    }
+  } else {
+    capacityRowsLinear(n, ch.mass, T, ch.Hold, invH, b, R);
+    for (let i = 0; i < n - 1; i++) {
+      const G = Gfac[i];
+      const q = G * (T[i + 1] - T[i]);
+      R[i] -= q;
+      R[i + 1] += q;
+      b[i] += G;
+      b[i + 1] += G;
+      c[i] = -G;
+      a[i + 1] = -G;
+    }
+  }
+  a[0] = 0;
+  c[n - 1] = 0;
+  if (Gout > 0) {
+    R[0] -= Gout * (Tout - T[0]);
+    b[0] += Gout;
+  }
+  const e = n - 1;
+  R[e] -= ch.extra;
+  b[e] += ch.linkDiag;
+  const U = ch.U;
+  for (let z = 0; z < nZ; z++) {
+    const Uz = U[z];
+    if (Uz === 0) continue;
+    R[e] -= Uz * (Tair[z] - T[e]);
+    b[e] += Uz;
+    res[z] -= Uz * (T[e] - Tair[z]);
+  }
+  // Forward elimination towards the air-coupled end.
+  const bp = ch.bp;
+  const dp = ch.dp;
+  bp[0] = b[0];
+  dp[0] = -R[0];
+  for (let i = 1; i < n; i++) {
+    const w = a[i] / bp[i - 1];
+    bp[i] = b[i] - w * c[i - 1];
+    dp[i] = -R[i] - w * dp[i - 1];
+  }
+}
+
+/** A chain whose end node only touches the zones: δ_end = (dp + Σ U_z δ_z)/bp, its Schur complement onto the zones' rows. */
+function schurOntoZones(ch: Chain, A: Float64Array, rhs: Float64Array, nK: number, nZ: number, zoneRow: Int32Array): void {
+  const bpn = ch.bp[ch.n - 1];
+  const dpn = ch.dp[ch.n - 1];
+  const U = ch.U;
+  for (let z = 0; z < nZ; z++) {
+    const Uz = U[z];
+    if (Uz === 0) continue;
+    const zr = zoneRow[z];
+    rhs[zr] += (Uz * dpn) / bpn;
+    for (let y = 0; y < nZ; y++) if (U[y] !== 0) A[zr * nK + zoneRow[y]] -= (Uz * U[y]) / bpn;
+  }
+}
+
+/** Back substitution of one chain from its end node's update (given for a node in the dense system, NaN to derive it from the zones); returns the largest |δT|. */
+function backSubstitute(ch: Chain, endDelta: number, d: Float64Array, nZ: number, zoneRow: Int32Array): number {
+  const n = ch.n;
+  const T = ch.T;
+  const bp = ch.bp;
+  const dp = ch.dp;
+  const c = ch.c;
+  let next = endDelta;
+  if (next !== next) {
+    let coupled = dp[n - 1];
+    const U = ch.U;
+    for (let z = 0; z < nZ; z++) coupled += U[z] * d[zoneRow[z]];
+    next = coupled / bp[n - 1];
+  }
+  T[n - 1] += next;
+  let maxStep = Math.abs(next);
+  for (let i = n - 2; i >= 0; i--) {
+    next = (dp[i] - c[i] * next) / bp[i];
+    T[i] += next;
+    const m = Math.abs(next);
+    if (m > maxStep) maxStep = m;
+  }
+  return maxStep;
 }
 
 /** Capacity terms of an enthalpy chain's rows: diagonal m·c/h and residual m·(H − H_old)/h. */
@@ -695,9 +933,6 @@ function capacityRowsLinear(n: number, C: Float64Array, T: Float64Array, Told: F
   }
 }
 
-function harmonic(a: number, b: number): number {
-  return (2 * a * b) / (a + b);
-}
 
 /** Outer combined coefficient of a box in given air, from the core's correlations plus radiation. */
 export function boxOuterCoefficient(outer: { length_m: number; width_m: number; height_m: number }, air_C: number, speed_m_s: number, emissivity: number, surfaceMinusAir_K: number): number {
