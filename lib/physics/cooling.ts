@@ -27,12 +27,12 @@
 import { coolInputSchema, coolMethodSchema, COOL_METHOD_LABELS, GASTRONORM_SIZES, PAN_MATERIALS, type CoolInput, type CoolMethod, type CoolMethodKind, type CoolParsed } from "../schemas/cool";
 import { productThermal, warnPropertyRange, type FoodThermal } from "./properties";
 import { itemShape } from "./geometry";
-import { forcedFlatPlate, itemSurfaceCoefficient, mixedConvection, naturalHorizontalPlate, naturalVerticalPlate, radiationCoefficient, airProps, type Fluid } from "./surfaces";
+import { followingSurface, forcedFlatPlate, itemSurfaceCoefficient, mixedConvection, naturalHorizontalPlate, naturalVerticalPlate, radiationCoefficient, airProps, type Fluid } from "./surfaces";
 import { evaporation } from "./psychrometrics";
 import { solve1D, solverScale, type Boundary, type Solver1DResult } from "./solver1d";
 import { seriesTheta } from "./conduction";
 import { coolingStages, hasCoolingStages, reaches, type ComplianceLine, type CoolingStage, type Curve } from "./compliance";
-import { brent } from "./numerics";
+import { brent, interpolateAt } from "./numerics";
 import { PhysicsInputError } from "./validation";
 
 export type RunnableMethod = Exclude<CoolMethod, { kind: "ice_paddle" }>;
@@ -107,19 +107,6 @@ function faceConvection(fluid: Fluid, Ts_C: number, T_C: number, face: { orienta
   return mixedConvection(forcedFlatPlate(fluid, Ts, T_C, face.flow_m, speed_m_s, warnings).h_W_m2K, hN);
 }
 
-/** A coefficient that follows the surface temperature, re-evaluated when it has moved 0.25 K. */
-function following(f: (Ts_C: number) => number): (t: number, Ts_C: number) => number {
-  let last = NaN;
-  let h = 0;
-  return (_t, Ts) => {
-    if (!(Math.abs(Ts - last) <= 0.25)) {
-      last = Ts;
-      h = f(Ts);
-    }
-    return h;
-  };
-}
-
 interface Faces {
   /** Boundary at the open top (or the lid), per m² of top. */
   top: Extract<Boundary, { kind: "convective" }>;
@@ -188,7 +175,7 @@ function prepare(inp: CoolParsed, method: RunnableMethod): Prepared {
       o.topH_W_m2K !== null
         ? { kind: "convective", h_W_m2K: () => o.topH_W_m2K! * open, fluid_C: () => air.T_C }
         : (() => {
-            const h = following((Ts) => open * hc(Ts));
+            const h = followingSurface((Ts) => open * hc(Ts));
             return { kind: "convective" as const, h_W_m2K: h, fluid_C: () => air.T_C, emissivity: open * eps, radiant_C: () => air.T_C, surfaceFlux: evaporationFlux(h, open) };
           })();
     assumptions.push(
@@ -252,7 +239,7 @@ function prepare(inp: CoolParsed, method: RunnableMethod): Prepared {
     let topConvection: Faces["topConvection"] = null;
     if (o.topH_W_m2K !== null) top = { kind: "convective", h_W_m2K: () => o.topH_W_m2K!, fluid_C: () => air.T_C };
     else if (!s.lid) {
-      const h = following(hcTop);
+      const h = followingSurface(hcTop);
       top = { kind: "convective", h_W_m2K: h, fluid_C: () => air.T_C, emissivity: eps, radiant_C: () => air.T_C, surfaceFlux: evaporationFlux(h, 1) };
       topConvection = hcTop;
     } else {
@@ -271,19 +258,19 @@ function prepare(inp: CoolParsed, method: RunnableMethod): Prepared {
         }
         return U;
       };
-      top = { kind: "convective", h_W_m2K: following(hLid), fluid_C: () => air.T_C };
+      top = { kind: "convective", h_W_m2K: followingSurface(hLid), fluid_C: () => air.T_C };
     }
     let bottom: Faces["bottom"];
     if (o.bottomH_W_m2K !== null) bottom = { kind: "convective", h_W_m2K: () => o.bottomH_W_m2K!, fluid_C: () => coolant_C };
     else if ((method.kind === "walk_in" || method.kind === "blast_chiller") && method.support === "shelf") bottom = undefined;
     else if (method.kind === "walk_in" || method.kind === "blast_chiller") {
       const out = inAir(baseFaceAir, epsPan);
-      bottom = { kind: "convective", h_W_m2K: following((Ts) => throughWall(Ts, air.T_C, out)), fluid_C: () => air.T_C };
+      bottom = { kind: "convective", h_W_m2K: followingSurface((Ts) => throughWall(Ts, air.T_C, out)), fluid_C: () => air.T_C };
     } else if (method.kind === "ice_bath") {
       const out = (Tw: number) => faceConvection("water", Tw, method.water_C, baseFaceWater, 0, scratch);
-      bottom = { kind: "convective", h_W_m2K: following((Ts) => throughWall(Ts, method.water_C, out)), fluid_C: () => method.water_C };
+      bottom = { kind: "convective", h_W_m2K: followingSurface((Ts) => throughWall(Ts, method.water_C, out)), fluid_C: () => method.water_C };
     } else {
-      bottom = { kind: "convective", h_W_m2K: following((Ts) => throughWall(Ts, method.plate_C, () => method.contact_W_m2K)), fluid_C: () => method.plate_C };
+      bottom = { kind: "convective", h_W_m2K: followingSurface((Ts) => throughWall(Ts, method.plate_C, () => method.contact_W_m2K)), fluid_C: () => method.plate_C };
     }
     return { top, bottom, topConvection };
   };
@@ -391,21 +378,9 @@ function simulate(P: Prepared, depth_m: number, tEnd_s: number, stop?: (t_s: num
   return { curve: { t_s: solver.t_s, T_C: slowest }, surface_C: solver.surface_C, bottom_C: solver.center_C, solver };
 }
 
-/** Linear interpolation of a curve at t (held at the ends). */
-function at(c: Curve, t: number): number {
-  const n = c.t_s.length;
-  if (t <= c.t_s[0]) return c.T_C[0];
-  if (t >= c.t_s[n - 1]) return c.T_C[n - 1];
-  let lo = 0;
-  let hi = n - 1;
-  while (hi - lo > 1) {
-    const m = (lo + hi) >> 1;
-    if (c.t_s[m] <= t) lo = m;
-    else hi = m;
-  }
-  const f = (t - c.t_s[lo]) / (c.t_s[hi] - c.t_s[lo] || 1);
-  return c.T_C[lo] + f * (c.T_C[hi] - c.T_C[lo]);
-}
+/** A curve's temperature at t, held at the ends (numerics.ts interpolateAt). */
+// Every curve starts with its first point, so the clamped interpolation always has a value.
+const at = (c: Curve, t: number): number => interpolateAt(c.t_s, c.T_C, t)!;
 
 /** Longest a search run goes (it stops once both deadlines are past). */
 const SEARCH_CAP_S = 48 * 3600;

@@ -162,3 +162,13 @@ function pick1D(E: number, shortest_m: number, what: string): ItemShape["oneD"] 
     note: `The ${what} is modelled in one dimension as ${shape === "slab" ? "a slab" : shape === "cylinder" ? "an infinite cylinder" : "a sphere"} on its smallest dimension (${(shortest_m * 1000).toFixed(0)} mm), the nearest match to its equivalent heat-transfer dimensionality E = ${E.toFixed(2)}`,
   };
 }
+
+/**
+ * A box's outer dimensions from its inner ones and its layers: the walls add their total thickness on
+ * each side, the base the wall thickness and the top the lid's (the wall build-up when the lid has none).
+ */
+export function boxOuterDimensions(s: { innerLength_m: number; innerWidth_m: number; innerHeight_m: number; wallLayers: { thickness_m: number }[]; lidLayers: { thickness_m: number }[] | null }): { length_m: number; width_m: number; height_m: number; wall_m: number; lid_m: number } {
+  const wall_m = s.wallLayers.reduce((a, l) => a + l.thickness_m, 0);
+  const lid_m = (s.lidLayers ?? s.wallLayers).reduce((a, l) => a + l.thickness_m, 0);
+  return { length_m: s.innerLength_m + 2 * wall_m, width_m: s.innerWidth_m + 2 * wall_m, height_m: s.innerHeight_m + wall_m + lid_m, wall_m, lid_m };
+}

@@ -7,7 +7,7 @@
 import { DEFAULT_CONTACT_W_M2K, effectiveHoldCalibration, holdInputSchema, type HoldCalibration, type HoldInput, type HoldParsed } from "../schemas/hold";
 import type { Material, Pack, Product } from "../schemas/templates";
 import { productThermal, simpleMaterial } from "./properties";
-import { itemShape } from "./geometry";
+import { boxOuterDimensions, itemShape } from "./geometry";
 import { solAirTemperature, airProps, rayleigh, CP_AIR_J_KGK, P_ATM_PA, R_AIR_J_KGK, SIGMA_W_M2K4 } from "./surfaces";
 import { boxOuterCoefficient, radiationAt, runNetwork, type BodySpec, type FaceSpec, type Gains, type NetworkState, type WallLayerSpec } from "./shipper";
 import { layoutBox, type Layout } from "./placement";
@@ -153,10 +153,9 @@ function prepare(given: HoldParsed): Prepared {
   const wallLayers = toLayers(s.wallLayers, "shipper.wallLayers");
   const lidLayers = s.lidLayers ? toLayers(s.lidLayers, "shipper.lidLayers") : wallLayers;
   const finish = mat(s.finishMaterial, "shipper.finishMaterial");
-  const tw = wallLayers.reduce((a, l) => a + l.thickness_m, 0);
-  const tl = lidLayers.reduce((a, l) => a + l.thickness_m, 0);
+  const { wall_m: tw, ...outerDims } = boxOuterDimensions(s);
   const inner = { L: s.innerLength_m, W: s.innerWidth_m, H: s.innerHeight_m };
-  const outer = { length_m: inner.L + 2 * tw, width_m: inner.W + 2 * tw, height_m: inner.H + tw + tl };
+  const outer = { length_m: outerDims.length_m, width_m: outerDims.width_m, height_m: outerDims.height_m };
   const innerVolume = inner.L * inner.W * inner.H;
 
   // Products and packs: volumes, properties, bands.

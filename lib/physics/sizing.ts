@@ -24,6 +24,7 @@ import { MAX_CANDIDATES } from "../schemas/size";
 import { DEFAULT_CONTACT_W_M2K, HOLD_OVERRIDE_DEFAULTS, type HoldParsed } from "../schemas/hold";
 import type { Shipper, Material } from "../schemas/templates";
 import { holdRuns, uncertaintyCorners } from "./hold";
+import { boxOuterDimensions } from "./geometry";
 import { PhysicsInputError } from "./validation";
 
 export interface Candidate {
@@ -100,9 +101,8 @@ export function boxVariant(s: Shipper, materials: Material[], t: number | null):
 }
 
 function outerDims(s: Shipper) {
-  const tw = s.wallLayers.reduce((a, l) => a + l.thickness_m, 0);
-  const tl = (s.lidLayers ?? s.wallLayers).reduce((a, l) => a + l.thickness_m, 0);
-  return { L: s.innerLength_m + 2 * tw, W: s.innerWidth_m + 2 * tw, H: s.innerHeight_m + tw + tl };
+  const o = boxOuterDimensions(s);
+  return { L: o.length_m, W: o.width_m, H: o.height_m };
 }
 
 /**
