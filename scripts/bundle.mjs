@@ -11,7 +11,7 @@
 // command). Code splitting keeps the database layer in its own chunks, loaded only when a command
 // needs the library.
 import * as esbuild from "esbuild";
-import { mkdirSync, rmSync, writeFileSync } from "node:fs";
+import { existsSync, mkdirSync, renameSync, rmSync, writeFileSync } from "node:fs";
 import path from "node:path";
 import { fileURLToPath, pathToFileURL } from "node:url";
 import { parseArgs } from "node:util";
@@ -48,9 +48,18 @@ const external = ["better-sqlite3"];
 
 /** Builds every entry; returns the output paths. Throws on a build error (esbuild prints it). */
 export async function bundle({ quiet = false, outDir = null } = {}) {
-  const outOf = (e) => (outDir ? path.join(outDir, path.basename(e.out)) : path.join(root, e.out));
-  // Chunk names carry a hash: clear old ones so the split folders hold only this build.
-  if (!outDir) for (const dir of new Set(entries.filter((e) => e.split).map((e) => path.dirname(outOf(e))))) rmSync(dir, { recursive: true, force: true });
+  const final = (e) => (outDir ? path.join(outDir, path.basename(e.out)) : path.join(root, e.out));
+  // Split bundles are built into a fresh sibling folder and swapped in at the end (chunk names carry a
+  // hash, so the folder must hold only this build): a holdline command started meanwhile (a test, a
+  // second terminal) never finds its folder half written or gone.
+  const splitDirs = outDir ? [] : [...new Set(entries.filter((e) => e.split).map((e) => path.dirname(final(e))))];
+  const staging = new Map(splitDirs.map((d) => [d, `${d}.new-${process.pid}`]));
+  for (const d of staging.values()) rmSync(d, { recursive: true, force: true });
+  const outOf = (e) => {
+    const f = final(e);
+    const st = staging.get(path.dirname(f));
+    return st ? path.join(st, path.basename(f)) : f;
+  };
   for (const e of entries) {
     const out = outOf(e);
     await esbuild.build({
@@ -77,6 +86,12 @@ export async function bundle({ quiet = false, outDir = null } = {}) {
     });
   }
   if (outDir) return entries.map(outOf);
+  for (const [dir, st] of staging) {
+    const old = `${dir}.old-${process.pid}`;
+    if (existsSync(dir)) renameSync(dir, old);
+    renameSync(st, dir);
+    rmSync(old, { recursive: true, force: true });
+  }
   mkdirSync(path.join(root, "dist"), { recursive: true });
   writeFileSync(path.join(root, "dist", "cli.stamp"), sourceStamp(root, CLI_SOURCES) + "\n");
   if (!quiet) console.error(`holdline: bundled ${entries.map((e) => e.out).join(", ")}`);
