@@ -26,6 +26,8 @@ export function PlanActions({ kind, input, csv, defaultName, csvName, csvLabel =
             const r = await savePlanAction({ kind, name: name.trim() || defaultName, input });
             if (r.ok) setSaved(r.id);
             else setProblem(Object.values(r.fieldErrors).flat().join("; ") || "The plan could not be saved");
+          } catch {
+            setProblem("The plan could not be saved: the server did not answer. Check the connection and try again.");
           } finally {
             setSaving(false);
           }

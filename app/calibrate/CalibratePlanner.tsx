@@ -1,5 +1,5 @@
 "use client";
-import { useMemo, useState } from "react";
+import { useEffect, useMemo, useRef, useState } from "react";
 import { calibrateInputSchema, CHANNEL_ROLES, CHANNEL_ROLE_LABELS, FACTOR_LABELS, HOLD_FACTORS, THAW_FACTORS, type LogFormatInput } from "@/lib/schemas/calibrate";
 import { describeLogProblems, parseLogCsv } from "@/lib/calibration/log-csv";
 import { compareHoldWithLog, compareThawWithLog, type LogComparison } from "@/lib/calibration/align";
@@ -38,7 +38,7 @@ const DELIM_LABELS: Record<Delim, string> = { auto: "detect", ",": "comma", ";":
 /** One column's mapping: "-" (not used) or a channel spec "product:0:surface" (lib/calibration/guess-format.ts). */
 type Mapping = string;
 
-export function CalibratePlanner({ choices, initial }: { choices: PlanChoice[]; initial: string }) {
+export function CalibratePlanner({ choices, initial, initialLog }: { choices: PlanChoice[]; initial: string; initialLog?: { name: string; text: string } }) {
   const units = useUnits();
   const dUnit = units.temperatureUnit === "F" ? "°F" : "K";
   const diff = (k: number | null) => (k === null ? "—" : `${diffInUnits(k, units).toFixed(2)} ${dUnit}`);
@@ -92,6 +92,18 @@ export function CalibratePlanner({ choices, initial }: { choices: PlanChoice[]; 
       return ch ? `${ch.role}${ch.line ? `:${ch.line}` : ""}${ch.point === "surface" ? ":surface" : ""}` : "-";
     }));
   };
+
+  // A reopened calibration: read its log once, as if it had just been loaded.
+  const reopenedLog = useRef(initialLog);
+  useEffect(() => {
+    const log = reopenedLog.current;
+    if (!log) return;
+    const t = setTimeout(() => {
+      reopenedLog.current = undefined;
+      loadText(log.name, log.text);
+    });
+    return () => clearTimeout(t);
+  });
 
   const format: LogFormatInput | null = header.length
     ? {

@@ -18,9 +18,18 @@ export default async function CalibratePage({ searchParams }: { searchParams: Pr
   for (const p of saved) choices.push({ id: String(p.id), kind: p.kind as "hold" | "thaw", label: `${p.name} (saved ${p.kind} plan ${p.id})`, input: p.input });
   // ?plan=ID: that saved plan, even if older than the newest shown.
   let initial = choices[0]?.id ?? "";
+  let initialLog: { name: string; text: string } | undefined;
+  let reopened: string | undefined;
   if (planId) {
     const p = await getPlan(db, planId);
-    if (p && (p.kind === "hold" || p.kind === "thaw")) {
+    // A saved calibration reopens with its own plan and log (the log's layout is read from it again).
+    const cal = p && p.kind === "calibrate" ? calibratePlanner.schema.safeParse(p.input) : null;
+    if (p && cal?.success) {
+      choices.push({ id: `calibration-${p.id}`, kind: cal.data.planner, label: `The plan of the saved calibration "${p.name}"`, input: cal.data.plan });
+      initial = `calibration-${p.id}`;
+      initialLog = { name: cal.data.log.name, text: cal.data.log.text };
+      reopened = p.name;
+    } else if (p && (p.kind === "hold" || p.kind === "thaw")) {
       if (!choices.some((c) => c.id === String(p.id))) choices.push({ id: String(p.id), kind: p.kind, label: `${p.name} (saved ${p.kind} plan ${p.id})`, input: p.input });
       initial = String(p.id);
     }
@@ -29,7 +38,14 @@ export default async function CalibratePage({ searchParams }: { searchParams: Pr
     <>
       <h1 className="no-print">{calibratePlanner.title}</h1>
       <p className="lede no-print">{calibratePlanner.question}</p>
-      {choices.length === 0 ? <p>Save a hold or thaw plan first, or restore the demo library&apos;s lunch-run templates.</p> : <CalibratePlanner choices={choices} initial={initial} />}
+      {choices.length === 0 ? <p>Save a hold or thaw plan first, or restore the demo library&apos;s lunch-run templates.</p> : <>
+          {reopened ? (
+            <p className="banner ok no-print" role="status">
+              Reopened the saved calibration &ldquo;{reopened}&rdquo; with its plan and log.
+            </p>
+          ) : null}
+          <CalibratePlanner choices={choices} initial={initial} initialLog={initialLog} />
+        </>}
     </>
   );
 }

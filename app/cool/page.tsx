@@ -18,7 +18,7 @@ export default async function CoolPage({ searchParams }: { searchParams: Promise
       {lib.products.length === 0 || lib.ruleSets.length === 0 ? (
         <p>Add at least one product and one rule set to the library first.</p>
       ) : (
-        <CoolPlanner products={lib.products} ruleSets={lib.ruleSets} defaultRuleSet={lib.defaultRuleSet} initial={initial?.success ? (initial.data as never) : undefined} reopened={saved?.name} />
+        <CoolPlanner products={lib.products} ruleSets={lib.ruleSets} defaultRuleSet={lib.defaultRuleSet} initial={initial?.success ? (initial.data as never) : undefined} reopened={initial?.success ? saved?.name : undefined} />
       )}
     </>
   );

@@ -710,6 +710,26 @@ export function holdRuns(
   return { runs, routeLength_s: P.routeLength_s, hasLowerLimit: hasLower, complete: true };
 }
 
+/**
+ * The runs of the hold planner's own uncertainty sample, for the sizer: the central run first, then, for a
+ * calibrated box, every corner of its fitted intervals (calibratedCorners, as runHoldParsed's band), else
+ * the default corners given. Stops early, as holdRuns does, once the minimum is below `stopBelow_s`.
+ */
+export function holdSampleRuns(inp: HoldParsed, corners: HoldCorner[], opts: { lowOnly?: boolean; stopBelow_s?: number } = {}): ReturnType<typeof holdRuns> {
+  const cal = calibratedCorners(inp);
+  if (!cal) return holdRuns(inp, corners, opts);
+  const first = holdRuns(inp, [{ outerHScale: 1, insulationKScale: 1, conditioningShift_K: 0 }]);
+  const runs = [...first.runs];
+  let low = first.runs[0].holdTime_s ?? Infinity;
+  for (let i = 0; i < cal.length; i++) {
+    if (opts.stopBelow_s !== undefined && low < opts.stopBelow_s) return { ...first, runs, complete: false };
+    const r = holdRuns(cal[i].inp, [{ outerHScale: 1, insulationKScale: 1, conditioningShift_K: cal[i].conditioningShift_K }]).runs[0];
+    runs.push(r);
+    if (r.holdTime_s !== null && r.holdTime_s < low) low = r.holdTime_s;
+  }
+  return { ...first, runs, complete: true };
+}
+
 export function runHoldParsed(inp: HoldParsed, opts: { resolution?: number } = {}): HoldResult {
   const P = prepare(inp);
   const central = runOnce(P, { resolution: opts.resolution, outerHScale: 1, insulationKScale: 1, conditioningShift_K: 0, keepSeries: true });

@@ -23,7 +23,7 @@ import type { SizeParsed } from "../schemas/size";
 import { MAX_CANDIDATES } from "../schemas/size";
 import { DEFAULT_CONTACT_W_M2K, HOLD_OVERRIDE_DEFAULTS, type HoldParsed } from "../schemas/hold";
 import type { Shipper, Material } from "../schemas/templates";
-import { holdRuns, uncertaintyCorners } from "./hold";
+import { holdRuns, holdSampleRuns, uncertaintyCorners } from "./hold";
 import { boxOuterDimensions } from "./geometry";
 import { PhysicsInputError } from "./validation";
 
@@ -219,7 +219,8 @@ export function evaluateCandidate(inp: SizeParsed, c: Candidate, required_s: num
     const hold = candidateHoldInput(inp, c, extend);
     // The low end: the minimum over the hold planner's own uncertainty sample (central run first).
     // A candidate already below 75 % of the required hold is no near miss: its remaining corners are skipped.
-    out = holdRuns(hold, inp.judgeBy === "central" ? uncertaintyCorners({ outerH_frac: 0, insulationK_frac: 0, conditioning_K: 0 }) : uncertaintyCorners(inp.uncertainty), {
+    // A calibrated box is judged on its fitted intervals, as the hold planner's band is (holdSampleRuns).
+    out = (inp.judgeBy === "central" ? holdRuns : holdSampleRuns)(hold, inp.judgeBy === "central" ? uncertaintyCorners({ outerH_frac: 0, insulationK_frac: 0, conditioning_K: 0 }) : uncertaintyCorners(inp.uncertainty), {
       lowOnly: true,
       stopBelow_s: NEAR_MISS_FRACTION * required_s,
     });

@@ -3,7 +3,8 @@
  * logger's readings, and show the log against the model before and after the fit. The nested `plan` names
  * its templates as the hold or thaw entry does (refs.inner).
  */
-import { calibrateInputSchema, CHANNEL_ROLE_LABELS } from "../schemas/calibrate";
+import { calibrateInputSchema, CHANNEL_ROLE_LABELS, FACTOR_LABELS } from "../schemas/calibrate";
+import { THAW_METHOD_LABELS } from "../schemas/thaw";
 import { runCalibrationParsed, type CalibrationResult } from "../physics/calibrate";
 import type { ChannelComparison, LogComparison } from "../calibration/align";
 import type { UnitPrefs } from "../units";
@@ -120,10 +121,10 @@ export const calibratePlanner: PlannerEntry<typeof calibrateInputSchema, Calibra
         { label: "Fit", value: `${r.iterations} Levenberg–Marquardt steps, ${r.modelRuns} model runs; reading noise about ${diffText(r.noise_K, u)}` },
       ],
       inputs: [
-        { label: "Plan", value: input.planner === "hold" ? `hold: ${input.plan.shipper.name} on ${input.plan.route.name}` : `thaw: ${input.plan.product.name}, ${input.plan.method.kind.replace(/_/g, " ")}` },
+        { label: "Plan", value: input.planner === "hold" ? `hold: ${input.plan.shipper.name} on ${input.plan.route.name}` : `thaw: ${input.plan.product.name}, ${THAW_METHOD_LABELS[input.plan.method.kind].toLowerCase()}` },
         { label: "Log", value: `${input.log.name}${r.log.start ? `, first reading ${r.log.start.slice(0, 16).replace("T", " ")}` : ""}` },
         { label: "Columns", value: r.comparison.channels.map((c) => `"${c.label}" → ${channelWhat(c)}`).join("; ") || "none compared" },
-        { label: "Factors asked for", value: input.fit.join(", ") },
+        { label: "Factors asked for", value: input.fit.map((f) => FACTOR_LABELS[f]).join(", ") },
         { label: "Logged outside air drives the model", value: input.useLoggedOutsideAir && input.format.channels.some((c) => c.role === "outside_air") ? "yes" : "no" },
       ],
       charts,

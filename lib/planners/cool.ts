@@ -49,10 +49,11 @@ function shortStage(s: CoolStageResult | undefined, k: Kit): string {
   return `${s.reached_s === null ? "not reached" : k.dur(s.reached_s)} (${verdict(s.meets)})`;
 }
 
-function depthText(r: CoolResult, k: Kit, asked: boolean): string {
+function depthText(r: CoolResult, k: Kit, pending: boolean): string {
   const d = r.maxDepth;
-  // Asked for but not in this answer: the quick first answer, the search follows.
-  if (d.limitedBy === "not searched") return asked ? "being worked out…" : d.detail;
+  // The quick first answer leaves the search out; the full one follows.
+  if (pending) return "being worked out…";
+  if (d.limitedBy === "not searched") return k.text(d.detail);
   if (r.maxDepth_m === null) return k.text(d.detail);
   return `${k.length(r.maxDepth_m)}${d.limitedBy === "pan" ? " (the whole pan)" : ""}: ${k.text(d.detail)}`;
 }
@@ -70,7 +71,7 @@ export const coolPlanner: PlannerEntry<typeof coolInputSchema, CoolResult> = {
   run: (p) => runCoolParsed(p),
   quick: (p) => (p.searchDepth || p.compare ? { input: { ...p, searchDepth: false, compare: false }, pending: "Finding the deepest layer and comparing methods…" } : null),
   defaultName: (p) => `${p.product.name}${p.setup.kind === "pan" ? ` in a ${p.setup.size} pan` : ""}, ${COOL_METHOD_LABELS[p.method.kind].toLowerCase()}`,
-  view(input, r, u) {
+  view(input, r, u, stage) {
     const k = kit(u);
     const s1 = r.stages.find((s) => s.stage === 1);
     const s2 = r.stages.find((s) => s.stage === 2);
@@ -100,7 +101,7 @@ export const coolPlanner: PlannerEntry<typeof coolInputSchema, CoolResult> = {
       facts: [
         { label: "Stage 1", testId: "cool-stage-1", value: stageText(s1, k) },
         { label: "Stage 2", testId: "cool-stage-2", value: stageText(s2, k) },
-        { label: pan ? "Deepest layer that meets both stages" : "Deepest layer", testId: "cool-max-depth", value: depthText(r, k, input.searchDepth) },
+        { label: pan ? "Deepest layer that meets both stages" : "Deepest layer", testId: "cool-max-depth", value: depthText(r, k, !!stage?.quick && input.searchDepth) },
         ...(r.waterEvaporated_kg > 0 ? [{ label: "Water evaporated", testId: "cool-evaporated", value: `${k.mass(r.waterEvaporated_kg)} of ${k.mass(r.mass_kg)}; ${Math.round(r.evaporationShare * 100)} % of the heat lost left by evaporation` }] : []),
       ],
       inputs: [

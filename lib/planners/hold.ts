@@ -33,7 +33,7 @@ export const holdPlanner: PlannerEntry<typeof holdInputSchema, HoldResult> = {
       ? null
       : { input: { ...p, uncertainty: { ...p.uncertainty, outerH_frac: 0, insulationK_frac: 0, conditioning_K: 0 } }, pending: "Working out the uncertainty range…" },
   defaultName: (p) => `${p.shipper.name} on ${p.route.name}`,
-  view(input, r, u) {
+  view(input, r, u, stage) {
     const k = kit(u);
     const data = r.series.map((p) => {
       const row: Record<string, number> = { t_h: p.t_s / 3600, airLo: k.T(p.airLower_C), airUp: k.T(p.airUpper_C) };
@@ -107,7 +107,7 @@ export const holdPlanner: PlannerEntry<typeof holdInputSchema, HoldResult> = {
       facts: [
         { label: "Hold time", testId: "hold-time", value: r.band.central === null ? `more than ${k.dur(r.routeLength_s + (r.margin_s ?? 0))}` : k.dur(r.band.central) },
         { label: "Margin on the route", testId: "hold-margin", value: r.margin_s === null ? "—" : `${r.margin_s < 0 ? "short by " : r.marginIsLowerBound ? "at least " : ""}${k.dur(Math.abs(r.margin_s))}` },
-        { label: "Range (uncertainty)", testId: "hold-band", value: `${lowText} – ${highText}` },
+        { label: "Range (uncertainty)", testId: "hold-band", value: stage?.quick ? "being worked out…" : `${lowText} – ${highText}` },
         { label: "Fails first", testId: "hold-fails-first", value: ff ? `${ff.product}, ${ff.point}, crossing the ${ff.limit} limit ${k.temp(ff.limit_C)}` : "nothing within the time simulated" },
         ...(r.hasDryIce ? [{ label: "Dry ice left at the end", value: `${k.mass(dryIceLeft_kg)}; about ${r.co2Released_m3.toFixed(2)} m³ of CO₂ gas given off` }] : []),
       ],

@@ -19,6 +19,8 @@ export async function runPlanner(entry: PlannerEntry, input: unknown, stage: "qu
   if (!parsed.success) return { ok: false, fieldErrors: fieldErrorsOf(parsed.error) };
   try {
     const q = stage === "quick" ? entry.quick(parsed.data) : null;
+    // Nothing cheaper to show first: the quick stage computes nothing (the full stage follows).
+    if (stage === "quick" && !q) return { ok: true, result: { parsed: parsed.data, result: undefined, pending: null } };
     const result = await entry.run(q ? q.input : parsed.data);
     return { ok: true, result: { parsed: parsed.data, result, pending: q ? q.pending : null } };
   } catch (e) {

@@ -100,6 +100,7 @@ export interface PlannerEntry<S extends z.ZodType = z.ZodType, R = unknown> {
   quick: (parsed: z.output<S>) => { input: z.output<S>; pending: string } | null;
   /** The plan's suggested name. */
   defaultName: (parsed: z.output<S>) => string;
-  view: (parsed: z.output<S>, result: R, units: UnitPrefs) => PlanView;
+  /** `stage.quick`: the result is the quick first answer (what `quick` left out is still to come). */
+  view: (parsed: z.output<S>, result: R, units: UnitPrefs, stage?: { quick: boolean }) => PlanView;
   csv: (parsed: z.output<S>, result: R, units: UnitPrefs) => CsvRow[];
 }

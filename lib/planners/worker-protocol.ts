@@ -38,7 +38,7 @@ export function plannerWorkerHandler(post: (m: FromPlannerWorker) => void, now: 
         if (!r.ok) return post({ type: "invalid", id: m.id, fieldErrors: r.fieldErrors });
         const { parsed, result, pending } = r.result;
         if (stage === "quick" && pending === null) continue; // no cheaper answer: go straight to the full one
-        const view = entry.view(parsed, result, m.units);
+        const view = entry.view(parsed, result, m.units, { quick: stage === "quick" });
         if (pending) view.pending = pending;
         post({ type: "result", id: m.id, stage, view, csv: stage === "full" ? entry.csv(parsed, result, m.units) : [], parsed, result, compute_ms: now() - t0 });
         if (stage === "quick") {

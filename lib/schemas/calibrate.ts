@@ -84,7 +84,7 @@ const common = {
   log: z.object({
     /** The file's name, kept as provenance. */
     name: z.string().trim().max(200).default("log.csv"),
-    text: z.string().min(1, { error: "The log file is empty" }).max(5_000_000, { error: "The log file is larger than 5 MB" }),
+    text: z.string().min(1, { error: "The log file is empty" }).max(900_000, { error: "The log file is larger than 900 kB (the largest request the server reads is 1 MiB): export a shorter period or a longer logging interval" }),
   }),
   format: logFormatSchema,
   /**

@@ -144,3 +144,33 @@ describe("a wall-thickness variant adds its foam's mass and cost", () => {
     expect(b.cost).toBeGreaterThan(a.cost);
   });
 });
+
+/**
+ * A calibrated box (fitted factors with 95 % intervals on its template) is judged by the sizer on the same
+ * sample as the hold planner's band: the corners of the fitted intervals, not the default spreads. The
+ * reference is the hold planner itself on the same pack-out (its band.low), to round-off.
+ */
+describe("a calibrated box: the sizer's judged hold is the hold planner's band.low from the fitted intervals", () => {
+  it("thin cooler calibrated from a log, 2 and 3 gel packs", async () => {
+    const thin = D.shippers.find((s) => s.name.startsWith("Quillfield thin"))!;
+    const box = { ...thin, name: `${thin.name} — calibrated`, calibration: { source: "test log", logName: "test.csv", logStart: null, rms_K: 0.2, maxResidual_K: 0.6, factors: { wallConductance: { value: 1.2, low: 1.1, high: 1.3 }, innerH: { value: 0.9, low: 0.8, high: 1.0 } } } };
+    const inp = sizeInputSchema.parse({
+      products: [{ product: D.products.find((p) => p.name.startsWith("Roast chicken"))!, count: 1, start_C: 2 }],
+      route: { name: "yard", notes: "", segments: [{ label: "yard", duration_s: 8 * 3600, airTemp_C: 30, airSpeed_m_s: 2, sun_W_m2: 0, lidOpenings: 0, lidOpenDuration_s: 0 }] },
+      ruleSet: D.rulesets[1],
+      materials: D.materials,
+      boxes: [{ shipper: box, thicknessVariants_m: [] }],
+      packs: [{ pack: D.packs.find((p) => p.name.startsWith("Gel"))!, minCount: 1, maxCount: 4, conditioning_C: [-18] }],
+      prune: false,
+    });
+    const r = await runSizing(inp, evaluateHere(inp));
+    const plan = planSizing(inp);
+    const judged = r.candidates.filter((x) => !x.holdIsUpperBound && x.hold_s !== null);
+    expect(judged.length).toBeGreaterThan(0);
+    for (const c of judged) {
+      const b = runHoldParsed({ ...candidateHoldInput(inp, plan.candidates[c.index], 0.5), uncertainty: inp.uncertainty });
+      expect(b.assumptions.join(" ")).toMatch(/fitted/i);
+      expect(Math.abs(c.hold_s! / b.band.low! - 1)).toBeLessThan(1e-6);
+    }
+  });
+});
