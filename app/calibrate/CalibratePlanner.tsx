@@ -5,7 +5,7 @@ import { describeLogProblems, parseLogCsv } from "@/lib/calibration/log-csv";
 import { compareHoldWithLog, compareThawWithLog, type LogComparison } from "@/lib/calibration/align";
 import { DEFAULT_CHANNELS, guessLogFormat, parseChannelSpec, TIME_CHOICES, type TimeChoice } from "@/lib/calibration/guess-format";
 import { EXAMPLE_LOG_NAME } from "@/lib/calibration/example";
-import { logChart, diffInUnits } from "@/lib/planners/calibrate";
+import { logChart, diffText } from "@/lib/planners/calibrate";
 import type { HoldParsed } from "@/lib/schemas/hold";
 import type { HoldResult } from "@/lib/physics/hold";
 import type { ThawResult } from "@/lib/physics/thaw";
@@ -40,8 +40,7 @@ type Mapping = string;
 
 export function CalibratePlanner({ choices, initial, initialLog }: { choices: PlanChoice[]; initial: string; initialLog?: { name: string; text: string } }) {
   const units = useUnits();
-  const dUnit = units.temperatureUnit === "F" ? "°F" : "K";
-  const diff = (k: number | null) => (k === null ? "—" : `${diffInUnits(k, units).toFixed(2)} ${dUnit}`);
+  const diff = (k: number | null) => diffText(k, units);
   const [choiceId, setChoiceId] = useState(initial);
   const choice = choices.find((c) => c.id === choiceId) ?? choices[0];
   const kind = choice.kind;

@@ -1,4 +1,5 @@
 "use client";
+import { ReopenedBanner, withSnapshot } from "@/app/_components/reopen";
 import type { ReactNode } from "react";
 import { Controller, get, useForm, useWatch } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
@@ -50,10 +51,9 @@ export function CoolPlanner(props: CoolPlannerProps) {
   const units = useUnits();
   const k = kit(units);
   // A reopened plan brings its own templates: offer them in the pickers even if the library changed.
-  const withSnapshot = <T extends { name: string }>(xs: T[], extra: T | undefined) => (extra && !xs.some((y) => y.name === extra.name) ? [...xs, extra] : xs);
   const init = props.initial;
-  const products = withSnapshot(props.products, init?.product as Product | undefined);
-  const ruleSets = withSnapshot(props.ruleSets, init?.ruleSet as RuleSet | undefined);
+  const products = withSnapshot(props.products, [init?.product as Product | undefined]);
+  const ruleSets = withSnapshot(props.ruleSets, [init?.ruleSet as RuleSet | undefined]);
   const first = products.find((p) => /rice/i.test(p.name)) ?? products[0];
   const form = useForm<CoolInput>({
     resolver: zodResolver(coolInputSchema) as never,
@@ -119,11 +119,7 @@ export function CoolPlanner(props: CoolPlannerProps) {
 
   return (
     <div className="planner cool">
-      {props.reopened ? (
-        <p className="banner ok no-print" role="status" style={{ gridColumn: "1 / -1" }}>
-          Reopened the saved plan &ldquo;{props.reopened}&rdquo; with the templates as they were when it was saved.
-        </p>
-      ) : null}
+      <ReopenedBanner name={props.reopened} />
       <form className="template-form planner-inputs no-print" onSubmit={(ev) => ev.preventDefault()} noValidate>
         <div className="field">
           <label htmlFor="product">Food</label>

@@ -1,4 +1,5 @@
 "use client";
+import { ReopenedBanner, withSnapshot } from "@/app/_components/reopen";
 import { Controller, useFieldArray, useForm, useWatch } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { DEFAULT_CONTACT_W_M2K, holdInputSchema, PLACEMENTS, type HoldInput, type HoldParsed } from "@/lib/schemas/hold";
@@ -24,7 +25,6 @@ export interface HoldPlannerProps {
 
 export function HoldPlanner(props: HoldPlannerProps) {
   // A reopened plan brings its own templates: offer them in the pickers even if the library changed.
-  const withSnapshot = <T extends { name: string }>(xs: T[], extra: (T | undefined)[]) => [...xs, ...extra.filter((x): x is T => !!x && !xs.some((y) => y.name === x.name))];
   const init = props.initial;
   const products = withSnapshot(props.products, init?.products?.map((l) => l.product as Product) ?? []);
   const shippers = withSnapshot(props.shippers, [init?.shipper as Shipper | undefined]);
@@ -55,11 +55,7 @@ export function HoldPlanner(props: HoldPlannerProps) {
 
   return (
     <div className="planner hold">
-      {props.reopened ? (
-        <p className="banner ok no-print" role="status" style={{ gridColumn: "1 / -1" }}>
-          Reopened the saved plan &ldquo;{props.reopened}&rdquo; with the templates as they were when it was saved.
-        </p>
-      ) : null}
+      <ReopenedBanner name={props.reopened} />
       <form className="template-form planner-inputs no-print" onSubmit={(ev) => ev.preventDefault()} noValidate>
         <fieldset className="group">
           <legend>Load</legend>

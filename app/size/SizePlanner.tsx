@@ -1,4 +1,5 @@
 "use client";
+import { ReopenedBanner, withSnapshot } from "@/app/_components/reopen";
 import { useEffect, useMemo, useRef, useState } from "react";
 import { Controller, useFieldArray, useForm, useWatch, type FieldErrors, type FieldValues } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
@@ -89,7 +90,6 @@ export function SizePlanner(props: SizePlannerProps) {
   const k = kit(units);
   // A reopened sizing brings its own templates: offer them in the pickers even if the library changed.
   const init = props.initial;
-  const withSnapshot = <T extends { name: string }>(xs: T[], extra: (T | undefined)[]) => [...xs, ...extra.filter((x): x is T => !!x && !xs.some((y) => y.name === x.name))];
   const products = withSnapshot(props.products, init?.products.map((l) => l.product) ?? []);
   const shippers = withSnapshot(props.shippers, init?.boxes.map((b) => b.shipper) ?? []);
   const packs = withSnapshot(props.packs, init?.packs.map((p) => p.pack) ?? []);
@@ -203,11 +203,7 @@ export function SizePlanner(props: SizePlannerProps) {
 
   return (
     <div className="planner size">
-      {props.reopened ? (
-        <p className="banner ok no-print" role="status" style={{ gridColumn: "1 / -1" }}>
-          Reopened the saved sizing &ldquo;{props.reopened}&rdquo; with the templates as they were when it was saved.
-        </p>
-      ) : null}
+      <ReopenedBanner name={props.reopened} what="sizing" />
       <form
         className="template-form planner-inputs no-print"
         noValidate

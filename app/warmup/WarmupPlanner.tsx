@@ -1,4 +1,5 @@
 "use client";
+import { ReopenedBanner, withSnapshot } from "@/app/_components/reopen";
 import { Controller, useForm, useWatch, type Control } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { warmupInputSchema, LIMIT_KINDS, LIMIT_LABELS, type WarmupInput, type WarmupParsed } from "@/lib/schemas/warmup";
@@ -61,7 +62,6 @@ export interface WarmupPlannerProps {
 export function WarmupPlanner(props: WarmupPlannerProps) {
   const init = props.initial;
   // A reopened plan brings its own templates: offer them in the pickers even if the library changed.
-  const withSnapshot = <T extends { name: string }>(xs: T[], extra: (T | undefined)[]) => [...xs, ...extra.filter((x): x is T => !!x && !xs.some((y) => y.name === x.name))];
   const products = withSnapshot(props.products, [init?.product as Product | undefined]);
   const ruleSets = withSnapshot(props.ruleSets, [init?.ruleSet as RuleSet | undefined]);
   const first = products.find((p) => /chicken/i.test(p.name)) ?? products[0];
@@ -84,11 +84,7 @@ export function WarmupPlanner(props: WarmupPlannerProps) {
 
   return (
     <div className="planner warmup">
-      {props.reopened ? (
-        <p className="banner ok no-print" role="status" style={{ gridColumn: "1 / -1" }}>
-          Reopened the saved plan &ldquo;{props.reopened}&rdquo; with the templates as they were when it was saved.
-        </p>
-      ) : null}
+      <ReopenedBanner name={props.reopened} />
       <form className="template-form planner-inputs no-print" onSubmit={(ev) => ev.preventDefault()} noValidate>
         <div className="field">
           <label htmlFor="product">Product</label>

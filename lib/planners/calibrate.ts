@@ -7,13 +7,14 @@ import { calibrateInputSchema, CHANNEL_ROLE_LABELS, FACTOR_LABELS } from "../sch
 import { THAW_METHOD_LABELS } from "../schemas/thaw";
 import { runCalibrationParsed, type CalibrationResult } from "../physics/calibrate";
 import type { ChannelComparison, LogComparison } from "../calibration/align";
-import type { UnitPrefs } from "../units";
+import { toDisplay, unitLabel, type UnitPrefs } from "../units";
 import type { ChartSpec, CsvRow, PlannerEntry } from "./types";
 import { kit, PALETTE, tCol, csvT, round3, thin, SIGNATURE_LINE } from "./view-kit";
 
 /** A temperature difference in the person's units (K or °F-degrees), as a number. */
-export const diffInUnits = (dK: number, u: UnitPrefs) => (u.temperatureUnit === "F" ? (dK * 9) / 5 : dK);
-const diffText = (dK: number, u: UnitPrefs) => `${diffInUnits(dK, u).toFixed(2)} ${u.temperatureUnit === "F" ? "°F" : "K"}`;
+export const diffInUnits = (dK: number, u: UnitPrefs) => toDisplay("temperatureDifference", dK, u);
+/** A residual as text: "0.15 K", "0.27 °F" (two decimals: residuals are tenths of a kelvin). */
+export const diffText = (dK: number | null, u: UnitPrefs) => (dK === null ? "—" : `${diffInUnits(dK, u).toFixed(2)} ${unitLabel("temperatureDifference", u)}`);
 const MAX_POINTS = 400;
 
 /** What a channel is, in words: "Inside air", "Product probe, line 1, centre". */

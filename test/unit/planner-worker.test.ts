@@ -1,0 +1,65 @@
+// The browser planner worker's protocol, with the real registry: the quick first answer where a planner has
+// one, the full answer after; one model run where it has none; an older request dropped for a newer one.
+import { describe, it, expect, vi } from "vitest";
+import { readFileSync } from "node:fs";
+import path from "node:path";
+import { plannerWorkerHandler, type FromPlannerWorker } from "../../lib/planners/worker-protocol";
+import { PLANNERS } from "../../lib/planners/registry";
+import { DEMO_SCENARIO as D } from "../../lib/db/demo-scenario";
+import { DEFAULT_UNIT_PREFS } from "../../lib/units";
+
+const warmupInput = { product: D.products.find((p) => p.name.startsWith("Steamed rice"))!, start_C: 80, surroundings: { medium: "air", T_C: 22, speed_m_s: 0.3 }, ruleSet: D.rulesets[0], limit: "hotHoldMin", horizon_s: 14400 };
+const thin = D.shippers.find((s) => s.name.startsWith("Quillfield thin"))!;
+const holdInput = { products: [{ product: D.products.find((p) => p.name.startsWith("Roast chicken"))!, count: 1, start_C: 2 }], shipper: thin, materials: D.materials, packs: [{ pack: D.packs.find((p) => p.name.startsWith("Gel"))!, count: 2, conditioning_C: -18 }], route: D.routes[0], ruleSet: D.rulesets[1] };
+
+function collect() {
+  const out: FromPlannerWorker[] = [];
+  return { out, handle: plannerWorkerHandler((m) => out.push(m)) };
+}
+
+describe("planner worker protocol", () => {
+  it("runs a planner without a quick answer once, and posts one full result", async () => {
+    const spy = vi.spyOn(PLANNERS.warmup, "run");
+    const { out, handle } = collect();
+    await handle({ type: "run", id: 1, kind: "warmup", input: warmupInput, units: DEFAULT_UNIT_PREFS });
+    expect(spy).toHaveBeenCalledTimes(1);
+    expect(out.map((m) => m.type === "result" && m.stage)).toEqual(["full"]);
+    spy.mockRestore();
+  });
+
+  it("hold: the central run first (band pending), then the full answer with its band", async () => {
+    const { out, handle } = collect();
+    await handle({ type: "run", id: 1, kind: "hold", input: holdInput, units: DEFAULT_UNIT_PREFS });
+    expect(out.map((m) => (m.type === "result" ? m.stage : m.type))).toEqual(["quick", "full"]);
+    const [q, f] = out as Extract<FromPlannerWorker, { type: "result" }>[];
+    expect(q.view.pending).toMatch(/uncertainty/);
+    expect(q.view.facts.find((x) => x.testId === "hold-band")!.value).toMatch(/being worked out/);
+    expect(f.view.pending).toBeUndefined();
+    expect(f.view.facts.find((x) => x.testId === "hold-band")!.value).not.toMatch(/being worked out/);
+    expect(f.csv.length).toBeGreaterThan(10);
+  });
+
+  it("drops an older request when a newer one is already waiting", async () => {
+    const { out, handle } = collect();
+    const a = handle({ type: "run", id: 1, kind: "warmup", input: warmupInput, units: DEFAULT_UNIT_PREFS });
+    const b = handle({ type: "run", id: 2, kind: "warmup", input: { ...warmupInput, start_C: 70 }, units: DEFAULT_UNIT_PREFS });
+    await Promise.all([a, b]);
+    expect(out.every((m) => m.id === 2)).toBe(true);
+    expect(out.length).toBe(1);
+  });
+
+  it("answers field errors for a bad input, and nothing for an unknown planner", async () => {
+    const { out, handle } = collect();
+    await handle({ type: "run", id: 1, kind: "warmup", input: { ...warmupInput, start_C: "hot" }, units: DEFAULT_UNIT_PREFS });
+    await handle({ type: "run", id: 2, kind: "nonsense" as never, input: {}, units: DEFAULT_UNIT_PREFS });
+    expect(out.length).toBe(1);
+    expect(out[0].type).toBe("invalid");
+  });
+
+  it("every planner in the registry has an example input that its schema reads (public/examples)", () => {
+    for (const kind of Object.keys(PLANNERS)) {
+      const file = path.join(process.cwd(), "public/examples", `${kind}.json`);
+      expect(() => readFileSync(file, "utf8"), kind).not.toThrow();
+    }
+  });
+});
