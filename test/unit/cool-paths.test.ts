@@ -15,6 +15,7 @@ import type { CoolParsed } from "../../lib/schemas/cool";
 import { jsonSchemaOf } from "../../lib/schemas/json-schema";
 import { ROOT, sh, STACK_TRACE } from "../helpers/cli-run";
 import { tempDatabase } from "../helpers/tempdb";
+import { createAccount } from "../../lib/db/accounts";
 import { api, nextHeadersMock } from "../helpers/api";
 import type { Db } from "../../lib/db/client";
 
@@ -124,42 +125,52 @@ describe("holdline cool and holdline schema cool", () => {
   });
 });
 
+// In accounts mode, as a shared library runs (PostgreSQL turns accounts on by itself): a planner signs in.
 describe("POST /api/v1/cool", () => {
   let db: Db;
   let dispose: () => Promise<void>;
-  const saved = process.env.DATABASE_URL;
+  let token = "";
+  const saved = { DATABASE_URL: process.env.DATABASE_URL, HOLDLINE_AUTH: process.env.HOLDLINE_AUTH, HOLDLINE_BCRYPT_COST: process.env.HOLDLINE_BCRYPT_COST };
   beforeAll(async () => {
     const t = await tempDatabase({ seed: true });
     db = t.db;
     dispose = t.dispose;
     process.env.DATABASE_URL = t.dbPath;
+    process.env.HOLDLINE_AUTH = "accounts";
+    process.env.HOLDLINE_BCRYPT_COST = "4";
+    const made = await createAccount(db, { username: "cook", displayName: "Chris Cook", password: "cook-password-1", role: "planner" });
+    if (!made.ok) throw new Error("account setup");
+    const s = await api("POST", "/api/v1/session", { body: { username: "cook", password: "cook-password-1" } });
+    token = (s.body as { token: string }).token;
   }, 60_000);
   afterAll(async () => {
-    if (saved === undefined) delete process.env.DATABASE_URL;
-    else process.env.DATABASE_URL = saved;
+    for (const [k, v] of Object.entries(saved)) {
+      if (v === undefined) delete process.env[k];
+      else process.env[k] = v;
+    }
     await db.$disconnect();
     await dispose();
   });
 
   it("answers the named demo rice with the issue's names, and a 422 naming the field for bad input", { timeout: 120_000 }, async () => {
-    const ok = await api("POST", "/api/v1/cool", { body: { ...byName, compare: false } });
+    const ok = await api("POST", "/api/v1/cool", { token, body: { ...byName, compare: false } });
     expect(ok.status).toBe(200);
     const r = ok.body as CoolResult;
     expectIssueShape(r);
     expect(r.stages).toEqual(full.result.stages);
     expect(r.maxDepth_m).toBe(full.result.maxDepth_m);
-    const bad = await api("POST", "/api/v1/cool", { body: { ...byName, method: { kind: "ice_bath", level_m: 0.2 } } });
+    const bad = await api("POST", "/api/v1/cool", { token, body: { ...byName, method: { kind: "ice_bath", level_m: 0.2 } } });
     expect(bad.status).toBe(422);
     expect(JSON.stringify(bad.body)).toMatch(/level_m.*rim/);
-    const junk = await api("POST", "/api/v1/cool", { rawBody: "{not json" });
+    const junk = await api("POST", "/api/v1/cool", { token, rawBody: "{not json" });
     expect(junk.status).toBe(422);
   });
 
   it("saves a plan the server computes, and stores the stages", async () => {
-    const p = await api("POST", "/api/v1/plans", { body: { kind: "cool", name: "Rice for tomorrow", input: { ...byName, compare: false, searchDepth: false } } });
+    const p = await api("POST", "/api/v1/plans", { token, body: { kind: "cool", name: "Rice for tomorrow", input: { ...byName, compare: false, searchDepth: false } } });
     expect(p.status).toBe(201);
     const id = (p.body as { id: number }).id;
-    const got = await api("GET", `/api/v1/plans/${id}`);
+    const got = await api("GET", `/api/v1/plans/${id}`, { token });
     expect(got.status).toBe(200);
     expect(JSON.stringify(got.body)).toMatch(/"stages":\[\{"stage":1/);
   });
