@@ -90,26 +90,7 @@ const ViewBody = memo(function ViewBody({ view, record }: { view: View; record: 
       {view.tables.map((t) => (
         <section key={t.title}>
           <h3>{t.title}</h3>
-          <table className="list" data-testid={t.testId}>
-            <thead>
-              <tr>
-                {t.columns.map((c) => (
-                  <th key={c} scope="col">
-                    {c}
-                  </th>
-                ))}
-              </tr>
-            </thead>
-            <tbody>
-              {t.rows.map((r, i) => (
-                <tr key={i}>
-                  {r.map((cell, j) => (
-                    <td key={j}>{cell}</td>
-                  ))}
-                </tr>
-              ))}
-            </tbody>
-          </table>
+          <TextTable columns={t.columns} rows={t.rows} testId={t.testId} />
           {t.note ? <p className="muted">{t.note}</p> : null}
         </section>
       ))}
@@ -126,3 +107,29 @@ const ViewBody = memo(function ViewBody({ view, record }: { view: View; record: 
     </>
   );
 });
+
+/** A table of text cells with a header row: a view's tables, the pack-out sheet's. */
+export function TextTable({ columns, rows, testId, className = "list" }: { columns: string[]; rows: string[][]; testId?: string; className?: string }) {
+  return (
+    <table className={className} data-testid={testId}>
+      <thead>
+        <tr>
+          {columns.map((c) => (
+            <th key={c} scope="col">
+              {c}
+            </th>
+          ))}
+        </tr>
+      </thead>
+      <tbody>
+        {rows.map((r, i) => (
+          <tr key={i}>
+            {r.map((cell, j) => (
+              <td key={j}>{cell}</td>
+            ))}
+          </tr>
+        ))}
+      </tbody>
+    </table>
+  );
+}

@@ -1,52 +1,20 @@
 "use client";
+import { UnitField } from "@/app/_components/UnitField";
 import { ReopenedBanner, withSnapshot } from "@/app/_components/reopen";
 import { useState } from "react";
-import { Controller, useForm, useWatch, type Control } from "react-hook-form";
+import { useForm, useWatch } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { format } from "date-fns";
 import { thawInputSchema, THAW_METHODS, THAW_METHOD_LABELS, type ThawInput, type ThawMethodKind, type ThawParsed } from "@/lib/schemas/thaw";
 import type { Material, Product, RuleSet } from "@/lib/schemas/templates";
 import { defaultMethod, DEFAULT_TRAY } from "@/lib/physics/thaw";
-import type { Quantity } from "@/lib/units";
 import { thawPlanner } from "@/lib/planners/thaw";
-import { UnitInput } from "@/app/_components/UnitInput";
 import { useMounted } from "@/app/_components/useMounted";
 import { NamedSelect, FieldMessage, errorId } from "@/app/_components/ResultParts";
 import { usePlanner } from "@/app/_components/usePlanner";
 import { PlannerOutcome } from "@/app/_components/PlannerOutcome";
 import { PlanActions } from "@/app/_components/PlanActions";
 
-/** A number in the person's units, with its message tied to it (aria-describedby) rather than announced. */
-function Num({ control, name, id, label, quantity, nullable, help }: { control: Control<ThawInput>; name: string; id: string; label: string; quantity: Quantity; nullable?: boolean; help?: string }) {
-  return (
-    <div className="field">
-      <label htmlFor={id}>{label}</label>
-      <Controller
-        control={control}
-        name={name as never}
-        render={({ field, fieldState }) => (
-          <>
-            <UnitInput
-              id={id}
-              quantity={quantity}
-              nullable={nullable}
-              value={field.value as number | null}
-              onChange={field.onChange}
-              invalid={!!fieldState.error}
-              describedBy={[help ? `${id}-help` : null, fieldState.error ? errorId(id) : null].filter(Boolean).join(" ") || undefined}
-            />
-            {help ? (
-              <p className="help" id={`${id}-help`}>
-                {help}
-              </p>
-            ) : null}
-            <FieldMessage id={errorId(id)} msg={fieldState.error?.message} />
-          </>
-        )}
-      />
-    </div>
-  );
-}
 
 /** An ISO date-time as the value of a datetime-local box, in the browser's zone. */
 const localInput = (iso: string | null | undefined) => (iso ? format(new Date(iso), "yyyy-MM-dd'T'HH:mm") : "");
@@ -100,7 +68,7 @@ export function ThawPlanner(props: ThawPlannerProps) {
           <label htmlFor="product">Frozen item</label>
           <NamedSelect id="product" items={products} value={values.product?.name} onChange={(x) => setValue("product", x, { shouldValidate: true })} />
         </div>
-        <Num control={control} name="start_C" id="start_C" label="Starting temperature" quantity="temperature" />
+        <UnitField control={control} name="start_C" id="start_C" label="Starting temperature" quantity="temperature" />
         <div className="field">
           <label htmlFor="method">Method</label>
           <select
@@ -127,8 +95,8 @@ export function ThawPlanner(props: ThawPlannerProps) {
           <legend>{THAW_METHOD_LABELS[kind] ?? "Settings"}</legend>
           {kind === "fridge_air" || kind === "room_air" || kind === "tray" ? (
             <>
-              <Num control={control} name="method.air_C" id="air_C" label="Air temperature" quantity="temperature" />
-              <Num control={control} name="method.speed_m_s" id="air_speed" label="Air speed" quantity="speed" />
+              <UnitField control={control} name="method.air_C" id="air_C" label="Air temperature" quantity="temperature" />
+              <UnitField control={control} name="method.speed_m_s" id="air_speed" label="Air speed" quantity="speed" />
             </>
           ) : null}
           {kind === "tray" ? (
@@ -137,10 +105,10 @@ export function ThawPlanner(props: ThawPlannerProps) {
                 <label htmlFor="tray">Tray material</label>
                 <NamedSelect id="tray" items={trayChoices} value={(values.method as { tray?: Material }).tray?.name} onChange={(t) => setValue("method.tray" as never, t as never, { shouldValidate: true })} />
               </div>
-              <Num control={control} name="method.trayThickness_m" id="tray_t" label="Tray thickness" quantity="length" />
-              <Num control={control} name="method.trayLength_m" id="tray_l" label="Tray length" quantity="length" />
-              <Num control={control} name="method.trayWidth_m" id="tray_w" label="Tray width" quantity="length" />
-              <Num control={control} name="method.contact_W_m2K" id="contact" label="Contact conductance between item and tray" quantity="conductance" />
+              <UnitField control={control} name="method.trayThickness_m" id="tray_t" label="Tray thickness" quantity="length" />
+              <UnitField control={control} name="method.trayLength_m" id="tray_l" label="Tray length" quantity="length" />
+              <UnitField control={control} name="method.trayWidth_m" id="tray_w" label="Tray width" quantity="length" />
+              <UnitField control={control} name="method.contact_W_m2K" id="contact" label="Contact conductance between item and tray" quantity="conductance" />
               <div className="field checkbox">
                 <label>
                   <input type="checkbox" {...register("method.undersideExposed" as never)} /> Tray on a rack (underside in the air)
@@ -148,13 +116,13 @@ export function ThawPlanner(props: ThawPlannerProps) {
               </div>
             </>
           ) : null}
-          {kind === "running_water" || kind === "still_water" ? <Num control={control} name="method.water_C" id="water_C" label="Water temperature" quantity="temperature" /> : null}
-          {kind === "running_water" ? <Num control={control} name="method.speed_m_s" id="water_speed" label="Water speed" quantity="speed" /> : null}
+          {kind === "running_water" || kind === "still_water" ? <UnitField control={control} name="method.water_C" id="water_C" label="Water temperature" quantity="temperature" /> : null}
+          {kind === "running_water" ? <UnitField control={control} name="method.speed_m_s" id="water_speed" label="Water speed" quantity="speed" /> : null}
           {kind === "still_water" ? (
             <>
-              <Num control={control} name="method.bath_m3" id="bath" label="Water in the sink or tub" quantity="volume" />
-              <Num control={control} name="method.changeEvery_s" id="change" label="Change the water every" quantity="shortDuration" />
-              <Num control={control} name="method.room_C" id="room" label="Room air" quantity="temperature" />
+              <UnitField control={control} name="method.bath_m3" id="bath" label="Water in the sink or tub" quantity="volume" />
+              <UnitField control={control} name="method.changeEvery_s" id="change" label="Change the water every" quantity="shortDuration" />
+              <UnitField control={control} name="method.room_C" id="room" label="Room air" quantity="temperature" />
             </>
           ) : null}
         </fieldset>
@@ -162,7 +130,7 @@ export function ThawPlanner(props: ThawPlannerProps) {
           <label htmlFor="ruleset">Rule set</label>
           <NamedSelect id="ruleset" items={ruleSets} value={values.ruleSet?.name} onChange={(x) => setValue("ruleSet", x, { shouldValidate: true })} />
         </div>
-        <Num control={control} name="endMargin_K" id="margin" label="Thawed when the centre is this far above its freezing point" quantity="temperatureDifference" />
+        <UnitField control={control} name="endMargin_K" id="margin" label="Thawed when the centre is this far above its freezing point" quantity="temperatureDifference" />
         <div className="field checkbox">
           <label>
             <input type="checkbox" {...register("compare")} /> Compare every method side by side

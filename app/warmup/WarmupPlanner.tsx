@@ -1,48 +1,16 @@
 "use client";
+import { UnitField } from "@/app/_components/UnitField";
 import { ReopenedBanner, withSnapshot } from "@/app/_components/reopen";
-import { Controller, useForm, useWatch, type Control } from "react-hook-form";
+import { useForm, useWatch } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { warmupInputSchema, LIMIT_KINDS, LIMIT_LABELS, type WarmupInput, type WarmupParsed } from "@/lib/schemas/warmup";
 import type { Product, RuleSet } from "@/lib/schemas/templates";
-import type { Quantity } from "@/lib/units";
 import { warmupPlanner } from "@/lib/planners/warmup";
-import { UnitInput } from "@/app/_components/UnitInput";
-import { NamedSelect, FieldMessage, errorId } from "@/app/_components/ResultParts";
+import { NamedSelect } from "@/app/_components/ResultParts";
 import { usePlanner } from "@/app/_components/usePlanner";
 import { PlannerOutcome } from "@/app/_components/PlannerOutcome";
 import { PlanActions } from "@/app/_components/PlanActions";
 
-/** A number in the person's units, with its message tied to it (aria-describedby) rather than announced. */
-function Num({ control, name, id, label, quantity, nullable, help }: { control: Control<WarmupInput>; name: string; id: string; label: string; quantity: Quantity; nullable?: boolean; help?: string }) {
-  return (
-    <div className="field">
-      <label htmlFor={id}>{label}</label>
-      <Controller
-        control={control}
-        name={name as never}
-        render={({ field, fieldState }) => (
-          <>
-            <UnitInput
-              id={id}
-              quantity={quantity}
-              nullable={nullable}
-              value={field.value as number | null}
-              onChange={field.onChange}
-              invalid={!!fieldState.error}
-              describedBy={[help ? `${id}-help` : null, fieldState.error ? errorId(id) : null].filter(Boolean).join(" ") || undefined}
-            />
-            {help ? (
-              <p className="help" id={`${id}-help`}>
-                {help}
-              </p>
-            ) : null}
-            <FieldMessage id={errorId(id)} msg={fieldState.error?.message} />
-          </>
-        )}
-      />
-    </div>
-  );
-}
 
 const METHOD_CHOICES = [
   ["auto", "choose for me"],
@@ -90,7 +58,7 @@ export function WarmupPlanner(props: WarmupPlannerProps) {
           <label htmlFor="product">Product</label>
           <NamedSelect id="product" items={products} value={values.product?.name} onChange={(x) => setValue("product", x, { shouldValidate: true })} />
         </div>
-        <Num control={control} name="start_C" id="start_C" label="Starting temperature" quantity="temperature" />
+        <UnitField control={control} name="start_C" id="start_C" label="Starting temperature" quantity="temperature" />
         <fieldset className="group">
           <legend>Surroundings</legend>
           <div className="grid">
@@ -101,10 +69,10 @@ export function WarmupPlanner(props: WarmupPlannerProps) {
                 <option value="water">water</option>
               </select>
             </div>
-            <Num control={control} name="surroundings.T_C" id="sur_T" label="Temperature" quantity="temperature" />
-            <Num control={control} name="surroundings.speed_m_s" id="sur_speed" label="Air or water speed" quantity="speed" />
-            <Num control={control} name="surroundings.emissivity" id="sur_eps" label="Surface emissivity" quantity="ratio" help="Between 0 and 1; used in air only." />
-            <Num control={control} name="surroundings.h_W_m2K" id="sur_h" label="Surface coefficient h (optional)" quantity="conductance" nullable help="Leave empty to work it out from the air or water and the item's shape." />
+            <UnitField control={control} name="surroundings.T_C" id="sur_T" label="Temperature" quantity="temperature" />
+            <UnitField control={control} name="surroundings.speed_m_s" id="sur_speed" label="Air or water speed" quantity="speed" />
+            <UnitField control={control} name="surroundings.emissivity" id="sur_eps" label="Surface emissivity" quantity="ratio" help="Between 0 and 1; used in air only." />
+            <UnitField control={control} name="surroundings.h_W_m2K" id="sur_h" label="Surface coefficient h (optional)" quantity="conductance" nullable help="Leave empty to work it out from the air or water and the item's shape." />
           </div>
         </fieldset>
         <div className="grid">
@@ -122,7 +90,7 @@ export function WarmupPlanner(props: WarmupPlannerProps) {
               ))}
             </select>
           </div>
-          <Num control={control} name="horizon_s" id="horizon" label="Look ahead" quantity="duration" />
+          <UnitField control={control} name="horizon_s" id="horizon" label="Look ahead" quantity="duration" />
           <div className="field">
             <label htmlFor="method">Method</label>
             <select id="method" {...register("method")}>

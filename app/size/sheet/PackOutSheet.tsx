@@ -1,4 +1,5 @@
 "use client";
+import { TextTable } from "@/app/_components/PlanView";
 import { useEffect, useState } from "react";
 import type { HoldParsed } from "@/lib/schemas/hold";
 import type { HoldResult } from "@/lib/physics/hold";
@@ -58,26 +59,7 @@ export function PackOutSheet({ name, input, saved }: { name?: string; input: Hol
       </section>
       <section>
         <h2>Coolant packs</h2>
-        <table className="list sheet-table" data-testid="sheet-packs">
-          <thead>
-            <tr>
-              {sheet.packColumns.map((c) => (
-                <th key={c} scope="col">
-                  {c}
-                </th>
-              ))}
-            </tr>
-          </thead>
-          <tbody>
-            {sheet.packRows.map((r, i) => (
-              <tr key={i}>
-                {r.map((cell, j) => (
-                  <td key={j}>{cell}</td>
-                ))}
-              </tr>
-            ))}
-          </tbody>
-        </table>
+        <TextTable className="list sheet-table" testId="sheet-packs" columns={sheet.packColumns} rows={sheet.packRows} />
         <p className="muted">{sheet.conditioningNote}</p>
       </section>
       <section>
