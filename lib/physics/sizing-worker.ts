@@ -44,27 +44,28 @@ export function makePool(workers: { post: (m: ToWorker) => void; onMessage: (f: 
     });
     w.post({ type: "init", inp });
   }
+  // One shared queue: each worker takes the next small chunk as soon as it is free, so a worker that drew
+  // cheap candidates (early failures) is never left idle while the other works through expensive ones.
   const evaluate = async (indices: number[]): Promise<CandidateResult[]> => {
-    const chunk = Math.max(1, Math.min(16, Math.ceil(indices.length / (workers.length * 4))));
-    const chunks: number[][] = [];
-    for (let i = 0; i < indices.length; i += chunk) chunks.push(indices.slice(i, i + chunk));
-    const queues: number[][][] = workers.map(() => []);
-    chunks.forEach((c, i) => queues[i % workers.length].push(c));
-    const perWorker = await Promise.all(
-      workers.map(async (w, wi) => {
-        const out: CandidateResult[] = [];
-        for (const c of queues[wi]) {
+    const chunk = Math.max(1, Math.min(4, Math.ceil(indices.length / (workers.length * 6))));
+    let next = 0;
+    const out: CandidateResult[][] = [];
+    await Promise.all(
+      workers.map(async (w) => {
+        while (next < indices.length) {
+          const part = indices.slice(next, next + chunk);
+          next += part.length;
           const id = nextId++;
-          const r = await new Promise<CandidateResult[]>((resolve, reject) => {
-            pending.set(id, { resolve, reject });
-            w.post({ type: "eval", id, indices: c });
-          });
-          out.push(...r);
+          out.push(
+            await new Promise<CandidateResult[]>((resolve, reject) => {
+              pending.set(id, { resolve, reject });
+              w.post({ type: "eval", id, indices: part });
+            }),
+          );
         }
-        return out;
       }),
     );
-    return perWorker.flat();
+    return out.flat();
   };
   /** Rejects every request still waiting (after the workers were stopped). */
   const cancel = () => {
