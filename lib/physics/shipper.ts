@@ -364,13 +364,42 @@ function solveSparse(E: Elimination, A: Float64Array, r: Float64Array, x: Float6
   }
 }
 
-export function runNetwork(spec: NetworkSpec): NetworkResult {
-  if (!(spec.tEnd_s > 0)) throw new PhysicsInputError("route", "the route has no length");
-  const nZ = Math.max(1, spec.zones.length);
-  const chains: Chain[] = [];
+/**
+ * The assembled network and its work arrays, built once per run (buildNetwork) and then stepped in
+ * place by small functions: one huge function is optimised late by the JIT (hundreds of milliseconds of
+ * compilation in every worker) and de-optimised often, small ones early and cheaply.
+ */
+interface Net extends NewtonSystem {
+  spec: NetworkSpec;
+  bodyStart: number;
+  nBodies: number;
+  /** Per face chain: the outer half-layer resistance, K/W, its area, m², and its kind's index in FACE_KINDS. */
+  halfOuter: Float64Array;
+  area: Float64Array;
+  faceKind: Int32Array;
+  /** The four kinds' sol-air temperatures of the current step. */
+  solAir: Float64Array;
+  TairOld: Float64Array;
+  TairP: Float64Array;
+  TairM1: Float64Array;
+  TairM2: Float64Array;
+  /** Heat booked per path (faces by kind, edges, openings) in this step and the last. */
+  pathFlow: Float64Array;
+  pathPrev: Float64Array;
+  gains: Gains;
+  state: NetworkState;
+  heatCapacity: number;
+  airCapacity: number;
+}
+
+type FacePart = { halfOuter: number; area: number; kind: FaceKind; contact: { body: number; G: number } | null };
+type Link = { a: number; b: number; G: number };
+
+/** The face chains (outside → inside), each coupled at its inner end to its zone or to the body lying on it. */
+function faceChains(spec: NetworkSpec, nZ: number): { chains: Chain[]; faceParts: FacePart[] } {
   const refine = Math.max(1, Math.round(spec.refine ?? 1));
-  // Faces.
-  const faceParts: { chain: Chain; halfOuter: number; area: number; kind: FaceKind; contact: { body: number; G: number } | null }[] = [];
+  const chains: Chain[] = [];
+  const faceParts: FacePart[] = [];
   for (const f of spec.faces) {
     const w = wallChain(f.layers, f.area_m2, refine, nZ);
     w.chain.T.fill(spec.boxStart_C);
@@ -379,21 +408,18 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
     if ("zone" in f.inner) w.chain.U[f.inner.zone] = G;
     else contact = { body: f.inner.body, G };
     chains.push(w.chain);
-    faceParts.push({ chain: w.chain, halfOuter: w.halfOuter_K_W, area: f.area_m2, kind: f.kind, contact });
+    faceParts.push({ halfOuter: w.halfOuter_K_W, area: f.area_m2, kind: f.kind, contact });
   }
-  const nFaces = chains.length;
-  // Bodies.
-  const bodyStart = chains.length;
-  for (const b of spec.bodies) chains.push(bodyChain(b, nZ));
-  // Every surface contact, as pairs of chain indices (last node to last node).
-  const links: { a: number; b: number; G: number }[] = [
-    ...spec.contacts.map((c) => ({ a: bodyStart + c.a, b: bodyStart + c.b, G: c.conductance_W_K })),
-    ...faceParts.flatMap((f, i) => (f.contact ? [{ a: i, b: bodyStart + f.contact.body, G: f.contact.G }] : [])),
-  ];
-  // Chains with a surface contact keep their end node in the small dense system with the zones, so
-  // contacts are solved implicitly (Newton stays quadratic and the energy balance closes to round-off).
-  // Rows: the contact end nodes in chain order, then the zones last, so that elimination (zones coupled to
-  // almost everything) creates fill-in only among a contact node's few partners.
+  return { chains, faceParts };
+}
+
+/**
+ * The dense system's rows: chains with a surface contact keep their end node in it with the zones, so
+ * contacts are solved implicitly (Newton stays quadratic). Rows: the contact end nodes in chain order,
+ * then the zones last, so that elimination (zones coupled to almost everything) creates fill-in only
+ * among a contact node's few partners.
+ */
+function denseLayout(chains: Chain[], links: Link[], nZ: number): { keyRow: Int32Array; zoneRow: Int32Array; nK: number; elim: Elimination } {
   const keyRow = new Int32Array(chains.length).fill(-1);
   const inContact = new Uint8Array(chains.length);
   for (const c of links) inContact[c.a] = inContact[c.b] = 1;
@@ -402,100 +428,62 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
   const zoneRow = new Int32Array(nZ);
   for (let z = 0; z < nZ; z++) zoneRow[z] = nK++;
   // Where the dense system has entries: contacts, contact nodes to the zones they touch, the zones among themselves.
-  const pattern: [number, number][] = links.map((l) => [keyRow[l.a], keyRow[l.b]]);
+  const pattern: [number, number][] = [];
+  for (const l of links) pattern.push([keyRow[l.a], keyRow[l.b]]);
   for (let ci = 0; ci < chains.length; ci++) if (keyRow[ci] >= 0) for (let z = 0; z < nZ; z++) if (chains[ci].U[z] !== 0) pattern.push([keyRow[ci], zoneRow[z]]);
   for (let z = 0; z < nZ; z++) for (let y = z + 1; y < nZ; y++) pattern.push([zoneRow[z], zoneRow[y]]);
-  const elim = eliminationPattern(nK, pattern);
+  return { keyRow, zoneRow, nK, elim: eliminationPattern(nK, pattern) };
+}
+
+/** The network as assembled, for an outside solver of the same equations (only when asked for). */
+function describeNetwork(chains: Chain[], faceParts: FacePart[], links: Link[], Cair: Float64Array, Tair: Float64Array, edgeShare: Float64Array, openShare: Float64Array, edge_W_K: number): AssembledNetwork {
+  const nFaces = faceParts.length;
+  return {
+    zones: Array.from(Cair, (C, z) => ({ C_J_K: C, T0_C: Tair[z], edgeShare: edgeShare[z], openShare: openShare[z] })),
+    edgeConductance_W_K: edge_W_K,
+    chains: chains.map((ch, ci) => {
+      const t = ch.mat?.table;
+      return {
+        capacity: Array.from(ch.mass),
+        link: Array.from(ch.Gfac),
+        table: ch.mat ? (t ? { T0_C: t.T0_C, dT_K: t.dT_K, H: Array.from(t.H), k: Array.from(t.k) } : null) : null,
+        T0_C: Array.from(ch.T),
+        U_W_K: Array.from(ch.U),
+        face: ci < nFaces ? { kind: faceParts[ci].kind, halfOuter_K_W: faceParts[ci].halfOuter, area_m2: faceParts[ci].area } : null,
+      };
+    }),
+    links: links.map((l) => ({ a: l.a, b: l.b, G_W_K: l.G })),
+  };
+}
+
+function buildNetwork(spec: NetworkSpec): Net {
+  const nZ = Math.max(1, spec.zones.length);
+  const { chains, faceParts } = faceChains(spec, nZ);
+  const nFaces = chains.length;
+  // Bodies.
+  const bodyStart = chains.length;
+  for (const b of spec.bodies) chains.push(bodyChain(b, nZ));
+  // Every surface contact, as pairs of chain indices (last node to last node).
+  const links: Link[] = [];
+  for (const c of spec.contacts) links.push({ a: bodyStart + c.a, b: bodyStart + c.b, G: c.conductance_W_K });
+  for (let i = 0; i < nFaces; i++) {
+    const c = faceParts[i].contact;
+    if (c) links.push({ a: i, b: bodyStart + c.body, G: c.G });
+  }
+  const { keyRow, zoneRow, nK, elim } = denseLayout(chains, links, nZ);
   const airRho = P_ATM_PA / (R_AIR_J_KGK * (spec.boxStart_C + KELVIN_OFFSET));
-  const totalVol = spec.zones.reduce((a, z) => a + z.volume_m3, 0);
-  const Cair = Array.from({ length: nZ }, (_, z) => Math.max(airRho * CP_AIR_J_KGK * Math.max(spec.zones[z]?.volume_m3 ?? totalVol, 1e-4 / nZ), 1 / nZ));
+  let totalVol = 0;
+  for (const z of spec.zones) totalVol += z.volume_m3;
+  const Cair = new Float64Array(nZ);
+  const edgeShare = new Float64Array(nZ);
+  const openShare = new Float64Array(nZ);
+  for (let z = 0; z < nZ; z++) {
+    Cair[z] = Math.max(airRho * CP_AIR_J_KGK * Math.max(spec.zones[z]?.volume_m3 ?? totalVol, 1e-4 / nZ), 1 / nZ);
+    edgeShare[z] = spec.edgeZoneShare[z] ?? (z === 0 ? 1 : 0);
+    openShare[z] = spec.openZoneShare[z] ?? (z === 0 ? 1 : 0);
+  }
   const Tair = new Float64Array(nZ).fill(spec.boxStart_C);
-  const TairOld = Tair.slice();
-  const TairP = Tair.slice();
-  const edgeShare = Array.from({ length: nZ }, (_, z) => spec.edgeZoneShare[z] ?? (z === 0 ? 1 : 0));
-  const openShare = Array.from({ length: nZ }, (_, z) => spec.openZoneShare[z] ?? (z === 0 ? 1 : 0));
-  if (spec.onAssembled) {
-    spec.onAssembled({
-      zones: Cair.map((C, z) => ({ C_J_K: C, T0_C: Tair[z], edgeShare: edgeShare[z], openShare: openShare[z] })),
-      edgeConductance_W_K: spec.edgeConductance_W_K,
-      chains: chains.map((ch, ci) => {
-        const t = ch.mat?.table;
-        return {
-          capacity: Array.from(ch.mass),
-          link: Array.from(ch.Gfac),
-          table: ch.mat ? (t ? { T0_C: t.T0_C, dT_K: t.dT_K, H: Array.from(t.H), k: Array.from(t.k) } : null) : null,
-          T0_C: Array.from(ch.T),
-          U_W_K: Array.from(ch.U),
-          face: ci < nFaces ? { kind: faceParts[ci].kind, halfOuter_K_W: faceParts[ci].halfOuter, area_m2: faceParts[ci].area } : null,
-        };
-      }),
-      links: links.map((l) => ({ a: l.a, b: l.b, G_W_K: l.G })),
-    });
-  }
-
-  // The stored energy: zones and walls from their temperatures, bodies from their carried enthalpy
-  // (evaluated from the starting temperatures once, then carried step to step: see newtonStep).
-  for (const ch of chains) if (ch.mat) evalMaterialH(ch.mat, ch.T, 0, ch.n, ch.Hcur);
-  const energy = () => {
-    let e = 0;
-    for (let z = 0; z < nZ; z++) e += Cair[z] * Tair[z];
-    for (let ci = 0; ci < chains.length; ci++) {
-      const ch = chains[ci];
-      for (let i = 0; i < ch.n; i++) e += ch.mat ? ch.mass[i] * ch.Hcur[i] : ch.mass[i] * ch.T[i];
-    }
-    return e;
-  };
-  const E0 = energy();
-  let heatCapacity = Cair.reduce((a, c) => a + c, 0);
-  for (const ch of chains) for (let i = 0; i < ch.n; i++) heatCapacity += ch.mat ? ch.mass[i] * ch.mat.c_J_kgK(ch.T[i]) : ch.mass[i];
-  const gains: Gains = { faces: { base: 0, sidesLower: 0, sidesUpper: 0, lid: 0 }, edges: 0, openings: 0 };
-  const state: NetworkState = {
-    air_C: Tair[0],
-    zone_C: [...Tair],
-    gains,
-    bodyCenter_C: new Float64Array(spec.bodies.length),
-    bodySurface_C: new Float64Array(spec.bodies.length),
-    bodySub_C: new Float64Array(spec.bodies.length),
-    bodyMeanH_J_kg: new Float64Array(spec.bodies.length),
-  };
-  const fillState = () => {
-    let s = 0;
-    for (let z = 0; z < nZ; z++) {
-      state.zone_C[z] = Tair[z];
-      s += Cair[z] * Tair[z];
-    }
-    state.air_C = s / Cair.reduce((a, c) => a + c, 0);
-    for (let j = 0; j < spec.bodies.length; j++) {
-      const ch = chains[bodyStart + j];
-      state.bodyCenter_C[j] = ch.T[0];
-      state.bodySurface_C[j] = ch.T[ch.n - 1];
-      state.bodySub_C[j] = ch.T[Math.max(0, ch.n - 2)];
-      let hm = 0;
-      let m = 0;
-      for (let i = 0; i < ch.n; i++) {
-        hm += ch.mass[i] * ch.Hcur[i];
-        m += ch.mass[i];
-      }
-      state.bodyMeanH_J_kg[j] = hm / m;
-    }
-  };
-  fillState();
-  if (spec.onStep && spec.onStep(0, state)) {
-    return { steps: 0, newtonIterations: 0, gains_J: gains, storedChange_J: 0, energyError_J: 0, t_end_s: 0, heatCapacity_J_K: heatCapacity };
-  }
-
-  const breaks = [...spec.breakpoints_s.filter((b) => b > 0 && b < spec.tEnd_s), spec.tEnd_s].sort((x, y) => x - y);
-  let nextBreak = 0;
-  let t = 0;
-  let dt = 60;
-  const dtMax = spec.dtMax_s ?? 1800;
-  const target = spec.targetChange_K ?? 2;
-  let steps = 0;
-  let newton = 0;
-  // Work arrays, allocated once: the dense system (row-major), its right-hand side and solution, the zone residuals, the outer film conductances.
-  const A = new Float64Array(nK * nK);
-  const A0 = new Float64Array(nK * nK);
-  const outerT = new Float64Array(nFaces);
+  if (spec.onAssembled) spec.onAssembled(describeNetwork(chains, faceParts, links, Cair, Tair, edgeShare, openShare, spec.edgeConductance_W_K));
   // Each zone's total coupling to chain ends, and each chain end's total contact conductance (both fixed).
   const sumU = new Float64Array(nZ);
   for (const ch of chains) for (let z = 0; z < nZ; z++) sumU[z] += ch.U[z];
@@ -503,27 +491,225 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
     chains[l.a].linkDiag += l.G;
     chains[l.b].linkDiag += l.G;
   }
-  const rhs = new Float64Array(nK);
-  const dAir = new Float64Array(nK);
-  const res = new Float64Array(nZ);
-  const outerG = new Float64Array(nFaces);
-  const linkA = Int32Array.from(links, (l) => l.a);
-  const linkB = Int32Array.from(links, (l) => l.b);
-  const linkG = Float64Array.from(links, (l) => l.G);
-  // BDF2 history: accepted steps since the last restart (start, segment change, lid opening), their lengths,
-  // the zones' past temperatures, and the heat booked per path in the last step (faces by kind, edges, openings).
+  // The stored energy: zones and walls from their temperatures, bodies from their carried enthalpy
+  // (evaluated from the starting temperatures once, then carried step to step: see newtonStep).
+  for (const ch of chains) if (ch.mat) evalMaterialH(ch.mat, ch.T, 0, ch.n, ch.Hcur);
+  let airCapacity = 0;
+  for (let z = 0; z < nZ; z++) airCapacity += Cair[z];
+  let heatCapacity = airCapacity;
+  for (const ch of chains) for (let i = 0; i < ch.n; i++) heatCapacity += ch.mat ? ch.mass[i] * ch.mat.c_J_kgK(ch.T[i]) : ch.mass[i];
+  const gains: Gains = { faces: { base: 0, sidesLower: 0, sidesUpper: 0, lid: 0 }, edges: 0, openings: 0 };
+  const nB = spec.bodies.length;
+  const state: NetworkState = {
+    air_C: Tair[0],
+    zone_C: Array.from(Tair),
+    gains,
+    bodyCenter_C: new Float64Array(nB),
+    bodySurface_C: new Float64Array(nB),
+    bodySub_C: new Float64Array(nB),
+    bodyMeanH_J_kg: new Float64Array(nB),
+  };
+  return {
+    spec,
+    chains,
+    nFaces,
+    nZ,
+    nK,
+    keyRow,
+    zoneRow,
+    elim,
+    linkA: Int32Array.from(links.map((l) => l.a)),
+    linkB: Int32Array.from(links.map((l) => l.b)),
+    linkG: Float64Array.from(links.map((l) => l.G)),
+    // Work arrays, allocated once: the dense system (row-major) and its fixed part, its right-hand side and
+    // solution, the zone residuals, the outer film conductances and driving temperatures.
+    A: new Float64Array(nK * nK),
+    A0: new Float64Array(nK * nK),
+    rhs: new Float64Array(nK),
+    dAir: new Float64Array(nK),
+    res: new Float64Array(nZ),
+    outerG: new Float64Array(nFaces),
+    outerT: new Float64Array(nFaces),
+    Cair,
+    edgeShare,
+    openShare,
+    sumU,
+    Tair,
+    TairStar: new Float64Array(nZ),
+    bodyStart,
+    nBodies: nB,
+    halfOuter: Float64Array.from(faceParts.map((f) => f.halfOuter)),
+    area: Float64Array.from(faceParts.map((f) => f.area)),
+    faceKind: Int32Array.from(faceParts.map((f) => FACE_INDEX[f.kind])),
+    solAir: new Float64Array(4),
+    TairOld: Tair.slice(),
+    TairP: Tair.slice(),
+    TairM1: new Float64Array(nZ),
+    TairM2: new Float64Array(nZ),
+    pathFlow: new Float64Array(6),
+    pathPrev: new Float64Array(6),
+    gains,
+    state,
+    heatCapacity,
+    airCapacity,
+  };
+}
+
+/** The energy stored in the network, J (zones and walls from temperatures, bodies from their carried enthalpy). */
+function storedEnergy(S: Net): number {
+  let e = 0;
+  for (let z = 0; z < S.nZ; z++) e += S.Cair[z] * S.Tair[z];
+  for (let ci = 0; ci < S.chains.length; ci++) {
+    const ch = S.chains[ci];
+    const q = ch.mat ? ch.Hcur : ch.T;
+    for (let i = 0; i < ch.n; i++) e += ch.mass[i] * q[i];
+  }
+  return e;
+}
+
+/** What the caller sees after a step: zones, and each body's centre, surface, node under it and mean H. */
+function fillState(S: Net): void {
+  const st = S.state;
+  let s = 0;
+  for (let z = 0; z < S.nZ; z++) {
+    st.zone_C[z] = S.Tair[z];
+    s += S.Cair[z] * S.Tair[z];
+  }
+  st.air_C = s / S.airCapacity;
+  for (let j = 0; j < S.nBodies; j++) {
+    const ch = S.chains[S.bodyStart + j];
+    const n = ch.n;
+    st.bodyCenter_C[j] = ch.T[0];
+    st.bodySurface_C[j] = ch.T[n - 1];
+    st.bodySub_C[j] = ch.T[n > 1 ? n - 2 : 0];
+    let hm = 0;
+    let m = 0;
+    for (let i = 0; i < n; i++) {
+      hm += ch.mass[i] * ch.Hcur[i];
+      m += ch.mass[i];
+    }
+    st.bodyMeanH_J_kg[j] = hm / m;
+  }
+}
+
+/** The step's outside conditions on each face: outer film conductance and sol-air temperature. */
+function setConditions(S: Net, amb: ReturnType<NetworkSpec["ambient"]>): void {
+  const sa = S.solAir;
+  sa[0] = amb.solAir_C.base;
+  sa[1] = amb.solAir_C.sidesLower;
+  sa[2] = amb.solAir_C.sidesUpper;
+  sa[3] = amb.solAir_C.lid;
+  const hA = amb.outerH_W_m2K;
+  for (let ci = 0; ci < S.nFaces; ci++) {
+    S.outerG[ci] = 1 / (S.halfOuter[ci] + 1 / (hA * S.area[ci]));
+    S.outerT[ci] = sa[S.faceKind[ci]];
+  }
+}
+
+/** Start of a step: each chain's history term and predictor, the zones' likewise. */
+function startStep(S: Net, bdf: boolean, star: number, fPred: number): void {
+  for (let ci = 0; ci < S.chains.length; ci++) startChainStep(S.chains[ci], bdf, star, fPred);
+  const { Tair, TairOld, TairStar, TairM1, TairP } = S;
+  for (let z = 0; z < S.nZ; z++) {
+    TairOld[z] = Tair[z];
+    TairStar[z] = bdf ? Tair[z] + star * (Tair[z] - TairM1[z]) : Tair[z];
+    if (fPred > 0) Tair[z] += fPred * (Tair[z] - TairP[z]);
+  }
+}
+
+/** Back to the start of a step Newton could not finish. */
+function undoStep(S: Net): void {
+  for (const ch of S.chains) {
+    ch.T.set(ch.Told);
+    if (ch.mat) ch.Hcur.set(ch.Hs);
+  }
+  S.Tair.set(S.TairOld);
+}
+
+/**
+ * After a converged step: the bodies carry the enthalpy their last Newton update reached (H + c·δ at the
+ * last iterate, newtonStep), which is what the implicit balance stored, so the energy closes to round-off
+ * whatever the Newton tolerance; then the heat that came in is booked by path with the converged
+ * temperatures (net through each face, edges, openings). With BDF2 the stored energy moves by
+ * (h·F + α2·ΔE_prev)/α0 per step; booking each path by the same recursion keeps the sum of the paths equal
+ * to the stored change to round-off.
+ */
+function finishStep(S: Net, air_C: number, Gedge: number, Gopen: number, h: number, a0: number, a2: number): void {
+  for (let ci = S.bodyStart; ci < S.chains.length; ci++) {
+    const ch = S.chains[ci];
+    if (ch.mat) ch.Hcur.set(ch.Hn);
+  }
+  const pf = S.pathFlow;
+  const pp = S.pathPrev;
+  pf.fill(0);
+  for (let ci = 0; ci < S.nFaces; ci++) pf[S.faceKind[ci]] += S.outerG[ci] * (S.outerT[ci] - S.chains[ci].T[0]);
+  for (let z = 0; z < S.nZ; z++) {
+    pf[4] += Gedge * S.edgeShare[z] * (air_C - S.Tair[z]);
+    pf[5] += Gopen * S.openShare[z] * (air_C - S.Tair[z]);
+  }
+  const g = S.gains;
+  for (let p = 0; p < 6; p++) {
+    const q = (h * pf[p] + a2 * pp[p]) / a0;
+    pp[p] = q;
+    if (p < 4) g.faces[FACE_KINDS[p]] += q;
+    else if (p === 4) g.edges += q;
+    else g.openings += q;
+  }
+}
+
+/** The largest distance of any node (and, weighted 0.2, any zone) from the extrapolation L0·E⁰ + L1·E⁻¹ + L2·E⁻², K. */
+function stepDistance(S: Net, L0: number, L1: number, L2: number): number {
+  let m = 0;
+  for (let ci = 0; ci < S.chains.length; ci++) {
+    const d = extrapolationDistance(S.chains[ci], L0, L1, L2);
+    if (d > m) m = d;
+  }
+  const { Tair, TairOld, TairM1, TairM2 } = S;
+  for (let z = 0; z < S.nZ; z++) {
+    const d = 0.2 * Math.abs(Tair[z] - (L0 * TairOld[z] + L1 * TairM1[z] + L2 * TairM2[z]));
+    if (d > m) m = d;
+  }
+  return m;
+}
+
+/** Shifts the history (by swapping the arrays: H⁻² takes H⁻¹'s, H⁻¹ the start's, the old H⁻² is the next start's). */
+function shiftHistory(S: Net): void {
+  for (let ci = 0; ci < S.chains.length; ci++) {
+    const ch = S.chains[ci];
+    const spare = ch.Hm2;
+    ch.Hm2 = ch.Hm1;
+    ch.Hm1 = ch.Hs;
+    ch.Hs = spare;
+    ch.Tp.set(ch.Told);
+  }
+  S.TairM2.set(S.TairM1);
+  S.TairM1.set(S.TairOld);
+  S.TairP.set(S.TairOld);
+}
+
+export function runNetwork(spec: NetworkSpec): NetworkResult {
+  if (!(spec.tEnd_s > 0)) throw new PhysicsInputError("route", "the route has no length");
+  const S = buildNetwork(spec);
+  const E0 = storedEnergy(S);
+  fillState(S);
+  if (spec.onStep && spec.onStep(0, S.state)) {
+    return { steps: 0, newtonIterations: 0, gains_J: S.gains, storedChange_J: 0, energyError_J: 0, t_end_s: 0, heatCapacity_J_K: S.heatCapacity };
+  }
+  const breaks = [...spec.breakpoints_s.filter((b) => b > 0 && b < spec.tEnd_s), spec.tEnd_s].sort((x, y) => x - y);
+  let nextBreak = 0;
+  let t = 0;
+  let dt = 60;
+  const dtMax = spec.dtMax_s ?? 1800;
+  const target = spec.targetChange_K ?? 2;
+  const tolK = target * LTE_PER_TARGET;
+  let steps = 0;
+  let newton = 0;
+  // BDF2 history: accepted steps since the last restart (start, segment change, lid opening) and their lengths.
   let hist = 0;
   let hPrev1 = 0;
   let hPrev2 = 0;
   let lastBreak = -1;
-  const TairStar = new Float64Array(nZ);
-  const TairM1 = new Float64Array(nZ);
-  const TairM2 = new Float64Array(nZ);
-  const pathPrev = new Float64Array(6);
-  const pathFlow = new Float64Array(6);
-  const tolK = target * LTE_PER_TARGET;
-  const sys: NewtonSystem = { chains, nFaces, nZ, nK, keyRow, zoneRow, elim, linkA, linkB, linkG, A, A0, rhs, dAir, res, outerG, outerT, Cair: Float64Array.from(Cair), edgeShare: Float64Array.from(edgeShare), openShare: Float64Array.from(openShare), sumU, Tair, TairStar };
-
+  const nZ = S.nZ;
   while (t < spec.tEnd_s - 1e-9) {
     while (nextBreak < breaks.length && breaks[nextBreak] <= t + 1e-9) nextBreak++;
     const limit = nextBreak < breaks.length ? breaks[nextBreak] : spec.tEnd_s;
@@ -534,140 +720,73 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
     }
     const h = Math.min(dt, limit - t);
     const tNew = t + h;
+    // Guard: a step too small to change t (below its rounding) would repeat for ever; t is then at the end.
+    if (!(tNew > t)) break;
     // Variable-step BDF2 on the stored enthalpy, α0 E¹ + α1 E⁰ + α2 E⁻¹ = h·F(T¹), written as a backward-Euler
     // step of length h/α0 from E* = E⁰ + (α2/α0)(E⁰ − E⁻¹): the same Newton system, energy still exact.
     const bdf = hist >= 1;
     const w = bdf ? h / hPrev1 : 0;
     const a0 = bdf ? (1 + 2 * w) / (1 + w) : 1;
     const a2 = bdf ? (w * w) / (1 + w) : 0;
-    // Guard: a step too small to change t (below its rounding) would repeat for ever; t is then at the end.
-    if (!(tNew > t)) break;
     const hE = h / a0;
     const star = a2 / a0;
     // Conditions hold piecewise-constant over the step: take them at its middle.
     const amb = spec.ambient(t + h / 2);
-    for (let ci = 0; ci < nFaces; ci++) {
-      outerG[ci] = 1 / (faceParts[ci].halfOuter + 1 / (amb.outerH_W_m2K * faceParts[ci].area));
-      outerT[ci] = amb.solAir_C[faceParts[ci].kind];
-    }
+    setConditions(S, amb);
     const Gedge = spec.edgeConductance_W_K;
     const Gopen = amb.openExchange_W_K;
     // Exchange between the zones, from the temperatures at the start of the step.
-    const Gzz = nZ > 1 && spec.zoneExchange ? spec.zoneExchange(Tair) : 0;
+    const Gzz = nZ > 1 && spec.zoneExchange ? spec.zoneExchange(S.Tair) : 0;
     // Predictor: the last step's change, extrapolated (the converged answer does not depend on it; it
     // saves a Newton iteration or two).
-    const fPred = hist >= 1 ? Math.min(2, h / hPrev1) : 0;
-    for (let ci = 0; ci < chains.length; ci++) startChainStep(chains[ci], bdf, star, fPred);
-    for (let z = 0; z < nZ; z++) {
-      TairOld[z] = Tair[z];
-      TairStar[z] = bdf ? Tair[z] + star * (Tair[z] - TairM1[z]) : Tair[z];
-      if (fPred > 0) Tair[z] += fPred * (Tair[z] - TairP[z]);
-    }
+    startStep(S, bdf, star, hist >= 1 ? Math.min(2, h / hPrev1) : 0);
     const invH = 1 / hE;
-    for (let ci = 0; ci < nFaces; ci++) factorLinearChain(chains[ci], invH, outerG[ci], nZ);
-    fixedSystem(sys, invH, Gedge, Gopen, Gzz);
-    const it = newtonStep(sys, invH, Gedge, Gopen, Gzz, amb.air_C);
-    const converged = it > 0;
-    if (!converged) {
-      for (const ch of chains) {
-        ch.T.set(ch.Told);
-        if (ch.mat) ch.Hcur.set(ch.Hs);
-      }
-      for (let z = 0; z < nZ; z++) Tair[z] = TairOld[z];
+    for (let ci = 0; ci < S.nFaces; ci++) factorLinearChain(S.chains[ci], invH, S.outerG[ci], nZ);
+    fixedSystem(S, invH, Gedge, Gopen, Gzz);
+    const it = newtonStep(S, invH, Gedge, Gopen, Gzz, amb.air_C);
+    if (it === 0) {
+      undoStep(S);
       if (h < 1e-3) throw new PhysicsInputError("route", "the box model could not converge");
       dt = h / 4;
       continue;
     }
     newton += it;
-    // The enthalpy the last Newton update reached (H + c·δ at the last iterate, newtonStep), carried into
-    // the next step, the step control and the state: it is what the implicit balance stored, so the
-    // energy closes to round-off whatever the Newton tolerance.
-    for (let ci = bodyStart; ci < chains.length; ci++) {
-      const ch = chains[ci];
-      if (ch.mat) ch.Hcur.set(ch.Hn);
-    }
-    // Book the heat that came in, by path, with the converged temperatures: net through each face. With BDF2
-    // the stored energy moves by (h·F + α2·ΔE_prev)/α0 per step; booking each path by the same recursion
-    // keeps the sum of the paths equal to the stored change to round-off.
-    pathFlow.fill(0);
-    for (let ci = 0; ci < nFaces; ci++) {
-      const ch = chains[ci];
-      pathFlow[FACE_INDEX[faceParts[ci].kind]] += outerG[ci] * (amb.solAir_C[faceParts[ci].kind] - ch.T[0]);
-    }
-    for (let z = 0; z < nZ; z++) {
-      pathFlow[4] += Gedge * edgeShare[z] * (amb.air_C - Tair[z]);
-      pathFlow[5] += Gopen * openShare[z] * (amb.air_C - Tair[z]);
-    }
-    for (let p = 0; p < 6; p++) {
-      const q = (h * pathFlow[p] + a2 * pathPrev[p]) / a0;
-      pathPrev[p] = q;
-      if (p < 4) gains.faces[FACE_KINDS[p]] += q;
-      else if (p === 4) gains.edges += q;
-      else gains.openings += q;
-    }
+    finishStep(S, amb.air_C, Gedge, Gopen, h, a0, a2);
     // Step control. With two steps of history: the local error of BDF2, estimated from the distance to the
     // quadratic extrapolation of the last three states (E − E_pred ≈ (11/2)·LTE at constant steps), in kelvin
     // of a 3 kJ/(kg·K) body. With one (the step after a restart): the distance to the linear extrapolation
     // of the last two, ≈ h(h + h₁)/2·E'', of which the share h/(h + h₁) is a first-order local error
     // (a bound for this step's, which is second order). Right after a restart: the largest enthalpy change of any node.
-    const haveEst = hist >= 2;
-    const haveLin = hist === 1;
-    let L0 = 1;
-    let L1 = 0;
-    let L2 = 0;
-    if (haveEst) {
+    let grow: number;
+    if (hist >= 2) {
       const h1 = hPrev1;
       const h2 = hPrev2;
-      L0 = ((h + h1) * (h + h1 + h2)) / (h1 * (h1 + h2));
-      L1 = -(h * (h + h1 + h2)) / (h1 * h2);
-      L2 = (h * (h + h1)) / ((h1 + h2) * h2);
-    } else if (haveLin) {
-      L0 = 1 + h / hPrev1;
-      L1 = -h / hPrev1;
+      const L0 = ((h + h1) * (h + h1 + h2)) / (h1 * (h1 + h2));
+      const L1 = -(h * (h + h1 + h2)) / (h1 * h2);
+      const L2 = (h * (h + h1)) / ((h1 + h2) * h2);
+      const err = (2 / 11) * stepDistance(S, L0, L1, L2);
+      grow = err > 0 ? 0.9 * Math.cbrt(tolK / err) : 2;
+    } else if (hist === 1) {
+      const err = (h / (h + hPrev1)) * stepDistance(S, 1 + h / hPrev1, -h / hPrev1, 0);
+      grow = err > 0 ? 0.9 * Math.sqrt(tolK / err) : 2;
+    } else {
+      const change = stepDistance(S, 1, 0, 0);
+      grow = change > 0 ? target / change : 2;
     }
-    let maxChange = 0;
-    for (let ci = 0; ci < chains.length; ci++) {
-      const d = extrapolationDistance(chains[ci], L0, L1, L2);
-      if (d > maxChange) maxChange = d;
-    }
-    for (let z = 0; z < nZ; z++) {
-      const d = Math.abs(Tair[z] - (L0 * TairOld[z] + L1 * TairM1[z] + L2 * TairM2[z]));
-      maxChange = Math.max(maxChange, d * 0.2);
-    }
-    // Shift the history (by swapping the arrays: H⁻² takes H⁻¹'s, H⁻¹ the start's, the old H⁻² is the next start's).
-    for (let ci = 0; ci < chains.length; ci++) {
-      const ch = chains[ci];
-      const spare = ch.Hm2;
-      ch.Hm2 = ch.Hm1;
-      ch.Hm1 = ch.Hs;
-      ch.Hs = spare;
-      ch.Tp.set(ch.Told);
-    }
-    for (let z = 0; z < nZ; z++) {
-      TairM2[z] = TairM1[z];
-      TairM1[z] = TairOld[z];
-      TairP[z] = TairOld[z];
-    }
+    shiftHistory(S);
     hPrev2 = hPrev1;
     hPrev1 = h;
     hist++;
     t = tNew;
     steps++;
-    let grow: number;
-    if (haveEst) {
-      const err = (2 / 11) * maxChange;
-      grow = err > 0 ? 0.9 * Math.cbrt(tolK / err) : 2;
-    } else if (haveLin) {
-      const err = (h / (h + hPrev1)) * maxChange;
-      grow = err > 0 ? 0.9 * Math.sqrt(tolK / err) : 2;
-    } else grow = maxChange > 0 ? target / maxChange : 2;
     dt = Math.min(dtMax, Math.max(1, h * Math.min(2, Math.max(0.5, grow))));
-    fillState();
-    if (spec.onStep && spec.onStep(t, state)) break;
+    fillState(S);
+    if (spec.onStep && spec.onStep(t, S.state)) break;
   }
-  const stored = energy() - E0;
-  const totalIn = FACE_KINDS.reduce((a, k) => a + gains.faces[k], 0) + gains.edges + gains.openings;
-  return { steps, newtonIterations: newton, gains_J: gains, storedChange_J: stored, energyError_J: stored - totalIn, t_end_s: t, heatCapacity_J_K: heatCapacity };
+  const stored = storedEnergy(S) - E0;
+  const g = S.gains;
+  const totalIn = g.faces.base + g.faces.sidesLower + g.faces.sidesUpper + g.faces.lid + g.edges + g.openings;
+  return { steps, newtonIterations: newton, gains_J: g, storedChange_J: stored, energyError_J: stored - totalIn, t_end_s: t, heatCapacity_J_K: S.heatCapacity };
 }
 
 /** Everything one Newton solve of the network works on, fixed for a run (arrays are overwritten in place). */

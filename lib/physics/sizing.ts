@@ -293,8 +293,7 @@ export async function runSizing(
         done++;
       } else toRun.push(i);
     }
-    if (toRun.length) {
-      const rs = await evaluate(toRun, plan);
+    const record = (rs: CandidateResult[]) => {
       for (const r of rs) {
         results[r.index] = r;
         evaluated++;
@@ -306,49 +305,94 @@ export async function runSizing(
           holdingByGroup.set(c.group, list);
         }
       }
-    }
+    };
+    if (prune && toRun.length) {
+      // Colder first: of the candidates with the same box and counts, the one with every pack line at its
+      // coldest conditioning runs first. Packs that start colder keep every temperature colder at every
+      // later time (the comparison principle that justifies pruning above), so with upper limits only a
+      // warmer-conditioned twin fails no later: when the coldest fails, its twins fail without a run (their
+      // hold is at most the coldest's); when it holds, they run.
+      const coldest = (c: Candidate) => c.counts.every((n, k) => n === 0 || c.conditioning_C[k] === Math.min(...inp.packs[k].conditioning_C));
+      const twinKey = (c: Candidate) => `${c.box}|${c.variant_m}|${c.counts.join(",")}`;
+      const first = toRun.filter((i) => coldest(plan.candidates[i]));
+      const firstOf = new Map(first.map((i) => [twinKey(plan.candidates[i]), i]));
+      if (first.length) record(await evaluate(first, plan));
+      const rest: number[] = [];
+      for (const i of toRun) {
+        if (firstOf.get(twinKey(plan.candidates[i])) === i) continue;
+        const cold = firstOf.get(twinKey(plan.candidates[i]));
+        const cr = cold === undefined ? null : results[cold];
+        if (cr && cr.verdict !== "holds") {
+          results[i] = {
+            index: i,
+            verdict: cr.verdict,
+            hold_s: cr.hold_s,
+            central_s: null,
+            holdIsUpperBound: true,
+            reason: cr.verdict === "fails" ? "the same pack-out with its packs conditioned colder already fails, so this one fails no later (decided without a run)" : cr.reason,
+            failsFirst: null,
+            dryIceGone_s: null,
+            pruned: true,
+          };
+          pruned++;
+          done++;
+        } else rest.push(i);
+      }
+      if (rest.length) record(await evaluate(rest, plan));
+    } else if (toRun.length) record(await evaluate(toRun, plan));
     opts.onProgress?.(done, total);
   }
   // Rows: mass, cost and outer volume of each candidate, and the fit check for pruned ones (same rule as the model's).
   const rows: CandidateRow[] = [];
+  // Per box variant (the same for every candidate in it): the variant, its mass and cost, outer volume and inner space.
+  const variants = new Map<string, { s: Shipper; box: { mass_kg: number; cost: number }; outer_m3: number; inner_m3: number }>();
+  const loadVolume = inp.products.reduce((a, l) => a + volumeOf(l.product) * l.count, 0);
+  const loadMass = inp.products.reduce((a, l) => a + l.product.mass_kg * l.count, 0);
   for (const c of plan.candidates) {
     const r = results[c.index];
     if (!r) continue;
-    const b = inp.boxes[c.box];
-    const s = boxVariant(b.shipper, inp.materials, c.variant_m);
-    const box = boxMassAndCost(b, s, inp.materials);
-    const o = outerDims(s);
-    const inner = s.innerLength_m * s.innerWidth_m * s.innerHeight_m;
-    const contents =
-      inp.products.reduce((a, l) => a + volumeOf(l.product) * l.count, 0) +
-      inp.packs.reduce((a, p, i) => a + p.pack.length_m * p.pack.width_m * p.pack.thickness_m * c.counts[i], 0);
-    const fits = contents <= inner;
+    const vk = `${c.box}|${c.variant_m}`;
+    let v = variants.get(vk);
+    if (!v) {
+      const b = inp.boxes[c.box];
+      const s = boxVariant(b.shipper, inp.materials, c.variant_m);
+      const o = outerDims(s);
+      v = { s, box: boxMassAndCost(b, s, inp.materials), outer_m3: o.L * o.W * o.H, inner_m3: s.innerLength_m * s.innerWidth_m * s.innerHeight_m };
+      variants.set(vk, v);
+    }
+    const contents = loadVolume + inp.packs.reduce((a, p, i) => a + p.pack.length_m * p.pack.width_m * p.pack.thickness_m * c.counts[i], 0);
+    const fits = contents <= v.inner_m3;
     const verdict: Verdict = !fits ? "does not fit" : r.verdict;
     rows.push({
       ...r,
       verdict,
-      boxName: s.name,
+      boxName: v.s.name,
       packs: inp.packs.map((p, i) => ({ name: p.pack.name, count: c.counts[i], conditioning_C: c.conditioning_C[i] })).filter((p) => p.count > 0),
-      mass_kg: box.mass_kg + inp.packs.reduce((a, p, i) => a + p.pack.mass_kg * c.counts[i], 0) + inp.products.reduce((a, l) => a + l.product.mass_kg * l.count, 0),
-      cost: box.cost + inp.packs.reduce((a, p, i) => a + p.unitCost * c.counts[i], 0),
-      outerVolume_m3: o.L * o.W * o.H,
+      mass_kg: v.box.mass_kg + inp.packs.reduce((a, p, i) => a + p.pack.mass_kg * c.counts[i], 0) + loadMass,
+      cost: v.box.cost + inp.packs.reduce((a, p, i) => a + p.unitCost * c.counts[i], 0),
+      outerVolume_m3: v.outer_m3,
       holds: verdict === "holds",
     });
   }
   const holding = rows.filter((r) => r.holds);
-  const pareto = holding
-    .filter((a) => !holding.some((b) => b !== a && b.mass_kg <= a.mass_kg && b.cost <= a.cost && b.outerVolume_m3 <= a.outerVolume_m3 && (b.mass_kg < a.mass_kg || b.cost < a.cost || b.outerVolume_m3 < a.outerVolume_m3)))
-    .map((r) => r.index)
-    .sort((x, y) => x - y);
+  // Pareto front over mass, cost and outer volume: in lexicographic order a candidate can only be
+  // dominated by one before it, and if by any, then by one already on the front (dominance is transitive).
+  const dominates = (b: CandidateRow, a: CandidateRow) =>
+    b.mass_kg <= a.mass_kg && b.cost <= a.cost && b.outerVolume_m3 <= a.outerVolume_m3 && (b.mass_kg < a.mass_kg || b.cost < a.cost || b.outerVolume_m3 < a.outerVolume_m3);
+  const front: CandidateRow[] = [];
+  for (const a of [...holding].sort((x, y) => x.mass_kg - y.mass_kg || x.cost - y.cost || x.outerVolume_m3 - y.outerVolume_m3)) {
+    if (!front.some((b) => dominates(b, a))) front.push(a);
+  }
+  const pareto = front.map((r) => r.index).sort((x, y) => x - y);
   const nearMisses = rows
-    .filter((r) => r.verdict === "fails" && r.hold_s !== null && r.hold_s >= NEAR_MISS_FRACTION * plan.required_s)
+    .filter((r) => r.verdict === "fails" && !r.pruned && r.hold_s !== null && r.hold_s >= NEAR_MISS_FRACTION * plan.required_s)
     .sort((a, b) => (b.hold_s ?? 0) - (a.hold_s ?? 0))
     .slice(0, 12)
     .map((r) => ({ index: r.index, reason: r.reason ?? "fails", hold_s: r.hold_s }));
   const doesNotFit = rows.filter((r) => r.verdict === "does not fit").length;
   let message: string | null = null;
   if (!cancelled && holding.length === 0) {
-    const best = rows.filter((r) => r.verdict === "fails").sort((a, b) => (b.hold_s ?? 0) - (a.hold_s ?? 0))[0];
+    const best = rows.filter((r) => r.verdict === "fails" && !r.pruned).sort((a, b) => (b.hold_s ?? 0) - (a.hold_s ?? 0))[0];
     message =
       doesNotFit === rows.length
         ? "Nothing fits: the load and packs are larger than every candidate box. Choose a bigger box or fewer packs."

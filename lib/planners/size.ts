@@ -43,9 +43,10 @@ export function carriedLabel(h: HoldParsed, k: Kit): string {
   return `${boxLabel(h.shipper.name, k)} with ${packs}`;
 }
 
-/** A candidate's judged hold as it reads: "at most 9.5 h", "more than 21.6 h", "holds (decided without a run)". */
+/** A candidate's judged hold as it reads: "at most 9.5 h", "more than 21.6 h", "holds (decided without a run)", "at most 9.5 h (decided without a run)". */
 export function candidateHoldText(c: CandidateRow, required_s: number, k: Kit): string {
-  if (c.pruned) return "holds (decided without a run)";
+  if (c.pruned && c.verdict === "holds") return "holds (decided without a run)";
+  if (c.pruned) return c.hold_s === null ? "fails (decided without a run)" : `at most ${k.dur(c.hold_s)} (decided without a run)`;
   if (c.hold_s === null) return `more than ${k.dur(required_s)}`;
   return `${c.holdIsUpperBound ? "at most " : ""}${k.dur(c.hold_s)}`;
 }
