@@ -17,7 +17,8 @@ export const EXAMPLE_NOISE_K = 0.15;
 export const EXAMPLE_PREAMBLE = "Invented demo data: made by Holdline's own model of the demo lunch run (not a real trip)";
 
 export function exampleLogText(): string {
-  const made = runHoldParsed(holdInputSchema.parse({ ...lunchPlan, uncertainty: { outerH_frac: 0, insulationK_frac: 0, conditioning_K: 0 }, calibration: { ...EXAMPLE_TRUTH, source: "" } }));
+  // The "trip" stands for reality, so it is made with a fine step error (1/8 of the planner's, as a fit runs).
+  const made = runHoldParsed(holdInputSchema.parse({ ...lunchPlan, uncertainty: { outerH_frac: 0, insulationK_frac: 0, conditioning_K: 0 }, calibration: { ...EXAMPLE_TRUTH, source: "" } }), { errorScale: 1 / 8 });
   const t = made.series.map((p) => p.t_s);
   const csv = syntheticCsv(
     [

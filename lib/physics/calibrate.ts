@@ -88,6 +88,8 @@ export const MAX_INTERVAL_RATIO = 4;
 export const MAX_CORRELATION = 0.98;
 /** Below this RMS response (K per unit of ln f) the log does not respond to a factor. */
 const MIN_RESPONSE_K = 0.01;
+/** The model's step error target during a fit, relative to the planner's (NetworkSpec.errorScale). */
+const FIT_ERROR_SCALE = 1 / 8;
 /** Relative step of the central differences of the final Jacobian (in ln f). */
 const JAC_STEP = 0.1;
 /** Inside-air readings this long after a lid opening closes are not fitted (the model's air at an opening depends on its time steps). */
@@ -505,8 +507,10 @@ function holdProblem(plan0: HoldParsed, fitNames: string[], useOutside: boolean,
   if (logEnd > routeLen * 4) warnings.push(`The log runs ${(logEnd / 3600).toFixed(1)} h, more than four times the route (${(routeLen / 3600).toFixed(1)} h): readings after ${((routeLen * 4) / 3600).toFixed(1)} h are left out`);
   plan = { ...plan, extendFraction: ext };
   const skip = (ch: LogChannel) => drives && ch.role === "outside_air";
-  const withFactors = (f: number[]): HoldParsed => ({ ...plan, calibration: { wallConductance: f[0], innerH: f[1], contact: f[2], source } });
-  const runAt = (f: number[]) => inPlan(() => runHoldParsed(withFactors(f)));
+  // The fit needs the central curve only (no uncertainty band), with a finer step error so that the curve
+  // is smooth in the factors its differences are taken over.
+  const withFactors = (f: number[]): HoldParsed => ({ ...plan, uncertainty: { outerH_frac: 0, insulationK_frac: 0, conditioning_K: 0 }, calibration: { wallConductance: f[0], innerH: f[1], contact: f[2], source } });
+  const runAt = (f: number[]) => inPlan(() => runHoldParsed(withFactors(f), { errorScale: FIT_ERROR_SCALE }));
   // The compared readings are fixed once, from the plan as built: a reading is in or out by its time only.
   const first = runAt([1, 1, 1]);
   const cmp0 = compareLog(log, planStart_s, (ch, fld) => holdCurve(plan, first, ch, fld), skip);

@@ -4,7 +4,8 @@
  * end, to measure the margin), finds the first moment any product's centre or surface leaves its
  * band, and repeats the run over a small deterministic sample for an uncertainty band.
  */
-import { DEFAULT_CONTACT_W_M2K, effectiveHoldCalibration, holdInputSchema, type HoldCalibration, type HoldInput, type HoldParsed } from "../schemas/hold";
+import type { HoldCalibration, HoldParsed } from "../schemas/hold";
+import { DEFAULT_CONTACT_W_M2K, effectiveHoldCalibration } from "../schemas/defaults";
 import type { Material, Pack, Product } from "../schemas/templates";
 import { productThermal, simpleMaterial } from "./properties";
 import { boxOuterDimensions, itemShape } from "./geometry";
@@ -98,6 +99,8 @@ export function productBand(p: Product, start_C: number, rules: HoldParsed["rule
 interface Variant {
   /** Mesh and time-step refinement factor (1 = normal). */
   resolution?: number;
+  /** Scales the network's step error target (see NetworkSpec.errorScale). */
+  errorScale?: number;
   outerHScale: number;
   insulationKScale: number;
   conditioningShift_K: number;
@@ -540,6 +543,7 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
     // 4×-refined run (see LTE_PER_TARGET in shipper.ts); segment changes and lid openings stay exact.
     dtMax_s: 3600 / (v.resolution ?? 1),
     targetChange_K: 2 / (v.resolution ?? 1),
+    errorScale: v.errorScale,
     onStep: (t, st) => {
       // Band check on every product's centre and surface (no allocation: this runs every step).
       const check = (j: number, point: HoldPoint, T: number, Tp: number, limit: "upper" | "lower", Lim: number | null) => {
@@ -617,12 +621,6 @@ function downsample(s: HoldSeriesPoint[]): HoldSeriesPoint[] {
   const out = s.filter((_, i) => i % every === 0);
   if (out[out.length - 1] !== s[s.length - 1]) out.push(s[s.length - 1]);
   return out;
-}
-
-export function runHold(raw: HoldInput): HoldResult {
-  const parsed = holdInputSchema.safeParse(raw);
-  if (!parsed.success) throw new PhysicsInputError(parsed.error.issues[0].path.join("."), parsed.error.issues[0].message);
-  return runHoldParsed(parsed.data);
 }
 
 /** A corner of the uncertainty sample: scales on the outer coefficient and insulation k, and a conditioning shift (K). */
@@ -732,15 +730,15 @@ export function holdSampleRuns(inp: HoldParsed, corners: HoldCorner[], opts: { l
   return { ...first, runs, complete: true };
 }
 
-export function runHoldParsed(inp: HoldParsed, opts: { resolution?: number } = {}): HoldResult {
+export function runHoldParsed(inp: HoldParsed, opts: { resolution?: number; errorScale?: number } = {}): HoldResult {
   const P = prepare(inp);
-  const central = runOnce(P, { resolution: opts.resolution, outerHScale: 1, insulationKScale: 1, conditioningShift_K: 0, keepSeries: true });
+  const central = runOnce(P, { resolution: opts.resolution, errorScale: opts.errorScale, outerHScale: 1, insulationKScale: 1, conditioningShift_K: 0, keepSeries: true });
   // Uncertainty: the central run and every corner of the shared sample.
   const holds: (number | null)[] = [central.holdTime_s];
   // A calibrated box's band comes from its fitted intervals; otherwise from the default spreads.
   const calSample = calibratedCorners(inp);
-  if (calSample) for (const c of calSample) holds.push(runOnce(prepare(c.inp), { outerHScale: 1, insulationKScale: 1, conditioningShift_K: c.conditioningShift_K, resolution: opts.resolution, keepSeries: false }).holdTime_s);
-  else for (const c of uncertaintyCorners(inp.uncertainty).slice(1)) holds.push(runOnce(P, { ...c, resolution: opts.resolution, keepSeries: false }).holdTime_s);
+  if (calSample) for (const c of calSample) holds.push(runOnce(prepare(c.inp), { outerHScale: 1, insulationKScale: 1, conditioningShift_K: c.conditioningShift_K, resolution: opts.resolution, errorScale: opts.errorScale, keepSeries: false }).holdTime_s);
+  else for (const c of uncertaintyCorners(inp.uncertainty).slice(1)) holds.push(runOnce(P, { ...c, resolution: opts.resolution, errorScale: opts.errorScale, keepSeries: false }).holdTime_s);
   const asNumber = (x: number | null) => (x === null ? Infinity : x);
   const low = Math.min(...holds.map(asNumber));
   const high = Math.max(...holds.map(asNumber));

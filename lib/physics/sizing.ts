@@ -20,8 +20,8 @@
  * same answer as brute force, on shaded and sunny routes.
  */
 import type { SizeParsed } from "../schemas/size";
-import { MAX_CANDIDATES } from "../schemas/size";
-import { DEFAULT_CONTACT_W_M2K, HOLD_OVERRIDE_DEFAULTS, type HoldParsed } from "../schemas/hold";
+import type { HoldParsed } from "../schemas/hold";
+import { DEFAULT_CONTACT_W_M2K, HOLD_OVERRIDE_DEFAULTS, MAX_CANDIDATES } from "../schemas/defaults";
 import type { Shipper, Material } from "../schemas/templates";
 import { holdRuns, holdSampleRuns, uncertaintyCorners } from "./hold";
 import { boxOuterDimensions } from "./geometry";

@@ -3,6 +3,8 @@
  * a route and a rule set. One schema for the page, the API, the CLI and `holdline schema hold`.
  */
 import { z } from "zod";
+import { DEFAULT_CONTACT_W_M2K, HOLD_OVERRIDE_DEFAULTS } from "./defaults";
+export { DEFAULT_CONTACT_W_M2K, HOLD_OVERRIDE_DEFAULTS, effectiveHoldCalibration } from "./defaults";
 import { materialSchema, packSchema, productSchema, routeSchema, ruleSetSchema, shipperSchema, temperatureField } from "./templates";
 
 const temp = (what: string) => temperatureField(what, 400, "is outside this tool");
@@ -15,11 +17,7 @@ const count = (what: string) =>
 const optionalPositive = (what: string, max: number) =>
   z.number({ error: `${what}: enter a number` }).positive({ error: `${what} must be greater than zero` }).max(max, { error: `${what} is implausibly large` }).nullable().default(null);
 
-/** Contact conductance between a pack and what it rests on or against: 50 W/(m²·K) (common practice, packaging films and air gaps). */
-export const DEFAULT_CONTACT_W_M2K = 50;
 
-/** The hold input's overrides when none are given: every coefficient from the model, sun on the sides 25 %, 6 air changes a minute while the lid is open. */
-export const HOLD_OVERRIDE_DEFAULTS = { outerH_W_m2K: null, innerH_W_m2K: null, wallUA_W_K: null, sunShareSides: 0.25, lidOpenAirChangesPerMinute: 6, wellMixedInside: false };
 
 export const PLACEMENTS = ["around", "top", "bottom", "side"] as const;
 export type Placement = (typeof PLACEMENTS)[number];
@@ -81,24 +79,6 @@ export const holdCalibrationSchema = z.object({
 });
 export type HoldCalibration = z.output<typeof holdCalibrationSchema>;
 
-/**
- * The calibration a hold plan runs with: its own, or else the one its box was saved with (a box calibrated
- * from a logged trip: its factors, source and intervals); undefined for a box as built.
- */
-export function effectiveHoldCalibration(inp: Pick<HoldParsed, "calibration" | "shipper">): HoldCalibration | undefined {
-  if (inp.calibration) return inp.calibration;
-  const c = inp.shipper.calibration;
-  if (!c) return undefined;
-  const f = c.factors;
-  const iv = (x: typeof f.wallConductance) => (x && x.low !== null && x.high !== null ? { low: x.low, high: x.high } : undefined);
-  return {
-    wallConductance: f.wallConductance?.value ?? 1,
-    innerH: f.innerH?.value ?? 1,
-    contact: f.contact?.value ?? 1,
-    source: c.source,
-    intervals: { wallConductance: iv(f.wallConductance), innerH: iv(f.innerH), contact: iv(f.contact) },
-  };
-}
 
 export const holdInputSchema = z
   .object({

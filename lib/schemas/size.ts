@@ -5,8 +5,9 @@ import { z } from "zod";
 import { materialSchema, packSchema, routeSchema, ruleSetSchema, shipperSchema, temperatureField } from "./templates";
 import { holdProductLineSchema, uncertaintySchema, PLACEMENTS } from "./hold";
 
+import { MAX_CANDIDATES } from "./defaults";
 /** The largest search the sizer accepts in one go. */
-export const MAX_CANDIDATES = 20_000;
+export { MAX_CANDIDATES } from "./defaults";
 
 const temp = (what: string) => temperatureField(what, 100, "is not conditioning");
 

@@ -1,5 +1,5 @@
 import { describe, it, expect } from "vitest";
-import { runHoldParsed, runHold } from "../../lib/physics/hold";
+import { runHoldParsed } from "../../lib/physics/hold";
 import { holdInputSchema, type HoldInput } from "../../lib/schemas/hold";
 import { runValidated } from "../../lib/schemas/run";
 import { PhysicsInputError } from "../../lib/physics/validation";
@@ -8,6 +8,12 @@ import { DEMO_SCENARIO as D } from "../../lib/db/demo-scenario";
 const P = (n: string) => D.products.find((p) => p.name.startsWith(n))!;
 const K = (n: string) => D.packs.find((p) => p.name.startsWith(n))!;
 const S = (n: string) => D.shippers.find((p) => p.name.startsWith(n))!;
+/** Parse then plan, as every caller does; bad input becomes a PhysicsInputError naming its field. */
+const runHold = (raw: HoldInput) => {
+  const parsed = holdInputSchema.safeParse(raw);
+  if (!parsed.success) throw new PhysicsInputError(parsed.error.issues[0].path.join("."), parsed.error.issues[0].message);
+  return runHoldParsed(parsed.data);
+};
 const noBand = { outerH_frac: 0, insulationK_frac: 0, conditioning_K: 0 };
 const slowRoute = { ...D.routes[0], segments: D.routes[0].segments.map((s) => ({ ...s, duration_s: s.duration_s * 3 })) };
 const base: HoldInput = {
