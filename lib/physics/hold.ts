@@ -539,7 +539,7 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
     breakpoints_s: [...breakpoints, P.routeLength_s],
     tEnd_s: extendTo,
     refine: v.resolution ?? 1,
-    // Largest step 1 h: with the error control of the network, the hold time is within 0.1 % of a
+    // Largest step 1 h: with the error control of the network, the hold time is within about 0.1 % of a
     // 4×-refined run (see LTE_PER_TARGET in shipper.ts); segment changes and lid openings stay exact.
     dtMax_s: 3600 / (v.resolution ?? 1),
     targetChange_K: 2 / (v.resolution ?? 1),

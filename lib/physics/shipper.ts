@@ -154,9 +154,10 @@ const FACE_INDEX: Record<FaceKind, number> = { base: 0, sidesLower: 1, sidesUppe
 /**
  * Local error aimed at per step, K, for each kelvin of `targetChange_K`. Chosen by measured accuracy, not
  * habit: on a frozen 48 h route, a chilled overnight route and a sunny thin-walled one, the hold times of
- * the band (low, central, high) at 0.4 (and the hold planner's 1 h largest step) stay within 0.1 % of a
- * reference with 4× the nodes and 1/4 the steps, as they did at 0.05 with 30 min steps, with 45 % fewer
- * steps (test/reference/hold.ref.test.ts checks the refinement; npm run bench:peer the time error).
+ * the band (low, central, high) at 0.4 (and the hold planner's 1 h largest step) stay within about 0.1 %
+ * (0.11 % at most) of a run with 4× the nodes and 1/4 of the steps, against 0.03 % at 0.05 with 30 min
+ * steps, with 45 % fewer steps (test/reference/hold.ref.test.ts checks it at 0.2 %; npm run bench:peer
+ * gives the time error against SciPy's solver).
  */
 const LTE_PER_TARGET = 0.4;
 /**

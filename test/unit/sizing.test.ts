@@ -34,6 +34,15 @@ describe("pack-out sizer", { timeout: 180_000 }, () => {
     expect(brute.pruned).toBe(0);
     expect(summary(pruned)).toEqual(summary(brute));
     expect(pruned.pareto.length).toBeGreaterThan(0);
+    // Colder first: a warmer twin of a failing pack-out is decided without a run, and its "at most" hold
+    // is no shorter than the hold brute force finds for it.
+    const twins = pruned.candidates.filter((c) => c.pruned && c.verdict === "fails");
+    expect(twins.length).toBeGreaterThan(0);
+    for (const c of twins) {
+      const b = brute.candidates.find((x) => x.index === c.index)!;
+      expect(c.holdIsUpperBound).toBe(true);
+      expect(b.hold_s ?? Infinity).toBeLessThanOrEqual((c.hold_s ?? Infinity) + 1e-6);
+    }
   });
 
   it("pruning stays identical to brute force on a sunny route, judged at the low end over every corner", async () => {
