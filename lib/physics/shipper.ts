@@ -185,6 +185,8 @@ interface Chain {
   cn: Float64Array;
   mass: Float64Array; // kg per node (enthalpy chains) or heat capacity J/K (linear chains)
   Gfac: Float64Array; // n-1 link factors: W/K per (W/(m·K)) for enthalpy chains, or W/K for linear chains
+  /** Link conductances of this iteration (enthalpy chains), W/K. */
+  Gk: Float64Array;
   mat: EnthalpyMaterial | null;
   /** The material's table when it has one (foods and packs): read directly, so one monomorphic look-up serves every chain. */
   table: PropertyTable | null;
@@ -223,6 +225,7 @@ function newChain(n: number, zones: number): Chain {
     cn: f(),
     mass: f(),
     Gfac: new Float64Array(Math.max(0, n - 1)),
+    Gk: new Float64Array(Math.max(0, n - 1)),
     mat: null,
     table: null,
     U: new Float64Array(zones),
@@ -976,20 +979,17 @@ function assembleChain(ch: Chain, invH: number, Gout: number, Tout: number, Tair
     else evalMaterial(mat, T, 0, n, ch.Hn, ch.cn, ch.k, 1);
     capacityRows(n, ch.mass, ch.cn, ch.Hn, ch.Hold, invH, b, R);
     const k = ch.k;
+    const Gk = ch.Gk;
     for (let i = 0; i < n - 1; i++) {
       const k1 = k[i];
       const k2 = k[i + 1];
       const G = (Gfac[i] * 2 * k1 * k2) / (k1 + k2);
+      Gk[i] = G;
       const q = G * (T[i + 1] - T[i]);
       R[i] -= q;
       R[i + 1] += q;
-      b[i] += G;
-      b[i + 1] += G;
-      c[i] = -G;
-      a[i + 1] = -G;
     }
-    a[0] = 0;
-    c[n - 1] = 0;
+    linkRows(n, Gk, a, b, c);
     const e = n - 1;
     R[e] -= ch.extra;
     b[e] += ch.linkDiag;
@@ -1042,6 +1042,19 @@ function assembleChain(ch: Chain, invH: number, Gout: number, Tout: number, Tair
   for (let i = 1; i < n; i++) dp[i] = -R[i] - w[i] * dp[i - 1];
 }
 
+/** A chain's links in its tridiagonal Newton rows: each conductance G_i on both diagonals, −G_i off them. */
+function linkRows(n: number, G: Float64Array, a: Float64Array, b: Float64Array, c: Float64Array): void {
+  for (let i = 0; i < n - 1; i++) {
+    const g = G[i];
+    b[i] += g;
+    b[i + 1] += g;
+    c[i] = -g;
+    a[i + 1] = -g;
+  }
+  a[0] = 0;
+  c[n - 1] = 0;
+}
+
 /**
  * A wall chain (constant properties) has the same Newton matrix at every iteration of a step: its
  * diagonal (capacity/h, links, the outer film, contacts and zone couplings at the end node), its
@@ -1052,15 +1065,7 @@ function factorLinearChain(ch: Chain, invH: number, Gout: number, nZ: number): v
   const n = ch.n;
   const { a, b, c, bp, w, bpInv, Gfac, mass, U } = ch;
   for (let i = 0; i < n; i++) b[i] = mass[i] * invH;
-  for (let i = 0; i < n - 1; i++) {
-    const G = Gfac[i];
-    b[i] += G;
-    b[i + 1] += G;
-    c[i] = -G;
-    a[i + 1] = -G;
-  }
-  a[0] = 0;
-  c[n - 1] = 0;
+  linkRows(n, Gfac, a, b, c);
   if (Gout > 0) b[0] += Gout;
   b[n - 1] += ch.linkDiag;
   for (let z = 0; z < nZ; z++) b[n - 1] += U[z];
