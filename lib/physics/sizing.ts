@@ -316,10 +316,12 @@ export async function runSizing(
       const twinKey = (c: Candidate) => `${c.box}|${c.variant_m}|${c.counts.join(",")}`;
       const first = toRun.filter((i) => coldest(plan.candidates[i]));
       const firstOf = new Map(first.map((i) => [twinKey(plan.candidates[i]), i]));
+      // Repeated conditioning temperatures or thickness variants make several "coldest" twins: all ran.
+      const ran = new Set(first);
       if (first.length) record(await evaluate(first, plan));
       const rest: number[] = [];
       for (const i of toRun) {
-        if (firstOf.get(twinKey(plan.candidates[i])) === i) continue;
+        if (ran.has(i)) continue;
         const cold = firstOf.get(twinKey(plan.candidates[i]));
         const cr = cold === undefined ? null : results[cold];
         if (cr && cr.verdict !== "holds") {

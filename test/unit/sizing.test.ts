@@ -105,3 +105,13 @@ describe("pack-out sizer", { timeout: 180_000 }, () => {
     expect(h.packs.every((l) => l.count > 0)).toBe(true);
   });
 });
+
+describe("colder first, with repeated conditioning temperatures", { timeout: 120_000 }, () => {
+  it("every candidate is decided once: run + decided without a run = all, and the verdicts match brute force", async () => {
+    const x: SizeInput = { ...base, packs: [{ pack: f(D.packs, "Gel"), minCount: 0, maxCount: 3, conditioning_C: [-18, -18] }] };
+    const pruned = await run({ ...x, prune: true });
+    const brute = await run({ ...x, prune: false });
+    expect(pruned.evaluated + pruned.pruned).toBe(pruned.candidates.length);
+    expect(summary(pruned)).toEqual(summary(brute));
+  });
+});
