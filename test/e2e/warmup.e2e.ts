@@ -6,13 +6,20 @@ import { installLatencyProbes, mainText, measureLatency, planIdOf, setUnits } fr
 
 const suite = browserSuite();
 
+/** Waits until the answer on screen is for the inputs as they are now (the view is not marked busy). */
+const settled = (page: typeof suite.page) => page.waitForFunction(() => document.querySelector(".plan-view")?.getAttribute("aria-busy") === "false");
+
 describe("warm-up / cool-down check in the browser", () => {
   it("shows the curve and the time to the limit, updates when a value changes, saves a plan and reopens it", async () => {
     await suite.page.goto(suite.h.baseUrl + "/warmup");
+    // Choose the product only once the page has hydrated (its first answer, from the page's worker, is on
+    // screen): a choice made on the server-rendered form can be reset by hydration, as a loaded CI run showed.
+    await suite.page.getByTestId("ttl-center").waitFor();
     await suite.page.getByLabel("Product").selectOption("Steamed rice, full pan");
     await suite.page.getByLabel("Starting temperature").fill("3");
     await suite.page.getByLabel("Temperature", { exact: true }).fill("25");
     await suite.page.getByTestId("temperature-chart").locator("svg path.recharts-curve").first().waitFor();
+    await settled(suite.page);
     const before = await suite.page.getByTestId("ttl-center").innerText();
     assert.match(before, /\d+ (h|min)/);
     assert.match(await suite.page.getByTestId("method").innerText(), /^(lumped capacitance|exact series|numerical enthalpy solver): /);
@@ -20,6 +27,7 @@ describe("warm-up / cool-down check in the browser", () => {
     // A warmer room: the centre reaches the limit sooner, and the page shows it without a button press.
     await suite.page.getByLabel("Temperature", { exact: true }).fill("35");
     await suite.page.waitForFunction((prev) => document.querySelector('[data-testid="ttl-center"]')?.textContent !== prev, before);
+    await settled(suite.page);
     const after = await suite.page.getByTestId("ttl-center").innerText();
     const minutes = (s: string) => {
       const hm = /(\d+) h (\d+) min/.exec(s);
@@ -33,6 +41,7 @@ describe("warm-up / cool-down check in the browser", () => {
     await suite.page.getByText(/cannot be below absolute zero/).first().waitFor();
     await suite.page.getByLabel("Starting temperature").fill("3");
     await suite.page.getByTestId("ttl-center").waitFor();
+    await settled(suite.page);
     await suite.page.getByLabel("Save as a plan").fill("Rice on the buffet, hot day");
     await suite.page.getByRole("button", { name: "Save plan" }).click();
     await suite.page.getByRole("link", { name: "open the saved plan" }).click();
