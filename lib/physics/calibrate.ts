@@ -507,9 +507,8 @@ function holdProblem(plan0: HoldParsed, fitNames: string[], useOutside: boolean,
   if (logEnd > routeLen * 4) warnings.push(`The log runs ${(logEnd / 3600).toFixed(1)} h, more than four times the route (${(routeLen / 3600).toFixed(1)} h): readings after ${((routeLen * 4) / 3600).toFixed(1)} h are left out`);
   plan = { ...plan, extendFraction: ext };
   const skip = (ch: LogChannel) => drives && ch.role === "outside_air";
-  // The fit needs the central curve only (no uncertainty band), with a finer step error so that the curve
-  // is smooth in the factors its differences are taken over.
-  const withFactors = (f: number[]): HoldParsed => ({ ...plan, uncertainty: { outerH_frac: 0, insulationK_frac: 0, conditioning_K: 0 }, calibration: { wallConductance: f[0], innerH: f[1], contact: f[2], source } });
+  const withFactors = (f: number[]): HoldParsed => ({ ...plan, calibration: { wallConductance: f[0], innerH: f[1], contact: f[2], source } });
+  // A finer step error than the planner's, so that the curve is smooth in the factors its differences are taken over.
   const runAt = (f: number[]) => inPlan(() => runHoldParsed(withFactors(f), { errorScale: FIT_ERROR_SCALE }));
   // The compared readings are fixed once, from the plan as built: a reading is in or out by its time only.
   const first = runAt([1, 1, 1]);

@@ -17,8 +17,6 @@ const count = (what: string) =>
 const optionalPositive = (what: string, max: number) =>
   z.number({ error: `${what}: enter a number` }).positive({ error: `${what} must be greater than zero` }).max(max, { error: `${what} is implausibly large` }).nullable().default(null);
 
-
-
 export const PLACEMENTS = ["around", "top", "bottom", "side"] as const;
 export type Placement = (typeof PLACEMENTS)[number];
 
@@ -78,7 +76,6 @@ export const holdCalibrationSchema = z.object({
     .optional(),
 });
 export type HoldCalibration = z.output<typeof holdCalibrationSchema>;
-
 
 export const holdInputSchema = z
   .object({
