@@ -279,6 +279,13 @@ export const BIBLIOGRAPHY = {
     where: "Numer. Heat Transfer B 17:155–169 (enthalpy formulation solved implicitly)",
     note: "from memory",
   },
+  swaminathanVoller1992: {
+    authors: "C. R. Swaminathan, V. R. Voller",
+    title: "A general enthalpy method for modeling solidification processes",
+    year: 1992,
+    where: "Metall. Trans. B 23B:651–664 (Newton on the enthalpy: update H by the linearisation, then place T from H when the update crosses a kink)",
+    note: "from memory",
+  },
   smith1995Monotone: {
     authors: "H. L. Smith",
     title: "Monotone Dynamical Systems: An Introduction to the Theory of Competitive and Cooperative Systems",

@@ -61,6 +61,9 @@ export interface HoldRun {
   energyBalanceError_J: number;
   steps: number;
   newtonIterations: number;
+  /** Steps the box model took again (Newton not converged; error estimate too large). */
+  newtonFailures: number;
+  rejectedSteps: number;
   series: HoldSeriesPoint[];
   co2Released_m3: number;
   /** When the last dry ice sublimated (null if none was packed or some is left). */
@@ -509,6 +512,7 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
     const line = inp.packs[g.line];
     return { Htop: P.packMats[g.line].H_J_kg(line.pack.phaseChange_C + packMeltBand_K(line.pack) / 2), L: line.pack.latentHeat_J_kg };
   });
+  const prevDryH = new Float64Array(L.groups.length);
   const dryGroups = L.groups.map((g, k) => (inp.packs[g.line].pack.kind === "dry_ice" ? k : -1)).filter((k) => k >= 0);
   let dryIceGone: number | null = null;
   const latentLeft = (k: number, st: NetworkState) => Math.min(1, Math.max(0, (groupLatent[k].Htop - st.bodyMeanH_J_kg[k]) / groupLatent[k].L));
@@ -575,9 +579,22 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
         prevC[j] = c;
         prevS[j] = s;
       }
+      // The dry ice is gone when the last group's mean enthalpy reaches the top of its band: the time
+      // within the step by linear interpolation of each group's mean H, as the band crossings above.
+      if (dryGroups.length && dryIceGone === null) {
+        if (dryGroups.every((k) => st.bodyMeanH_J_kg[k] >= groupLatent[k].Htop)) {
+          let f = 0;
+          for (const k of dryGroups) {
+            const H = st.bodyMeanH_J_kg[k];
+            const Hp = prevDryH[k];
+            if (t > 0 && Hp < groupLatent[k].Htop && H > Hp) f = Math.max(f, (groupLatent[k].Htop - Hp) / (H - Hp));
+          }
+          dryIceGone = prevT + Math.min(1, f) * (t - prevT);
+        }
+        for (const k of dryGroups) prevDryH[k] = st.bodyMeanH_J_kg[k];
+      }
       prevT = t;
       if (routeGains === null && t >= P.routeLength_s - 1e-6) routeGains = { ...st.gains, faces: { ...st.gains.faces } };
-      if (dryGroups.length && dryIceGone === null && dryGroups.every((k) => st.bodyMeanH_J_kg[k] >= groupLatent[k].Htop)) dryIceGone = t;
       if (v.keepSeries) {
         lastLines = lineState(st);
         series.push({
@@ -609,6 +626,8 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
     energyBalanceError_J: net.energyError_J,
     steps: net.steps,
     newtonIterations: net.newtonIterations,
+    newtonFailures: net.newtonFailures,
+    rejectedSteps: net.rejectedSteps,
     series: v.keepSeries ? downsample(series) : [],
     co2Released_m3: dryIceSublimated * CO2_M3_PER_KG,
     dryIceGone_s: dryIceGone,

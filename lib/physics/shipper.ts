@@ -30,7 +30,7 @@
 import { SIGMA_W_M2K4, itemSurfaceCoefficient, CP_AIR_J_KGK, P_ATM_PA, R_AIR_J_KGK } from "./surfaces";
 import { KELVIN_OFFSET, PhysicsInputError } from "./validation";
 import { evalMaterial, evalMaterialH, type EnthalpyMaterial } from "./solver1d";
-import { evalTable, type PropertyTable } from "./table";
+import { evalTable, tableCell, tableT, type PropertyTable } from "./table";
 
 export interface WallLayerSpec {
   thickness_m: number;
@@ -141,6 +141,9 @@ export interface NetworkState {
 export interface NetworkResult {
   steps: number;
   newtonIterations: number;
+  /** Steps taken again: Newton did not converge (the step is quartered), or the error estimate was too large (see runNetwork). */
+  newtonFailures: number;
+  rejectedSteps: number;
   gains_J: Gains;
   storedChange_J: number;
   energyError_J: number;
@@ -168,6 +171,13 @@ const LTE_PER_TARGET = 0.4;
  * with 18 % fewer iterations.
  */
 const NEWTON_TOL_K = 1e-5;
+/**
+ * First step of a run and after every change of conditions, s: backward Euler, before any error estimate
+ * exists. Fixed rather than carried over from before the change, so that the answer moves smoothly with
+ * the inputs (calibration fits it by finite differences); a step carried over (up to minutes) put up to
+ * 0.3 K of first-order error into the inside air right after a change.
+ */
+const RESTART_STEP_S = 60;
 
 interface Chain {
   n: number;
@@ -703,17 +713,19 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
   const E0 = storedEnergy(S);
   fillState(S);
   if (spec.onStep && spec.onStep(0, S.state)) {
-    return { steps: 0, newtonIterations: 0, gains_J: S.gains, storedChange_J: 0, energyError_J: 0, t_end_s: 0, heatCapacity_J_K: S.heatCapacity };
+    return { steps: 0, newtonIterations: 0, newtonFailures: 0, rejectedSteps: 0, gains_J: S.gains, storedChange_J: 0, energyError_J: 0, t_end_s: 0, heatCapacity_J_K: S.heatCapacity };
   }
   const breaks = [...spec.breakpoints_s.filter((b) => b > 0 && b < spec.tEnd_s), spec.tEnd_s].sort((x, y) => x - y);
   let nextBreak = 0;
   let t = 0;
-  let dt = 60;
+  let dt = RESTART_STEP_S;
   const dtMax = spec.dtMax_s ?? 1800;
   const target = spec.targetChange_K ?? 2;
   const tolK = target * LTE_PER_TARGET * (spec.errorScale ?? 1);
   let steps = 0;
   let newton = 0;
+  let rejected = 0;
+  let failures = 0;
   // BDF2 history: accepted steps since the last restart (start, segment change, lid opening) and their lengths.
   let hist = 0;
   let hPrev1 = 0;
@@ -724,9 +736,11 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
     while (nextBreak < breaks.length && breaks[nextBreak] <= t + 1e-9) nextBreak++;
     const limit = nextBreak < breaks.length ? breaks[nextBreak] : spec.tEnd_s;
     // Conditions change at a break: start again from one backward-Euler step (events stay exact).
+    // Its first step has no error estimate, so it is no longer than the first step of the run (RESTART_STEP_S).
     if (nextBreak !== lastBreak) {
       hist = 0;
       lastBreak = nextBreak;
+      if (t > 0) dt = Math.min(dt, RESTART_STEP_S);
     }
     const h = Math.min(dt, limit - t);
     const tNew = t + h;
@@ -755,13 +769,13 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
     fixedSystem(S, invH, Gedge, Gopen, Gzz);
     const it = newtonStep(S, invH, Gedge, Gopen, Gzz, amb.air_C);
     if (it === 0) {
+      failures++;
       undoStep(S);
       if (h < 1e-3) throw new PhysicsInputError("route", "the box model could not converge");
       dt = h / 4;
       continue;
     }
     newton += it;
-    finishStep(S, amb.air_C, Gedge, Gopen, h, a0, a2);
     // Step control. With two steps of history: the local error of BDF2, estimated from the distance to the
     // quadratic extrapolation of the last three states (E − E_pred ≈ (11/2)·LTE at constant steps), in kelvin
     // of a 3 kJ/(kg·K) body. With one (the step after a restart): the distance to the linear extrapolation
@@ -783,6 +797,17 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
       const change = stepDistance(S, 1, 0, 0);
       grow = change > 0 ? target / change : 2;
     }
+    // A step whose error estimate would halve the next step (about 6× the aim for BDF2) is taken again,
+    // shorter: a step that runs through a sudden change (a pack's last ice going) must not be kept just
+    // because Newton converged on it. The first step after a restart (sized by the change, not an error
+    // estimate) and steps of 1 s or less are kept (the guard against endless retries).
+    if (hist >= 1 && grow < 0.5 && h > 1) {
+      undoStep(S);
+      dt = Math.max(1, h * Math.max(0.2, grow));
+      rejected++;
+      continue;
+    }
+    finishStep(S, amb.air_C, Gedge, Gopen, h, a0, a2);
     shiftHistory(S);
     hPrev2 = hPrev1;
     hPrev1 = h;
@@ -796,7 +821,7 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
   const stored = storedEnergy(S) - E0;
   const g = S.gains;
   const totalIn = g.faces.base + g.faces.sidesLower + g.faces.sidesUpper + g.faces.lid + g.edges + g.openings;
-  return { steps, newtonIterations: newton, gains_J: g, storedChange_J: stored, energyError_J: stored - totalIn, t_end_s: t, heatCapacity_J_K: S.heatCapacity };
+  return { steps, newtonIterations: newton, newtonFailures: failures, rejectedSteps: rejected, gains_J: g, storedChange_J: stored, energyError_J: stored - totalIn, t_end_s: t, heatCapacity_J_K: S.heatCapacity };
 }
 
 /** Everything one Newton solve of the network works on, fixed for a run (arrays are overwritten in place). */
@@ -925,7 +950,7 @@ function newtonStep(S: NewtonSystem, invH: number, Gedge: number, Gopen: number,
 /** Largest distance of a chain's stored quantity from its extrapolation L0·E⁰ + L1·E⁻¹ + L2·E⁻², in kelvin (H over 3 kJ/(kg·K)). */
 function extrapolationDistance(ch: Chain, L0: number, L1: number, L2: number): number {
   const n = ch.n;
-  const now = ch.mat ? ch.Hcur : ch.T;
+  const now = ch.mat ? ch.Hn : ch.T;
   const sc = ch.mat ? 1 / 3000 : 1;
   const Hs = ch.Hs;
   const Hm1 = ch.Hm1;
@@ -1106,6 +1131,8 @@ function backSubstitute(ch: Chain, endDelta: number, d: Float64Array, nZ: number
     for (let z = 0; z < nZ; z++) coupled += U[z] * d[zoneRow[z]];
     next = coupled * inv[n - 1];
   }
+  const table = ch.table;
+  if (table) return backSubstituteTable(ch, table, next);
   // Enthalpy chains also move H along the same linearisation (H + c·δ): the energy the Newton rows store.
   const mat = ch.mat !== null;
   const Hn = ch.Hn;
@@ -1118,6 +1145,38 @@ function backSubstitute(ch: Chain, endDelta: number, d: Float64Array, nZ: number
     T[i] += next;
     if (mat) Hn[i] += cn[i] * next;
     const m = Math.abs(next);
+    if (m > maxStep) maxStep = m;
+  }
+  return maxStep;
+}
+
+/**
+ * Back substitution of a tabulated chain (foods, packs): H moves along the linearisation, H + c·δ, the
+ * energy the Newton rows store. While T + δ stays in the node's table cell that H is the table's at T + δ;
+ * when it leaves the cell (a node crossing a melting band's edge, where the slope jumps), T is placed from
+ * that H through the table's inverse instead of at T + δ [swaminathanVoller1992], so that a node never
+ * overshoots a band it has only begun to enter and Newton does not cycle between its two sides. Returns
+ * the largest |δ| of the linear update (not the placed |ΔT|: a node entering a band moves little in T for
+ * a large change in H, and must not count as converged).
+ */
+function backSubstituteTable(ch: Chain, table: PropertyTable, endDelta: number): number {
+  const n = ch.n;
+  const T = ch.T;
+  const inv = ch.bpInv;
+  const dp = ch.dp;
+  const c = ch.c;
+  const Hn = ch.Hn;
+  const cn = ch.cn;
+  let next = endDelta;
+  let maxStep = 0;
+  for (let i = n - 1; i >= 0; i--) {
+    if (i < n - 1) next = (dp[i] - c[i] * next) * inv[i];
+    const Ti = T[i];
+    const Tlin = Ti + next;
+    const H = Hn[i] + cn[i] * next;
+    Hn[i] = H;
+    T[i] = tableCell(table, Tlin) === tableCell(table, Ti) ? Tlin : tableT(table, H);
+    const m = next < 0 ? -next : next;
     if (m > maxStep) maxStep = m;
   }
   return maxStep;

@@ -92,3 +92,38 @@ export function evalTableH(t: PropertyTable, T: Float64Array, from: number, to: 
     Hout[j] = Ht[i] + (u - i) * (Ht[i + 1] - Ht[i]);
   }
 }
+
+/** The cell T falls in (clamped to the table, as the look-ups use it). */
+export function tableCell(t: PropertyTable, T_C: number): number {
+  const last = t.H.length - 2;
+  const i = Math.floor((T_C - t.T0_C) * t.invDT);
+  return i < 0 ? 0 : i > last ? last : i;
+}
+
+/**
+ * The inverse of tableH: the temperature at which the table's H equals `H_J_kg`, °C. H rises through the
+ * grid (foods and packs: c ≥ 0), so one binary search finds the cell; beyond the ends the end cells'
+ * slopes extend it linearly, as tableH does. Where H is flat over a range of T (c = 0), the top of that
+ * range. The solvers use it to place a node from the enthalpy its Newton update reached when that update
+ * leaves the node's cell (the enthalpy-update form of Swaminathan & Voller [swaminathanVoller1992]).
+ */
+export function tableT(t: PropertyTable, H_J_kg: number): number {
+  const Ht = t.H;
+  const last = Ht.length - 2;
+  let lo = 0;
+  let hi = last;
+  if (H_J_kg <= Ht[0]) hi = 0;
+  else if (H_J_kg >= Ht[last + 1]) lo = last;
+  else {
+    // Largest i with Ht[i] <= H, in 0 … last.
+    while (lo < hi) {
+      const mid = (lo + hi + 1) >> 1;
+      if (Ht[mid] <= H_J_kg) lo = mid;
+      else hi = mid - 1;
+    }
+  }
+  const i = lo;
+  const dH = Ht[i + 1] - Ht[i];
+  if (!(dH > 0)) return t.T0_C + i * t.dT_K;
+  return t.T0_C + (i + (H_J_kg - Ht[i]) / dH) * t.dT_K;
+}

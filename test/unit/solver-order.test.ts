@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { solve1D } from "../../lib/physics/solver1d";
 import { simpleMaterial } from "../../lib/physics/properties";
-import { tableC, tableH, tableK } from "../../lib/physics/table";
+import { makeTable, tableC, tableCell, tableH, tableK, tableT } from "../../lib/physics/table";
 
 // Our own numerics: the time stepping is second order, and a pack's table holds its piecewise-linear H and k exactly.
 describe("1-D solver time stepping", () => {
@@ -26,5 +26,20 @@ describe("1-D solver time stepping", () => {
     expect(tableC(t, 0)).toBeCloseTo(300_000 / 0.5 + 3000, 3);
     expect(tableK(t, -5)).toBeCloseTo(2, 9);
     expect(tableK(t, 0)).toBeCloseTo(1.25, 9);
+  });
+});
+
+describe("the table's inverse (T from H)", () => {
+  const mat = simpleMaterial({ rho_kg_m3: 1000, cSolid_J_kgK: 2000, cLiquid_J_kgK: 4000, kSolid_W_mK: 2, kLiquid_W_mK: 0.5, melt_C: 0, latent_J_kg: 300_000, mushy_K: 0.5 });
+  const t = mat.table;
+  it("gives back T from tableH(T) in every cell, in the band and beyond both ends", () => {
+    for (const T of [-200, -40.3, -10.25, -0.25, -0.1, 0, 0.2, 0.25, 3.7, 40, 150]) expect(tableT(t, tableH(t, T))).toBeCloseTo(T, 8);
+  });
+  it("where H is flat over a range of T, the top of that range", () => {
+    const flat = makeTable(0, 1, new Float64Array([0, 10, 10, 20]), new Float64Array([1, 1, 1, 1]));
+    expect(tableT(flat, 10)).toBe(2);
+    expect(tableT(flat, 15)).toBeCloseTo(2.5, 12);
+    expect(tableCell(flat, 2.5)).toBe(2);
+    expect(tableCell(flat, -4)).toBe(0);
   });
 });
