@@ -266,6 +266,13 @@ export const BIBLIOGRAPHY = {
     edition: "2nd ed., Oxford",
     where: "§11.2 (Neumann's solution for melting and freezing of a semi-infinite region)",
   },
+  semiInfiniteConvection: {
+    authors: "H. S. Carslaw, J. C. Jaeger; Incropera et al.",
+    title: "Conduction of Heat in Solids; Fundamentals of Heat and Mass Transfer",
+    year: 1959,
+    where: "C&J §2.7; Incropera 6th ed. §5.7, Eq. 5.60 (semi-infinite solid whose surface exchanges heat by a coefficient h with a medium at a fixed temperature: (Ts − Ti)/(T∞ − Ti) = 1 − exp(β²)·erfc(β), β = h√(αt)/k)",
+    note: "section and equation numbers from memory",
+  },
   patankar1980: {
     authors: "S. V. Patankar",
     title: "Numerical Heat Transfer and Fluid Flow",

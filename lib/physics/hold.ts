@@ -15,6 +15,7 @@ import { layoutBox, type Layout } from "./placement";
 import { KELVIN_OFFSET, PhysicsInputError } from "./validation";
 import type { EnthalpyMaterial } from "./solver1d";
 import { holdCompliance, type ComplianceLine } from "./compliance";
+import { contactColumn, type ContactColumn } from "./contact-column";
 
 /** CO₂ gas volume per kg of dry ice at 20 °C and 1 atm, ideal gas: 0.547 m³/kg (published-values.md §4.4, COMPUTED). */
 export const CO2_M3_PER_KG = 0.547;
@@ -477,35 +478,17 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
   });
   L.products.forEach((pr, j) => add("base", wallLayers, pr.onBase_m2, { body: nGroups + j, h_W_m2K: DEFAULT_CONTACT_W_M2K }));
 
-  // Freeze check next to packs: the product's surface layer where a pack touches it (depth Δr, one node
-  // spacing) as its own small node, coupled to the node under it (k/Δr) and to the coldest touching pack's
-  // surface (the contact coefficient), with its own heat capacity including latent heat, integrated
-  // implicitly with the model's steps. It starts at the product's packing temperature.
+  // Freeze check next to packs: the product's face where a pack touches it, on its own fine column from
+  // the face to the centre (contact-column.ts), against the surface of each touching pack group, so the
+  // time it crosses the lower limit does not depend on the box model's step or grid. Built at packing.
   const touching = inp.products.map((_, j) => L.groups.map((g, k) => ({ k, hc: inp.packs[g.line].contact_W_m2K, a: g.load_m2[j] })).filter((x) => x.a > 0));
-  const patch = inp.products.map((l) => l.start_C);
-  const contactPoint = (j: number, st: { bodySurface_C: Float64Array; bodySub_C: Float64Array }, dt: number) => {
-    const pm = P.productMats[j];
-    const sub = st.bodySub_C[nGroups + j];
-    const dr = pm.R / Math.max(1, 9 * (v.resolution ?? 1) - 1);
-    const T0 = patch[j];
-    const K = pm.mat.k_W_mK(T0) / dr;
-    const C = (pm.mat.rho_kg_m3 * pm.mat.c_J_kgK(T0) * dr) / dt;
-    let coldest = Infinity;
-    for (const x of touching[j]) {
-      const T = (C * T0 + K * sub + x.hc * st.bodySurface_C[x.k]) / (C + K + x.hc);
-      if (T < coldest) coldest = T;
-    }
-    patch[j] = coldest;
-    return coldest;
-  };
-
+  let columns: { k: number; col: ContactColumn }[][] | null = null;
   const breakpoints = [...P.segments.map((s) => s.end_s), ...P.openings.flatMap((op) => [op.start_s, op.end_s])];
   let holdTime: number | null = null;
   let failsFirst: HoldRun["failsFirst"] = null;
   const series: HoldSeriesPoint[] = [];
   const prevC = new Float64Array(inp.products.length);
   const prevS = new Float64Array(inp.products.length);
-  const prevX = new Float64Array(inp.products.length);
   let prevT = 0;
   let routeGains: Gains | null = null;
   const groupLatent = L.groups.map((g) => {
@@ -561,6 +544,15 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
           failsFirst = { product: inp.products[j].product.name, line: j, point, limit, limit_C: Lim };
         }
       };
+      if (columns === null)
+        columns = inp.products.map((line, j) =>
+          P.bands[j].lower_C === null
+            ? []
+            : touching[j].map((x) => ({
+                k: x.k,
+                col: contactColumn({ material: P.productMats[j].mat, depth_m: P.productMats[j].R, start_C: line.start_C, pack_C: st.bodySurface_C[x.k], contact_W_m2K: x.hc, refine: v.resolution ?? 1 }),
+              })),
+        );
       for (let j = 0; j < inp.products.length; j++) {
         const b = P.bands[j];
         const c = st.bodyCenter_C[nGroups + j];
@@ -569,12 +561,14 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
         check(j, "surface", s, prevS[j], "lower", b.lower_C);
         check(j, "centre", c, prevC[j], "upper", b.upper_C);
         check(j, "centre", c, prevC[j], "lower", b.lower_C);
-        if (b.lower_C !== null && touching[j].length) {
-          if (t > 0) {
-            const x = contactPoint(j, st, t - prevT);
-            check(j, "next to a pack", x, prevX[j], "lower", b.lower_C);
-            prevX[j] = x;
-          } else prevX[j] = patch[j];
+        if (b.lower_C !== null && columns !== null && t > 0) {
+          for (const { k, col } of columns[j]) {
+            const tc = col.advance(t, st.bodySurface_C[k], c, b.lower_C);
+            if (tc !== null && (holdTime === null || tc < holdTime)) {
+              holdTime = tc;
+              failsFirst = { product: inp.products[j].product.name, line: j, point: "next to a pack", limit: "lower", limit_C: b.lower_C };
+            }
+          }
         }
         prevC[j] = c;
         prevS[j] = s;

@@ -177,3 +177,37 @@ describe("hold planner: the box model's time stepping on a user's plan", () => {
     expect(worst).toBeGreaterThan(0);
   });
 });
+
+describe("hold planner: the face next to a pack, on the page's default plan", () => {
+  // The hold page's defaults: one roast chicken half tray packed at 2 °C, the thick catering box, gel packs
+  // as conditioned in the library, placed around the load and touching it, the first demo route.
+  const gel = K("Gel pack, 600");
+  const pagePlan = (packs: number, salad: boolean): HoldInput => ({
+    products: [{ product: P("Roast chicken"), count: 1, start_C: 2 }, ...(salad ? [{ product: P("Mixed salad"), count: 1, start_C: 3 }] : [])],
+    shipper: S("Quillfield thick"),
+    materials: D.materials,
+    packs: [{ pack: gel, count: packs, conditioning_C: gel.conditioning_C, placement: "around" as const, contactWith: null, contact_W_m2K: 50 }],
+    route: D.routes[0],
+    ruleSet: D.rulesets.find((r) => r.isDefault)!,
+    boxStart_C: null,
+  });
+  it("the number of packs decides whether the chicken holds the route", () => {
+    const four = runHold(pagePlan(4, false));
+    const one = runHold(pagePlan(1, false));
+    expect(four.holdTime_s).toBeNull();
+    expect(one.holdTime_s).not.toBeNull();
+    expect(one.margin_s!).toBeLessThan(0);
+  });
+  it("salad leaves touching packs from the freezer: the face crosses its lower limit at a time that does not depend on the box model's grid", () => {
+    // Before the face had its own column the time was one node of the body's grid cooling over the first
+    // box step: 32, 17 and 10 s at refinements 1, 2 and 4. The contact solution for leaves this loose puts it
+    // within the first second or two (see test/reference/contact-column.ref.test.ts).
+    const parsed = holdInputSchema.parse(pagePlan(4, true));
+    const at = [1, 2, 4].map((res) => runHoldParsed(parsed, { resolution: res }));
+    for (const r of at) expect(r.failsFirst).toMatchObject({ product: P("Mixed salad").name, point: "next to a pack", limit: "lower" });
+    const t = at.map((r) => r.holdTime_s!);
+    expect(t[0]).toBeLessThan(5);
+    expect(Math.abs(t[0] - t[2]) / t[2]).toBeLessThan(0.1);
+    expect(Math.abs(t[1] - t[2]) / t[2]).toBeLessThan(0.05);
+  });
+});
