@@ -482,7 +482,7 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
   // the face to the centre (contact-column.ts), against the surface of each touching pack group, so the
   // time it crosses the lower limit does not depend on the box model's step or grid. Built at packing.
   const touching = inp.products.map((_, j) => L.groups.map((g, k) => ({ k, hc: inp.packs[g.line].contact_W_m2K, a: g.load_m2[j] })).filter((x) => x.a > 0));
-  let columns: { k: number; col: ContactColumn }[][] | null = null;
+  let columns: { k: number; col: ContactColumn; crossed: boolean }[][] | null = null;
   const breakpoints = [...P.segments.map((s) => s.end_s), ...P.openings.flatMap((op) => [op.start_s, op.end_s])];
   let holdTime: number | null = null;
   let failsFirst: HoldRun["failsFirst"] = null;
@@ -551,6 +551,7 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
             : touching[j].map((x) => ({
                 k: x.k,
                 col: contactColumn({ material: P.productMats[j].mat, depth_m: P.productMats[j].R, start_C: line.start_C, pack_C: st.bodySurface_C[x.k], contact_W_m2K: x.hc, refine: v.resolution ?? 1 }),
+                crossed: false,
               })),
         );
       for (let j = 0; j < inp.products.length; j++) {
@@ -562,8 +563,11 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
         check(j, "centre", c, prevC[j], "upper", b.upper_C);
         check(j, "centre", c, prevC[j], "lower", b.lower_C);
         if (b.lower_C !== null && columns !== null && t > 0) {
-          for (const { k, col } of columns[j]) {
-            const tc = col.advance(t, st.bodySurface_C[k], c, b.lower_C);
+          for (const x of columns[j]) {
+            // Only the first crossing counts: a column that has crossed is not stepped again.
+            if (x.crossed) continue;
+            const tc = x.col.advance(t, st.bodySurface_C[x.k], c, b.lower_C);
+            if (tc !== null) x.crossed = true;
             if (tc !== null && (holdTime === null || tc < holdTime)) {
               holdTime = tc;
               failsFirst = { product: inp.products[j].product.name, line: j, point: "next to a pack", limit: "lower", limit_C: b.lower_C };
