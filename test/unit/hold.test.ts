@@ -200,14 +200,15 @@ describe("hold planner: the face next to a pack, on the page's default plan", ()
   });
   it("salad leaves touching packs from the freezer: the face crosses its lower limit at a time that does not depend on the box model's grid", () => {
     // Before the face had its own column the time was one node of the body's grid cooling over the first
-    // box step: 32, 17 and 10 s at refinements 1, 2 and 4. The contact solution for leaves this loose puts it
-    // within the first second or two (see test/reference/contact-column.ref.test.ts).
+    // box step: 32, 17 and 10 s at refinements 1, 2 and 4. Now 0.79 s at all three. The contact solution for leaves this
+    // loose puts it within the first second or two (see test/reference/contact-column.ref.test.ts).
     const parsed = holdInputSchema.parse(pagePlan(4, true));
     const at = [1, 2, 4].map((res) => runHoldParsed(parsed, { resolution: res }));
     for (const r of at) expect(r.failsFirst).toMatchObject({ product: P("Mixed salad").name, point: "next to a pack", limit: "lower" });
     const t = at.map((r) => r.holdTime_s!);
     expect(t[0]).toBeLessThan(5);
-    expect(Math.abs(t[0] - t[2]) / t[2]).toBeLessThan(0.1);
-    expect(Math.abs(t[1] - t[2]) / t[2]).toBeLessThan(0.05);
+    // The column alone is within 1 % of the contact solution (the reference check); here, 2 % between grids.
+    expect(Math.abs(t[0] - t[2]) / t[2]).toBeLessThan(0.02);
+    expect(Math.abs(t[1] - t[2]) / t[2]).toBeLessThan(0.02);
   });
 });
