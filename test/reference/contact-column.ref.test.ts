@@ -26,6 +26,8 @@ const exactAt = (hc: number, t: number) => {
   return Ti + (Tinf - Ti) * (1 - g);
 };
 const exact = (t: number) => exactAt(h, t);
+/** A level every temperature is below: the column is stepped finely throughout (never carried across). */
+const TRACK = Infinity;
 const column = (refine = 1, hc = h) => contactColumn({ material: mat, depth_m: 0.3, start_C: Ti, pack_C: Tinf, contact_W_m2K: hc, refine });
 
 describe("the touching face's column vs the semi-infinite contact solution (Carslaw & Jaeger §2.7)", () => {
@@ -35,7 +37,7 @@ describe("the touching face's column vs the semi-infinite contact solution (Cars
     const worst: number[] = [];
     for (const step of [5, 15, 40, 60, 180, 300, 600, 1800, 3600, 600]) {
       t += step;
-      col.advance(t, Tinf, Ti, -1000);
+      col.advance(t, Tinf, Ti, TRACK);
       worst.push(Math.abs(col.surface_C - exact(t)) / (Ti - Tinf));
     }
     console.log(`contact column: worst face error ${(100 * Math.max(...worst)).toFixed(2)} % of the gap over ${t} s`);
@@ -73,12 +75,31 @@ describe("the touching face's column vs the semi-infinite contact solution (Cars
   it("a pack that warms as it goes: the same answer given in one box step or in sixty (linear in between)", () => {
     // The pack's surface warms from −18 to −10 °C over a minute; the centre stays at the start.
     const one = column();
-    one.advance(60, -10, Ti, -1000);
+    one.advance(60, -10, Ti, TRACK);
     const many = column();
-    for (let s = 1; s <= 60; s++) many.advance(s, Tinf + (8 * s) / 60, Ti, -1000);
+    for (let s = 1; s <= 60; s++) many.advance(s, Tinf + (8 * s) / 60, Ti, TRACK);
     expect(Math.abs(one.surface_C - many.surface_C)).toBeLessThan(0.05);
     // And it stays between the exact answers for a pack held at −18 and at −10 °C throughout.
     expect(one.surface_C).toBeGreaterThan(exact(60));
     expect(one.surface_C).toBeLessThan(Ti + ((-10 - Ti) / (Tinf - Ti)) * (exact(60) - Ti));
+  });
+
+  it("carried across while nothing can reach the level (maximum principle), it still finds a later crossing within 1 %", () => {
+    // A pack at +1 °C for 2 h (no crossing of −0.2 °C possible), then cooling steadily to −18 °C over the
+    // next 2 h, as packs and load do on a route in freezing air; the reference is stepped finely throughout, ×4 refined.
+    const pack = (t: number) => (t <= 7200 ? 1 : 1 - (19 * Math.min(1, (t - 7200) / 7200)));
+    const crossing = (level: number, refine: number) => {
+      const col = contactColumn({ material: mat, depth_m: 0.3, start_C: Ti, pack_C: 1, contact_W_m2K: h, refine });
+      let found: number | null = null;
+      for (let t = 60; found === null && t <= 4 * 3600; t += 60) {
+        const r = col.advance(t, pack(t), Ti, t <= 7200 ? level : -0.2);
+        if (t > 7200) found = r;
+      }
+      return found!;
+    };
+    const carried = crossing(-0.2, 1);
+    const tracked = crossing(TRACK, 4);
+    console.log(`contact column, pack cooling from +1 °C after 2 h: crossing carried across ${carried.toFixed(1)} s, tracked ×4 ${tracked.toFixed(1)} s`);
+    expect(Math.abs(carried - tracked) / (tracked - 7200)).toBeLessThan(0.01);
   });
 });
