@@ -764,6 +764,11 @@ export function runHoldParsed(inp: HoldParsed, opts: { resolution?: number; erro
   const extended = route * (1 + inp.extendFraction);
   const warnings = [...P.warnings];
   if (hold !== null && hold === 0) warnings.push(`${central.failsFirst?.product} is already outside its band when packed`);
+  const ff = central.failsFirst;
+  if (ff?.point === "next to a pack" && hold !== null && hold <= P.routeLength_s)
+    warnings.push(
+      `${ff.product}: its face against the packs is estimated to fall below ${ff.limit_C.toFixed(1)} °C long before the rest of it. To hold it without freezing that face, keep it apart from the packs (set the pack line's "Touching" to nothing or to another product, with card or an empty tray between) or condition the packs warmer`,
+    );
   const hOuter = P.segments.map((s) => inp.overrides.outerH_W_m2K ?? boxOuterCoefficient(P.outer, s.seg.airTemp_C, s.seg.airSpeed_m_s, P.finish.emissivity, -3));
   const ua = steadyUA(P.wallLayers, P.lidLayers, P.inner, hOuter[0], P.innerH, P.kScaleForUA, P.edgeG);
   const assumptions = [...P.assumptions];

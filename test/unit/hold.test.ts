@@ -205,6 +205,7 @@ describe("hold planner: the face next to a pack, on the page's default plan", ()
     const parsed = holdInputSchema.parse(pagePlan(4, true));
     const at = [1, 2, 4].map((res) => runHoldParsed(parsed, { resolution: res }));
     for (const r of at) expect(r.failsFirst).toMatchObject({ product: P("Mixed salad").name, point: "next to a pack", limit: "lower" });
+    expect(at[0].warnings.join(" ")).toMatch(/face against the packs .* keep it apart from the packs/);
     const t = at.map((r) => r.holdTime_s!);
     expect(t[0]).toBeLessThan(5);
     // The column alone is within 1 % of the contact solution (the reference check); here, 2 % between grids.
