@@ -131,10 +131,9 @@ export interface NetworkState {
   zone_C: number[];
   /** Heat in by path so far, J (cumulative). */
   gains: Gains;
-  /** For each body: centre (node 0), surface (last node) and the node under the surface, and the mean specific enthalpy. */
+  /** For each body: centre (node 0), surface (last node) and the mean specific enthalpy. */
   bodyCenter_C: Float64Array;
   bodySurface_C: Float64Array;
-  bodySub_C: Float64Array;
   bodyMeanH_J_kg: Float64Array;
 }
 
@@ -531,7 +530,6 @@ function buildNetwork(spec: NetworkSpec): Net {
     gains,
     bodyCenter_C: new Float64Array(nB),
     bodySurface_C: new Float64Array(nB),
-    bodySub_C: new Float64Array(nB),
     bodyMeanH_J_kg: new Float64Array(nB),
   };
   return {
@@ -606,7 +604,6 @@ function fillState(S: Net): void {
     const n = ch.n;
     st.bodyCenter_C[j] = ch.T[0];
     st.bodySurface_C[j] = ch.T[n - 1];
-    st.bodySub_C[j] = ch.T[n > 1 ? n - 2 : 0];
     let hm = 0;
     let m = 0;
     for (let i = 0; i < n; i++) {
