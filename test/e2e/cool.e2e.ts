@@ -1,7 +1,7 @@
 import { describe, it } from "node:test";
 import assert from "node:assert/strict";
-import { readFileSync } from "node:fs";
 import { browserSuite } from "./harness";
+import { downloadCurves } from "./planner-checks";
 
 const suite = browserSuite();
 
@@ -51,9 +51,7 @@ describe("cooling planner in the browser", () => {
     await fullAnswer(page);
 
     // The CSV has the slowest point, top and base in the user's units.
-    const download = page.waitForEvent("download");
-    await page.getByRole("button", { name: "Download curves (CSV)" }).click();
-    const csv = readFileSync((await (await download).path())!, "utf8");
+    const csv = await downloadCurves(page);
     assert.match(csv.split("\n")[0], /^t_s,slowest_C,top_C,base_C/);
 
     // Printed: the cooling record with its blanks and the sign-off; the form is left off.

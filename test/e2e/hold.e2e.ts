@@ -1,12 +1,9 @@
 import { describe, it } from "node:test";
 import assert from "node:assert/strict";
-import { readFileSync } from "node:fs";
 import { browserSuite } from "./harness";
-import { installLatencyProbes, measureLatency, setUnits } from "./planner-checks";
+import { downloadCurves, installLatencyProbes, measureLatency, settled, setUnits } from "./planner-checks";
 
 const suite = browserSuite();
-/** The answer on the page is for the inputs now in the form. */
-const settled = (page: typeof suite.page) => page.waitForFunction(() => document.querySelector(".plan-view")?.getAttribute("aria-busy") === "false");
 
 describe("hold planner in the browser", () => {
   it("builds a plan from the seeded templates, shows the hold time and chart, saves, reopens and downloads the CSV", async () => {
@@ -36,10 +33,7 @@ describe("hold planner in the browser", () => {
     // The salad leaves touch gel packs from the freezer: the face next to a pack is the first to leave its band.
     assert.match(await page.getByTestId("hold-fails-first").innerText(), /Mixed salad leaves, tub, next to a pack/);
 
-    const download = page.waitForEvent("download");
-    await page.getByRole("button", { name: "Download curves (CSV)" }).click();
-    const file = await (await download).path();
-    const csv = readFileSync(file!, "utf8");
+    const csv = await downloadCurves(page);
     assert.match(csv.split(/\r?\n/)[0], /^t_s,inside_air_C,/);
     assert.ok(csv.split(/\r?\n/).length > 20);
 
@@ -65,9 +59,7 @@ describe("hold planner in the browser", () => {
       await page.goto(suite.h.baseUrl + "/hold");
       await page.getByTestId("hold-time").waitFor();
       assert.equal(await page.getByLabel("Packed at").first().inputValue(), "35.6");
-      const download = page.waitForEvent("download");
-      await page.getByRole("button", { name: "Download curves (CSV)" }).click();
-      const head = readFileSync((await (await download).path())!, "utf8").split(/\r?\n/)[0];
+      const head = (await downloadCurves(page)).split(/\r?\n/)[0];
       assert.match(head, /^t_s,inside_air_F,inside_air_lower_F,inside_air_upper_F,/);
       assert.doesNotMatch(head, /_C(,|$)/);
       // A bad count: its message is tied to the field, not announced on every keystroke.

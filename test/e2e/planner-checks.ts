@@ -3,6 +3,7 @@
  * in °F, and the latency figures of a planner computed in the page's worker (printed, never asserted:
  * a test never asserts on time; `npm run bench` measures speed).
  */
+import { readFileSync } from "node:fs";
 import type { Locator, Page } from "playwright-core";
 
 export interface Timing {
@@ -121,3 +122,21 @@ export const planIdOf = (url: string) => {
   if (!m) throw new Error(`not a plan page: ${url}`);
   return m[1];
 };
+
+/**
+ * Waits until the planner's result on the page answers the present inputs in full: not marked as being
+ * updated and no quicker first answer still waiting for the full one.
+ */
+export const settled = (page: Page) => page.waitForFunction(() => document.querySelector(".plan-view")?.getAttribute("aria-busy") === "false", undefined, { timeout: 90_000 });
+
+/**
+ * Downloads the planner's curves once its result is current (a click while the result is being replaced can
+ * land on a button that is about to be swapped) and returns the CSV's text.
+ */
+export async function downloadCurves(page: Page, name = "Download curves (CSV)"): Promise<string> {
+  await settled(page);
+  const download = page.waitForEvent("download");
+  await page.getByRole("button", { name }).click();
+  const file = await (await download).path();
+  return readFileSync(file, "utf8");
+}

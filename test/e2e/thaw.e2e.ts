@@ -1,8 +1,7 @@
 import { describe, it } from "node:test";
 import assert from "node:assert/strict";
-import { readFileSync } from "node:fs";
 import { browserSuite } from "./harness";
-import { installLatencyProbes, mainText, measureLatency, planIdOf, setUnits } from "./planner-checks";
+import { downloadCurves, installLatencyProbes, mainText, measureLatency, planIdOf, settled, setUnits } from "./planner-checks";
 
 const suite = browserSuite();
 
@@ -85,14 +84,14 @@ describe("thaw planner in the browser", () => {
       await page.getByTestId("thaw-compare").waitFor();
       assert.equal(await page.getByLabel("Starting temperature").inputValue(), "-0.4");
       await page.getByLabel("Method", { exact: true }).selectOption("tray");
+      await page.waitForFunction(() => /on a tray/i.test(document.querySelector('[data-testid="thaw-headline"]')?.textContent ?? ""));
+      await settled(page);
       await page.getByTestId("thaw-compare").waitFor();
       const text = await mainText(page);
       assert.doesNotMatch(text, /°C/);
       assert.match(text, /°F/);
       assert.doesNotMatch(text, /\d\s?mm\b/);
-      const download = page.waitForEvent("download");
-      await page.getByRole("button", { name: "Download curves (CSV)" }).click();
-      const csv = readFileSync((await (await download).path())!, "utf8");
+      const csv = await downloadCurves(page);
       assert.match(csv.split(/\r?\n/)[0], /^t_s,center_F,surface_F$/);
       assert.ok(csv.split(/\r?\n/).length > 20);
       // A bad value: the message beside the field, in °F, tied to it; one polite summary.

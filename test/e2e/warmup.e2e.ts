@@ -1,13 +1,10 @@
 import { describe, it } from "node:test";
 import assert from "node:assert/strict";
-import { readFileSync } from "node:fs";
 import { browserSuite } from "./harness";
-import { installLatencyProbes, mainText, measureLatency, planIdOf, setUnits } from "./planner-checks";
+import { downloadCurves, installLatencyProbes, mainText, measureLatency, planIdOf, settled, setUnits } from "./planner-checks";
 
 const suite = browserSuite();
 
-/** Waits until the answer on screen is for the inputs as they are now (the view is not marked busy). */
-const settled = (page: typeof suite.page) => page.waitForFunction(() => document.querySelector(".plan-view")?.getAttribute("aria-busy") === "false");
 
 describe("warm-up / cool-down check in the browser", () => {
   it("shows the curve and the time to the limit, updates when a value changes, saves a plan and reopens it", async () => {
@@ -68,9 +65,7 @@ describe("warm-up / cool-down check in the browser", () => {
       assert.doesNotMatch(text, /°C/);
       assert.match(text, /°F/);
       assert.doesNotMatch(text, /chilledMax|hotHoldMin|frozenMax/);
-      const download = page.waitForEvent("download");
-      await page.getByRole("button", { name: "Download curves (CSV)" }).click();
-      const csv = readFileSync((await (await download).path())!, "utf8");
+      const csv = await downloadCurves(page);
       assert.match(csv.split(/\r?\n/)[0], /^t_s,center_F,surface_F,mid_face_F,mean_F$/);
       await page.getByLabel("Starting temperature").fill("-500");
       await page.locator("#start_C-error").getByText(/−459\.7 °F/).waitFor();
