@@ -11,5 +11,6 @@ export function downloadCsv(filename: string, rows: Record<string, string | numb
   document.body.appendChild(a);
   a.click();
   a.remove();
-  setTimeout(() => URL.revokeObjectURL(url), 1000);
+  // Released a minute later: a browser that is slow to start the download still finds the file.
+  setTimeout(() => URL.revokeObjectURL(url), 60_000);
 }
