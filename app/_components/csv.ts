@@ -11,6 +11,5 @@ export function downloadCsv(filename: string, rows: Record<string, string | numb
   document.body.appendChild(a);
   a.click();
   a.remove();
-  // Released a minute later: a browser that is slow to start the download still finds the file.
-  setTimeout(() => URL.revokeObjectURL(url), 60_000);
+  setTimeout(() => URL.revokeObjectURL(url), 1000);
 }
