@@ -6,8 +6,12 @@ import { savePlanAction } from "@/app/plans/actions";
 import { downloadCsv } from "./csv";
 import { SavedNotice } from "./ResultParts";
 
-/** Save as a named plan (the server computes what it stores), download the curves as CSV, print the record. */
-export function PlanActions({ kind, input, csv, defaultName, csvName, csvLabel = "Download curves (CSV)" }: { kind: PlannerKind; input: unknown; csv: CsvRow[]; defaultName: string; csvName?: string; csvLabel?: string }) {
+/**
+ * Save as a named plan (the server computes what it stores), download the curves as CSV, print the record.
+ * `updating`: the result on screen is for inputs that have since changed; saving or downloading waits for
+ * the new one (it would store or give the old inputs' answer).
+ */
+export function PlanActions({ kind, input, csv, defaultName, csvName, csvLabel = "Download curves (CSV)", updating = false }: { kind: PlannerKind; input: unknown; csv: CsvRow[]; defaultName: string; csvName?: string; csvLabel?: string; updating?: boolean }) {
   const [name, setName] = useState("");
   const [saved, setSaved] = useState<number | null>(null);
   const [problem, setProblem] = useState<string | null>(null);
@@ -18,7 +22,7 @@ export function PlanActions({ kind, input, csv, defaultName, csvName, csvLabel =
       <input id="plan-name" value={name} placeholder={defaultName} onChange={(ev) => setName(ev.target.value)} aria-describedby={problem ? "plan-save-problem" : undefined} />
       <button
         type="button"
-        disabled={saving}
+        disabled={saving || updating}
         onClick={async () => {
           setSaving(true);
           setProblem(null);
@@ -35,7 +39,7 @@ export function PlanActions({ kind, input, csv, defaultName, csvName, csvLabel =
       >
         {saving ? "Saving…" : "Save plan"}
       </button>
-      <button type="button" className="secondary" disabled={!csv.length} onClick={() => downloadCsv(csvName ?? `holdline-${kind}.csv`, csv)}>
+      <button type="button" className="secondary" disabled={!csv.length || updating} onClick={() => downloadCsv(csvName ?? `holdline-${kind}.csv`, csv)}>
         {csvLabel}
       </button>
       <button type="button" className="secondary" onClick={() => window.print()}>

@@ -282,7 +282,7 @@ export function CoolPlanner(props: CoolPlannerProps) {
 
       <section className="planner-results" aria-live="polite" aria-atomic="false" data-testid="cool-results">
         <PlannerOutcome state={outcome} testId="cool-errors" />
-        {outcome.status === "ready" ? <PlanActions kind="cool" input={outcome.parsed} csv={outcome.csv} defaultName={coolPlanner.defaultName(outcome.parsed as CoolParsed)} csvName="holdline-cool-curves.csv" /> : null}
+        {outcome.status === "ready" ? <PlanActions kind="cool" updating={outcome.stale} input={outcome.parsed} csv={outcome.csv} defaultName={coolPlanner.defaultName(outcome.parsed as CoolParsed)} csvName="holdline-cool-curves.csv" /> : null}
       </section>
     </div>
   );

@@ -173,7 +173,7 @@ export function HoldPlanner(props: HoldPlannerProps) {
 
       <section className="planner-results" aria-live="polite" aria-atomic="false" data-testid="hold-results">
         <PlannerOutcome state={outcome} testId="hold-errors" />
-        {outcome.status === "ready" ? <PlanActions kind="hold" input={outcome.parsed} csv={outcome.csv} defaultName={holdPlanner.defaultName(outcome.parsed as HoldParsed)} csvName="holdline-hold-curves.csv" /> : null}
+        {outcome.status === "ready" ? <PlanActions kind="hold" updating={outcome.stale} input={outcome.parsed} csv={outcome.csv} defaultName={holdPlanner.defaultName(outcome.parsed as HoldParsed)} csvName="holdline-hold-curves.csv" /> : null}
       </section>
     </div>
   );

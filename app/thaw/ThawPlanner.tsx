@@ -155,7 +155,7 @@ export function ThawPlanner(props: ThawPlannerProps) {
 
       <section className="planner-results" aria-live="polite" aria-atomic="false" data-testid="thaw-results">
         <PlannerOutcome state={outcome} testId="thaw-errors" />
-        {outcome.status === "ready" ? <PlanActions kind="thaw" input={outcome.parsed} csv={outcome.csv} defaultName={thawPlanner.defaultName(outcome.parsed as ThawParsed)} csvName="holdline-thaw-curves.csv" /> : null}
+        {outcome.status === "ready" ? <PlanActions kind="thaw" updating={outcome.stale} input={outcome.parsed} csv={outcome.csv} defaultName={thawPlanner.defaultName(outcome.parsed as ThawParsed)} csvName="holdline-thaw-curves.csv" /> : null}
       </section>
     </div>
   );

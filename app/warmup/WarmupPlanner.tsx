@@ -106,7 +106,7 @@ export function WarmupPlanner(props: WarmupPlannerProps) {
 
       <section className="planner-results" aria-live="polite" aria-atomic="false" data-testid="warmup-results">
         <PlannerOutcome state={outcome} testId="warmup-errors" />
-        {outcome.status === "ready" ? <PlanActions kind="warmup" input={outcome.parsed} csv={outcome.csv} defaultName={warmupPlanner.defaultName(outcome.parsed as WarmupParsed)} csvName="holdline-warmup-curves.csv" /> : null}
+        {outcome.status === "ready" ? <PlanActions kind="warmup" updating={outcome.stale} input={outcome.parsed} csv={outcome.csv} defaultName={warmupPlanner.defaultName(outcome.parsed as WarmupParsed)} csvName="holdline-warmup-curves.csv" /> : null}
       </section>
     </div>
   );

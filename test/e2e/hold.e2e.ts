@@ -37,6 +37,25 @@ describe("hold planner in the browser", () => {
     assert.match(csv.split(/\r?\n/)[0], /^t_s,inside_air_C,/);
     assert.ok(csv.split(/\r?\n/).length > 20);
 
+    // While the result on screen is for inputs since changed, saving and downloading wait for the new one
+    // (they would store or give the old inputs' answer). Checked in the same task as the change, before any
+    // answer can arrive from the worker.
+    const countWas = await page.locator("#pc-0").inputValue();
+    const during = await page.evaluate((was) => {
+      const count = document.querySelector<HTMLInputElement>("#pc-0")!;
+      Object.getOwnPropertyDescriptor(HTMLInputElement.prototype, "value")!.set!.call(count, String(Number(was) + 1));
+      count.dispatchEvent(new Event("input", { bubbles: true }));
+      const disabled: Record<string, boolean> = {};
+      for (const b of document.querySelectorAll("button")) disabled[b.textContent ?? ""] = b.disabled;
+      return { busy: document.querySelector(".plan-view")?.getAttribute("aria-busy"), save: disabled["Save plan"], csv: disabled["Download curves (CSV)"] };
+    }, countWas);
+    assert.deepEqual(during, { busy: "true", save: true, csv: true });
+    await settled(page);
+    assert.equal(await page.getByRole("button", { name: "Save plan" }).isEnabled(), true);
+    assert.equal(await page.getByRole("button", { name: "Download curves (CSV)" }).isEnabled(), true);
+    await page.locator("#pc-0").fill(countWas);
+    await settled(page);
+
     await page.getByLabel("Save as a plan").fill("Harbour Street lunch, thick box");
     await page.getByRole("button", { name: "Save plan" }).click();
     await page.getByRole("link", { name: "open the saved plan" }).click();

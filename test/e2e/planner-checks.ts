@@ -130,13 +130,12 @@ export const planIdOf = (url: string) => {
 export const settled = (page: Page) => page.waitForFunction(() => document.querySelector(".plan-view")?.getAttribute("aria-busy") === "false", undefined, { timeout: 90_000 });
 
 /**
- * Downloads the planner's curves once its result is current (a click while the result is being replaced can
- * land on a button that is about to be swapped) and returns the CSV's text.
+ * Downloads the planner's curves once its result is current and returns the CSV's text. The first, quicker
+ * answer carries no curves (its button is disabled), and a result being updated does not offer them either:
+ * a click before the full answer would find the button disabled or waiting.
  */
 export async function downloadCurves(page: Page, name = "Download curves (CSV)"): Promise<string> {
   await settled(page);
-  const download = page.waitForEvent("download");
-  await page.getByRole("button", { name }).click();
-  const file = await (await download).path();
-  return readFileSync(file, "utf8");
+  const [download] = await Promise.all([page.waitForEvent("download"), page.getByRole("button", { name }).click()]);
+  return readFileSync(await download.path(), "utf8");
 }
