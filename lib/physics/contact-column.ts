@@ -1,4 +1,5 @@
 import { evalMaterial, type EnthalpyMaterial } from "./solver1d";
+import { bdf2Alpha0, bdf2Alpha2 } from "./numerics";
 
 /**
  * The face of a product where a coolant pack touches it, followed on its own fine grid.
@@ -118,9 +119,10 @@ export function contactColumn(spec: {
    * first step and whenever the step grows by more than 2× (BDF2's zero-stability bound is 1 + √2).
    */
   const step = (dt: number, Tp: number, Tc: number) => {
-    const w = hPrev > 0 ? dt / hPrev : Infinity;
-    const a0 = w <= 2 ? (1 + 2 * w) / (1 + w) : 1;
-    const star = w <= 2 ? (w * w) / (1 + w) / a0 : 0;
+    const ratio = hPrev > 0 ? dt / hPrev : Infinity;
+    const w = ratio <= 2 ? ratio : 0;
+    const a0 = bdf2Alpha0(w);
+    const star = bdf2Alpha2(w) / a0;
     const dtE = dt / a0;
     // H, its slope and k of every node from one fused look-up (the material's table where it has one).
     evalMaterial(m, T, 0, n, Hn, cn, kn, 1);

@@ -138,3 +138,18 @@ export function firstTimeReaching(f: (t: number) => number, level: number, direc
   if (!(g1 >= 0)) return null;
   return brent(g, 0, tMax, { fa: g0, fb: g1, xtol_abs: 1e-3, maxEvaluations: 200 }).x;
 }
+
+/**
+ * Variable-step BDF2, α0 E¹ + α1 E⁰ + α2 E⁻¹ = h·F(E¹) with ω = h/h_prev, which the solvers take as a
+ * backward-Euler step of length h/α0 from E* = E⁰ + (α2/α0)(E⁰ − E⁻¹): α0 = (1 + 2ω)/(1 + ω) and
+ * α2 = ω²/(1 + ω); ω = 0 (no history) gives backward Euler, α0 = 1 and α2 = 0. Zero-stable for
+ * ω < 1 + √2 [hairerWanner1996].
+ */
+export function bdf2Alpha0(w: number): number {
+  return (1 + 2 * w) / (1 + w);
+}
+
+/** α2 of variable-step BDF2 at the step ratio ω (see bdf2Alpha0). */
+export function bdf2Alpha2(w: number): number {
+  return (w * w) / (1 + w);
+}

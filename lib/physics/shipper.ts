@@ -29,6 +29,7 @@
  */
 import { SIGMA_W_M2K4, itemSurfaceCoefficient, CP_AIR_J_KGK, P_ATM_PA, R_AIR_J_KGK } from "./surfaces";
 import { KELVIN_OFFSET, PhysicsInputError } from "./validation";
+import { bdf2Alpha0, bdf2Alpha2 } from "./numerics";
 import { evalMaterial, evalMaterialH, type EnthalpyMaterial } from "./solver1d";
 import { evalTable, tableCell, tableT, type PropertyTable } from "./table";
 
@@ -753,8 +754,8 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
     // step of length h/α0 from E* = E⁰ + (α2/α0)(E⁰ − E⁻¹): the same Newton system, energy still exact.
     const bdf = hist >= 1;
     const w = bdf ? h / hPrev1 : 0;
-    const a0 = bdf ? (1 + 2 * w) / (1 + w) : 1;
-    const a2 = bdf ? (w * w) / (1 + w) : 0;
+    const a0 = bdf2Alpha0(w);
+    const a2 = bdf2Alpha2(w);
     const hE = h / a0;
     const star = a2 / a0;
     // Conditions hold piecewise-constant over the step: take them at its middle.

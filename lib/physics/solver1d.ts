@@ -28,6 +28,7 @@ import { SIGMA_W_M2K4 } from "./surfaces";
 import { KELVIN_OFFSET, PhysicsInputError, requirePositive, requireTemperature } from "./validation";
 import type { Shape1D } from "./conduction";
 import { evalTable, evalTableH, type PropertyTable } from "./table";
+import { bdf2Alpha0, bdf2Alpha2 } from "./numerics";
 
 export interface EnthalpyMaterial {
   rho_kg_m3: number;
@@ -319,8 +320,8 @@ export function solve1D(inp: Solver1DInput): Solver1DResult {
     // step of length h/α0 from E* = E⁰ + (α2/α0)(E⁰ − E⁻¹); the first step is backward Euler.
     const bdf = hist >= 1;
     const w = bdf ? dtStep / hPrev1 : 0;
-    const a0 = bdf ? (1 + 2 * w) / (1 + w) : 1;
-    const a2 = bdf ? (w * w) / (1 + w) : 0;
+    const a0 = bdf2Alpha0(w);
+    const a2 = bdf2Alpha2(w);
     const hE = dtStep / a0;
     const star = a2 / a0;
     Hs.set(Hcur);
