@@ -3,6 +3,7 @@ import fc from "fast-check";
 import { foodThermal, estimateInitialFreezing_C, type Composition } from "../../lib/physics/properties";
 import { seriesTheta, seriesMeanTheta, lumpedTheta, type Shape1D } from "../../lib/physics/conduction";
 import { solve1D } from "../../lib/physics/solver1d";
+import { nodePositions } from "../../lib/physics/shipper";
 import { itemSurfaceCoefficient, naturalVerticalPlate, naturalHorizontalPlate, naturalSphere, forcedCylinder, forcedSphere, forcedFlatPlate } from "../../lib/physics/surfaces";
 import { plankTime } from "../../lib/physics/phase-change";
 import { runWarmup } from "../../lib/physics/warmup";
@@ -317,5 +318,27 @@ describe("hollow items", () => {
     const rs = DEMO_SCENARIO.rulesets[0];
     const t = (w: number) => runWarmup({ product: { ...turkey, wallThickness_m: w, mass_kg: 1054 * (4 / 3) * Math.PI * ((turkey.dimA_m / 2) ** 3 - (turkey.dimA_m / 2 - w) ** 3) }, start_C: -18, surroundings: { medium: "water", T_C: 15, speed_m_s: 0 }, ruleSet: rs, limit: "chilledMax", horizon_s: 48 * 3600 }).timeToLimit_s.center!;
     expect(t(0.06)).toBeGreaterThan(t(0.04));
+  });
+});
+
+describe("graded body grid (nodePositions)", () => {
+  it("runs from the centre to the surface, rising, with the surface interval the given share of the uniform one", () => {
+    fc.assert(
+      fc.property(fc.double({ min: 1e-3, max: 0.5, noNaN: true }), fc.integer({ min: 3, max: 80 }), fc.double({ min: 0.05, max: 1, noNaN: true }), (R, n, ratio) => {
+        const r = nodePositions(R, n, ratio);
+        expect(r[0]).toBe(0);
+        expect(r[n - 1]).toBe(R);
+        for (let i = 1; i < n; i++) expect(r[i]).toBeGreaterThan(r[i - 1]);
+        const last = r[n - 1] - r[n - 2];
+        expect(last / (R / (n - 1))).toBeCloseTo(ratio, 6);
+        // Finer at the surface never makes an interval nearer the surface longer than one nearer the centre.
+        for (let i = 2; i < n; i++) expect(r[i] - r[i - 1]).toBeLessThanOrEqual(r[i - 1] - r[i - 2] + 1e-9 * R);
+      }),
+    );
+  });
+  it("is uniform at ratio 1 and for one or two nodes", () => {
+    expect(Array.from(nodePositions(0.04, 5, 1))).toEqual([0, 0.01, 0.02, 0.03, 0.04].map((x, i) => (i === 4 ? 0.04 : expect.closeTo(x, 15))));
+    expect(Array.from(nodePositions(0.04, 2, 0.2))).toEqual([0, 0.04]);
+    expect(Array.from(nodePositions(0.04, 1, 0.2))).toEqual([0]);
   });
 });
