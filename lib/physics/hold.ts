@@ -399,8 +399,10 @@ export function zoneExchange_W_K(lower_C: number, upper_C: number, area_m2: numb
  * √(α·t) ≈ 2 mm deep (α ≈ 1.4·10⁻⁷ m²/s, water-rich food [incropera6]), less than a uniform grid's
  * surface cell (a sixteenth of the half size: 3 mm for a 5 cm tub). Measured on the demo's lunch route
  * (salad tub, thin cooler): the surface peak during the second drop was 0.30 K below a 144-node run with
- * uniform nodes and 0.04 K with these, and the hold time 17 % long against 0.03 %; on the 48 h frozen
- * bench route, an overnight turkey and frozen cod the band moved by under 0.05 % (test/reference/hold.ref.test.ts).
+ * uniform nodes and 0.04 K with these; the band's central hold was 16.9 % longer than the run refined 4×,
+ * and 16.8 % with only the first-step error check of shipper.ts (RESTART_FRACTION), 0.06 % with both. On
+ * the 48 h frozen bench plan, an overnight turkey and frozen cod the band moved by under 0.06 %
+ * (test/reference/hold.ref.test.ts).
  */
 const PRODUCT_SURFACE_RATIO = 0.2;
 

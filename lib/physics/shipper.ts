@@ -174,9 +174,15 @@ const LTE_PER_TARGET = 0.4;
  */
 const NEWTON_TOL_K = 1e-5;
 /**
- * First step of a run and after every change of conditions, as a share of the largest step (60 s at the
- * hold planner's 1 h; refined runs shrink it with their largest step): backward Euler, before any error
- * estimate exists. The same at every restart rather than carried over from before the change, so that the
+ * First step tried at the start of a run and after every change of conditions, as a share of the largest
+ * step (60 s at the hold planner's 1 h; refined runs shrink it with their largest step): backward Euler,
+ * taken again shorter when its own error estimate (eulerStepError) is over 4× the aim. That check matters
+ * where something moves fast within the first minute: a chilled load packed near its limit into a box at
+ * room temperature (a salad tub at 7.5 °C against 8 °C in the thin cooler at 24 °C: its surface leaves the
+ * band within seconds, and with the 60 s step always kept the model said after 38 min, 2,299 s against 6 s
+ * refined 8×; now 7 s against 1 s), or a lid opening of 20–45 s on a chilled load (with the graded product
+ * grid of hold.ts; test/reference/hold.ref.test.ts). It costs 129 → 142 steps on the 48 h bench plan.
+ * The same at every restart rather than carried over from before the change, so that the
  * answer moves smoothly with the inputs (calibration fits it by finite differences): a carried-over step
  * (up to minutes) put up to 0.3 K of first-order error into the inside air right after a change, and a
  * 0.1 % change of an input moved the air by 0.22 K (now 0.006 K). Measured on the reference checks: at
@@ -185,16 +191,6 @@ const NEWTON_TOL_K = 1e-5;
  * check fails.
  */
 const RESTART_FRACTION = 1 / 60;
-/**
- * An interval between two events shorter than this many restart steps (a lid opening of 20–45 s against
- * the 60 s restart step) starts with this share of its length instead, so that the error control acts
- * inside it. Measured on the demo's lunch route (openings of 20, 30 and 45 s, a salad tub in the thin
- * cooler): with the whole opening in one backward-Euler step, the tub's surface peak during the second
- * drop's opening was 0.3 K low and its hold time was 17 % longer than with 4× the nodes and 1/4 of the steps;
- * with 4, within 0.05 % (with the graded product grid, PRODUCT_SURFACE_RATIO in hold.ts), for 16 % more
- * steps on that route and 2 % on the 48 h bench route (test/reference/hold.ref.test.ts).
- */
-const RESTART_MIN_STEPS = 4;
 
 interface Chain {
   n: number;
@@ -235,6 +231,8 @@ interface Chain {
   linkDiag: number; // sum of the last node's contact conductances, W/K
 
   k: Float64Array; // node conductivities of this iteration (enthalpy chains)
+  /** Rate of the stored quantity at the step's start (per kg, or per J/K), kept on a restart's first step for its error estimate. */
+  rate0: Float64Array;
 }
 
 function newChain(n: number, zones: number): Chain {
@@ -268,6 +266,7 @@ function newChain(n: number, zones: number): Chain {
     extra: 0,
     linkDiag: 0,
     k: f(),
+    rate0: f(),
   };
 }
 
@@ -610,6 +609,7 @@ function buildNetwork(spec: NetworkSpec): Net {
     sumU,
     Tair,
     TairStar: new Float64Array(nZ),
+    rate0Air: new Float64Array(nZ),
     bodyStart,
     nBodies: nB,
     halfOuter: Float64Array.from(faceParts.map((f) => f.halfOuter)),
@@ -794,7 +794,7 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
     if (nextBreak !== lastBreak) {
       hist = 0;
       lastBreak = nextBreak;
-      dt = Math.min(restartStep, (limit - t) / RESTART_MIN_STEPS);
+      dt = restartStep;
     }
     const h = Math.min(dt, limit - t);
     const tNew = t + h;
@@ -821,7 +821,7 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
     const invH = 1 / hE;
     for (let ci = 0; ci < S.nFaces; ci++) factorLinearChain(S.chains[ci], invH, S.outerG[ci], nZ);
     fixedSystem(S, invH, Gedge, Gopen, Gzz);
-    const it = newtonStep(S, invH, Gedge, Gopen, Gzz, amb.air_C);
+    const it = newtonStep(S, invH, Gedge, Gopen, Gzz, amb.air_C, !bdf);
     if (it === 0) {
       failures++;
       undoStep(S);
@@ -834,7 +834,8 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
     // quadratic extrapolation of the last three states (E − E_pred ≈ (11/2)·LTE at constant steps), in kelvin
     // of a 3 kJ/(kg·K) body. With one (the step after a restart): the distance to the linear extrapolation
     // of the last two, ≈ h(h + h₁)/2·E'', of which the share h/(h + h₁) is a first-order local error
-    // (a bound for this step's, which is second order). Right after a restart: the largest enthalpy change of any node.
+    // (a bound for this step's, which is second order). Right after a restart, a backward-Euler step: its own
+    // local error from the rates at its start (eulerStepError).
     let grow: number;
     if (hist >= 2) {
       const h1 = hPrev1;
@@ -848,14 +849,15 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
       const err = (h / (h + hPrev1)) * stepDistance(S, 1 + h / hPrev1, -h / hPrev1, 0);
       grow = err > 0 ? 0.9 * Math.sqrt(tolK / err) : 2;
     } else {
-      const change = stepDistance(S, 1, 0, 0);
-      grow = change > 0 ? target / change : 2;
+      const err = eulerStepError(S, h);
+      grow = err > 0 ? 0.9 * Math.sqrt(tolK / err) : 2;
     }
     // A step whose error estimate would halve the next step (about 6× the aim for BDF2) is taken again,
     // shorter: a step that runs through a sudden change (a pack's last ice going) must not be kept just
-    // because Newton converged on it. The first step after a restart (sized by the change, not an error
-    // estimate) and steps of 1 s or less are kept (the guard against endless retries).
-    if (hist >= 1 && grow < 0.5 && h > 1) {
+    // because Newton converged on it; nor a restart's first step that runs through a transient faster than
+    // it (a warm box just packed with a load near its limit). Steps of 1 s or less are kept (the guard
+    // against endless retries).
+    if (grow < 0.5 && h > 1) {
       undoStep(S);
       dt = Math.max(1, h * Math.max(0.2, grow));
       rejected++;
@@ -903,6 +905,8 @@ interface NewtonSystem {
   sumU: Float64Array;
   Tair: Float64Array;
   TairStar: Float64Array;
+  /** The zones' rates at the step's start, K/s (a restart's first step). */
+  rate0Air: Float64Array;
 }
 
 /** The parts of the dense system that stay fixed over a step's Newton iterations, into A0. */
@@ -961,7 +965,7 @@ function fixedSystem(S: NewtonSystem, invH: number, Gedge: number, Gopen: number
  * from the temperatures in the chains and zones. Returns the number of iterations, or 0 if it did not
  * converge within 40.
  */
-function newtonStep(S: NewtonSystem, invH: number, Gedge: number, Gopen: number, Gzz: number, air_C: number): number {
+function newtonStep(S: NewtonSystem, invH: number, Gedge: number, Gopen: number, Gzz: number, air_C: number, keepRates: boolean): number {
   const { chains, nFaces, nZ, nK, keyRow, zoneRow, elim, linkA, linkB, linkG, A, A0, rhs, dAir, res, outerG, outerT, Cair, edgeShare, openShare, Tair, TairStar } = S;
   let lastStep = Infinity;
   for (let it = 0; it < 40; it++) {
@@ -997,6 +1001,7 @@ function newtonStep(S: NewtonSystem, invH: number, Gedge: number, Gopen: number,
       } else schurOntoZones(ch, A, rhs, nK, nZ, zoneRow, !wall);
     }
     for (let z = 0; z < nZ; z++) rhs[zoneRow[z]] -= res[z];
+    if (it === 0 && keepRates) keepStartRates(S, invH);
     solveSparse(elim, A, rhs, dAir);
     let maxStep = 0;
     for (let z = 0; z < nZ; z++) {
@@ -1017,6 +1022,45 @@ function newtonStep(S: NewtonSystem, invH: number, Gedge: number, Gopen: number,
     lastStep = maxStep;
   }
   return 0;
+}
+
+/**
+ * A backward-Euler step's first iteration starts at the step's start (no predictor), so its residual is
+ * minus the heat flowing into each node there: the rates F(E⁰), per kg (bodies) or per J/K (walls, zones).
+ */
+function keepStartRates(S: NewtonSystem, invH: number): void {
+  const { chains, nZ, res, Cair, Tair, TairStar, rate0Air } = S;
+  for (let ci = 0; ci < chains.length; ci++) {
+    const ch = chains[ci];
+    const q = ch.mat ? ch.Hn : ch.T;
+    const { R, mass, Hold, rate0 } = ch;
+    for (let i = 0; i < ch.n; i++) rate0[i] = invH * (q[i] - Hold[i]) - R[i] / mass[i];
+  }
+  for (let z = 0; z < nZ; z++) rate0Air[z] = invH * (Tair[z] - TairStar[z]) - res[z] / Cair[z];
+}
+
+/**
+ * The local error of a backward-Euler step of length h from E⁰ to E¹: about h²/2·E'' ≈ |E¹ − E⁰ − h·F(E⁰)|/2
+ * per node [hairerWanner1996], in kelvin as stepDistance weighs it (H over 3 kJ/(kg·K); zones × 0.2).
+ */
+function eulerStepError(S: Net, h: number): number {
+  let m = 0;
+  for (let ci = 0; ci < S.chains.length; ci++) {
+    const ch = S.chains[ci];
+    const now = ch.mat ? ch.Hn : ch.T;
+    const sc = ch.mat ? 1 / 3000 : 1;
+    const { Hs, rate0 } = ch;
+    for (let i = 0; i < ch.n; i++) {
+      const d = 0.5 * sc * Math.abs(now[i] - Hs[i] - h * rate0[i]);
+      if (d > m) m = d;
+    }
+  }
+  const { Tair, TairOld, rate0Air } = S;
+  for (let z = 0; z < S.nZ; z++) {
+    const d = 0.1 * Math.abs(Tair[z] - TairOld[z] - h * rate0Air[z]);
+    if (d > m) m = d;
+  }
+  return m;
 }
 
 /** Largest distance of a chain's stored quantity from its extrapolation L0·E⁰ + L1·E⁻¹ + L2·E⁻², in kelvin (H over 3 kJ/(kg·K)). */

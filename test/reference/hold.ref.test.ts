@@ -184,6 +184,28 @@ describe("step error target and largest step, chosen by measured accuracy (the s
     expect(a.energyBalanceError!).toBeLessThan(1e-12);
   }, 60_000);
 
+  // Packed near its limit into a box still at room temperature: the inside air (24 °C, the first segment's)
+  // warms the tub's surface past 8 °C within seconds, before the packs and the load cool the air. The first
+  // 60 s step used to be kept whatever it missed: 2,299 s at the defaults against 6 s refined 8×.
+  it("a salad tub at 7.5 °C put into the thin cooler at 24 °C: its surface leaves the band within the first minute at the defaults too", () => {
+    const inp = holdInputSchema.parse({
+      products: [{ product: P("Mixed salad"), count: 2, start_C: 7.5 }],
+      shipper: S("Quillfield thin"),
+      materials: D.materials,
+      packs: [{ pack: K("Gel"), count: 3, conditioning_C: -18, placement: "top", contactWith: "none" }],
+      route: D.routes.find((r) => r.name.startsWith("Summer"))!,
+      ruleSet: D.rulesets.find((x) => x.name.startsWith("England"))!,
+      uncertainty: noBand,
+      extendFraction: 0.5,
+    });
+    const a = runHoldParsed(inp);
+    const b = runHoldParsed(inp, { resolution: 8 });
+    console.log(`salad at 7.5 °C: surface above 8 °C after ${a.holdTime_s!.toFixed(1)} s at the defaults, ${b.holdTime_s!.toFixed(1)} s refined 8×`);
+    for (const r of [a, b]) expect(r.failsFirst).toMatchObject({ point: "surface", limit: "upper" });
+    expect(a.holdTime_s!).toBeLessThan(60);
+    expect(b.holdTime_s!).toBeLessThan(60);
+  }, 60_000);
+
   // Short events and the product's surface: the demo's own lunch route has lid openings of 20, 30 and 45 s,
   // each a little warm air on a chilled load. A salad tub in the thin cooler leaves its band at its surface
   // in one of them. Before, the whole opening was one backward-Euler step and the tub's surface had a
