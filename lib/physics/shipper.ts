@@ -176,7 +176,8 @@ const NEWTON_TOL_K = 1e-5;
 /**
  * First step tried at the start of a run and after every change of conditions, as a share of the largest
  * step (60 s at the hold planner's 1 h; refined runs shrink it with their largest step): backward Euler,
- * taken again shorter when its own error estimate (eulerStepError) is over 4× the aim. That check matters
+ * taken again shorter when its own error estimate (eulerStepError) is over about 3× the aim (the estimate
+ * would halve the next step). That check matters
  * where something moves fast within the first minute: a chilled load packed near its limit into a box at
  * room temperature (a salad tub at 7.5 °C against 8 °C in the thin cooler at 24 °C: its surface leaves the
  * band within seconds, and with the 60 s step always kept the model said after 38 min, 2,299 s against 6 s
@@ -790,7 +791,7 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
     while (nextBreak < breaks.length && breaks[nextBreak] <= t + 1e-9) nextBreak++;
     const limit = nextBreak < breaks.length ? breaks[nextBreak] : spec.tEnd_s;
     // Conditions change at a break: start again from one backward-Euler step (events stay exact).
-    // Its first step has no error estimate: it is the run's first step again (RESTART_FRACTION).
+    // Its first step is tried at the run's first step again (RESTART_FRACTION), then judged by its own error.
     if (nextBreak !== lastBreak) {
       hist = 0;
       lastBreak = nextBreak;
