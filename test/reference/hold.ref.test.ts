@@ -184,12 +184,10 @@ describe("step error target and largest step, chosen by measured accuracy (the s
     expect(a.energyBalanceError!).toBeLessThan(1e-12);
   }, 60_000);
 
-  // Packed near its limit into a box still at room temperature: the inside air (24 °C, the first segment's)
-  // warms the tub's surface past 8 °C within seconds, before the packs and the load cool the air. The first
-  // 60 s step used to be kept whatever it missed: 2,299 s at the defaults against 6 s refined 8×.
-  it("a salad tub at 7.5 °C put into the thin cooler at 24 °C: its surface leaves the band within the first minute at the defaults too", () => {
-    const inp = holdInputSchema.parse({
-      products: [{ product: P("Mixed salad"), count: 2, start_C: 7.5 }],
+  // The demo's summer lunch run in the thin cooler, three gel packs on top kept apart from the load, England's rules.
+  const saladInThinCooler = (products: HoldInput["products"]) =>
+    holdInputSchema.parse({
+      products,
       shipper: S("Quillfield thin"),
       materials: D.materials,
       packs: [{ pack: K("Gel"), count: 3, conditioning_C: -18, placement: "top", contactWith: "none" }],
@@ -198,6 +196,12 @@ describe("step error target and largest step, chosen by measured accuracy (the s
       uncertainty: noBand,
       extendFraction: 0.5,
     });
+
+  // Packed near its limit into a box still at room temperature: the inside air (24 °C, the first segment's)
+  // warms the tub's surface past 8 °C within seconds, before the packs and the load cool the air. The first
+  // 60 s step used to be kept whatever it missed: 2,299 s at the defaults against 6 s refined 8×.
+  it("a salad tub at 7.5 °C put into the thin cooler at 24 °C: its surface leaves the band within the first minute at the defaults too", () => {
+    const inp = saladInThinCooler([{ product: P("Mixed salad"), count: 2, start_C: 7.5 }]);
     const a = runHoldParsed(inp);
     const b = runHoldParsed(inp, { resolution: 8 });
     console.log(`salad at 7.5 °C: surface above 8 °C after ${a.holdTime_s!.toFixed(1)} s at the defaults, ${b.holdTime_s!.toFixed(1)} s refined 8×`);
@@ -215,19 +219,10 @@ describe("step error target and largest step, chosen by measured accuracy (the s
   // flips with any model change of that size (the band's corners each have such a start temperature), and
   // at 4.2 °C the peak the central run crosses is about 0.2 K over the limit.
   it("chilled lunch route with 20–45 s lid openings: the surface crosses 8 °C in the same opening, within 0.2 % of the 4×-refined run", () => {
-    const inp = holdInputSchema.parse({
-      products: [
-        { product: P("Roast chicken"), count: 1, start_C: 3 },
-        { product: P("Mixed salad"), count: 2, start_C: 4.2 },
-      ],
-      shipper: S("Quillfield thin"),
-      materials: D.materials,
-      packs: [{ pack: K("Gel"), count: 3, conditioning_C: -18, placement: "top", contactWith: "none" }],
-      route: D.routes.find((r) => r.name.startsWith("Summer"))!,
-      ruleSet: D.rulesets.find((x) => x.name.startsWith("England"))!,
-      uncertainty: noBand,
-      extendFraction: 0.5,
-    });
+    const inp = saladInThinCooler([
+      { product: P("Roast chicken"), count: 1, start_C: 3 },
+      { product: P("Mixed salad"), count: 2, start_C: 4.2 },
+    ]);
     const a = runHoldParsed(inp);
     const b = runHoldParsed(inp, { resolution: 4 });
     const x = a.holdTime_s!;
