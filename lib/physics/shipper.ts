@@ -177,19 +177,18 @@ const NEWTON_TOL_K = 1e-5;
  * First step tried at the start of a run and after every change of conditions, as a share of the largest
  * step (60 s at the hold planner's 1 h; refined runs shrink it with their largest step): backward Euler,
  * taken again shorter when its own error estimate (eulerStepError) is over about 3× the aim (the estimate
- * would halve the next step). That check matters
- * where something moves fast within the first minute: a chilled load packed near its limit into a box at
- * room temperature (a salad tub at 7.5 °C against 8 °C in the thin cooler at 24 °C: its surface leaves the
- * band within seconds, and with the 60 s step always kept the model said after 38 min, 2,299 s against 6 s
- * refined 8×; now 7 s against 1 s), or a lid opening of 20–45 s on a chilled load (with the graded product
- * grid of hold.ts; test/reference/hold.ref.test.ts). It costs 129 → 142 steps on the 48 h bench plan.
- * The same at every restart rather than carried over from before the change, so that the
- * answer moves smoothly with the inputs (calibration fits it by finite differences): a carried-over step
- * (up to minutes) put up to 0.3 K of first-order error into the inside air right after a change, and a
- * 0.1 % change of an input moved the air by 0.22 K (now 0.006 K). Measured on the reference checks: at
- * 1/60 the ice-only melt is 1.2 % from the hand formula and a calibration recovers its factors to 0.2 %;
- * at 1/12 (5 min) 1.9 % and 2.5 %, for 18 % fewer steps per sizing candidate; at 1/6 the calibration
- * check fails.
+ * would halve the next step). That check matters where something moves fast within the first minute: a
+ * chilled load packed near its limit into a box at room temperature (a salad tub at 7.5 °C against 8 °C in
+ * the thin cooler at 24 °C: its surface leaves the band within seconds; with the 60 s step always kept,
+ * the model said after 2,299 s against 6 s refined 8×, now 7 s against 1 s), or a lid opening of 20–45 s
+ * on a chilled load (with the graded product grid of hold.ts; test/reference/hold.ref.test.ts). It costs
+ * 129 → 142 steps on the 48 h bench plan. The same at every restart rather than carried over from before
+ * the change, so that the answer moves smoothly with the inputs (calibration fits it by finite
+ * differences): a carried-over step (up to minutes) put up to 0.3 K of first-order error into the inside
+ * air right after a change, and a 0.1 % change of an input moved the air by 0.22 K (now 0.006 K).
+ * Measured on the reference checks: at 1/60 the ice-only melt is 1.2 % from the hand formula and a
+ * calibration recovers its factors to 0.2 %; at 1/12 (5 min) 1.9 % and 2.5 %, for 18 % fewer steps per
+ * sizing candidate; at 1/6 the calibration check fails.
  */
 const RESTART_FRACTION = 1 / 60;
 
