@@ -396,13 +396,13 @@ export function zoneExchange_W_K(lower_C: number, upper_C: number, area_m2: numb
 /**
  * A product's nodes (9, centre to surface) are graded towards its surface, the surface interval 0.2 of
  * the uniform one (nodePositions in shipper.ts): a lid opening of 20–45 s heats the surface only about
- * √(α·t) ≈ 2 mm deep (α ≈ 1.4·10⁻⁷ m²/s, water-rich food [incropera6]), less than a uniform grid's
- * surface cell (a sixteenth of the half size: 3 mm for a 5 cm tub). Measured on the demo's lunch route
- * (salad tub, thin cooler): the surface peak during the second drop was 0.30 K below a 144-node run with
- * uniform nodes and 0.04 K with these; the band's central hold was 16.9 % longer than the run refined 4×,
- * and 16.8 % with only the first-step error check of shipper.ts (RESTART_FRACTION), 0.06 % with both. On
- * the 48 h frozen bench plan, an overnight turkey and frozen cod the band moved by under 0.06 %
- * (test/reference/hold.ref.test.ts).
+ * √(α·t) ≈ 2 mm deep (α ≈ 1.4·10⁻⁷ m²/s, that of water, Table A.6 of [incropera6], from memory), less
+ * than a uniform grid's surface cell (a sixteenth of the half size: 3 mm for a 5 cm tub). Measured on
+ * the demo's lunch route (salad tub, thin cooler): the surface peak during the second drop was 0.30 K
+ * below a 144-node run with uniform nodes and 0.04 K with these; the band's central hold was 16.9 %
+ * longer than the run refined 4×, and 16.8 % with only the first-step error check of shipper.ts
+ * (RESTART_FRACTION), 0.06 % with both. On the 48 h frozen bench plan, an overnight turkey and frozen
+ * cod the band moved by under 0.06 % (test/reference/hold.ref.test.ts).
  */
 const PRODUCT_SURFACE_RATIO = 0.2;
 

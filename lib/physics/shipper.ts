@@ -947,16 +947,8 @@ function fixedSystem(S: NewtonSystem, invH: number, Gedge: number, Gopen: number
     const ch = chains[ci];
     const row = keyRow[ci];
     const bpn = ch.bp[ch.n - 1];
-    if (row >= 0) {
-      A0[row * nK + row] += bpn;
-      continue;
-    }
-    const U = ch.U;
-    for (let z = 0; z < nZ; z++) {
-      if (U[z] === 0) continue;
-      const zr = zoneRow[z];
-      for (let y = 0; y < nZ; y++) if (U[y] !== 0) A0[zr * nK + zoneRow[y]] -= (U[z] * U[y]) / bpn;
-    }
+    if (row >= 0) A0[row * nK + row] += bpn;
+    else zoneSchurMatrix(ch.U, bpn, A0, nK, nZ, zoneRow);
   }
 }
 
@@ -1254,12 +1246,16 @@ function schurOntoZones(ch: Chain, A: Float64Array, rhs: Float64Array, nK: numbe
   const bpn = ch.bp[ch.n - 1];
   const dpn = ch.dp[ch.n - 1];
   const U = ch.U;
+  for (let z = 0; z < nZ; z++) if (U[z] !== 0) rhs[zoneRow[z]] += (U[z] * dpn) / bpn;
+  if (withMatrix) zoneSchurMatrix(U, bpn, A, nK, nZ, zoneRow);
+}
+
+/** The matrix part of a chain's Schur complement onto the zones' rows: −U_z·U_y/bp for each pair of zones it touches. */
+function zoneSchurMatrix(U: Float64Array, bpn: number, A: Float64Array, nK: number, nZ: number, zoneRow: Int32Array): void {
   for (let z = 0; z < nZ; z++) {
-    const Uz = U[z];
-    if (Uz === 0) continue;
+    if (U[z] === 0) continue;
     const zr = zoneRow[z];
-    rhs[zr] += (Uz * dpn) / bpn;
-    if (withMatrix) for (let y = 0; y < nZ; y++) if (U[y] !== 0) A[zr * nK + zoneRow[y]] -= (Uz * U[y]) / bpn;
+    for (let y = 0; y < nZ; y++) if (U[y] !== 0) A[zr * nK + zoneRow[y]] -= (U[z] * U[y]) / bpn;
   }
 }
 

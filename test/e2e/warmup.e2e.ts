@@ -5,7 +5,6 @@ import { downloadCurves, installLatencyProbes, mainText, measureLatency, planIdO
 
 const suite = browserSuite();
 
-
 describe("warm-up / cool-down check in the browser", () => {
   it("shows the curve and the time to the limit, updates when a value changes, saves a plan and reopens it", async () => {
     await suite.page.goto(suite.h.baseUrl + "/warmup");
