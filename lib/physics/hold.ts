@@ -424,21 +424,40 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
   // Outside air swept in while the lid is open: ρc of air (ideal gas at the segment's air temperature is
   // within 10 % of 20 °C over a route, so 20 °C is used) times the air changes per second.
   const openG = (P.airVolume_m3 * (P_ATM_PA / (R_AIR_J_KGK * (20 + KELVIN_OFFSET))) * CP_AIR_J_KGK * o.lidOpenAirChangesPerMinute) / 60;
-  const segAt = (t: number) => {
-    for (let i = 0; i < P.segments.length; i++) if (t < P.segments[i].end_s) return i;
-    return P.segments.length - 1;
-  };
-  const ambient = (t: number) => {
-    const i = segAt(t);
+  // Each segment's conditions, worked out once per run (the network asks at every step); past the route's
+  // end, the last segment's continue (lid openings stop with the route).
+  const conditionsOf = (i: number, onRoute: boolean) => {
     const seg = P.segments[i].seg;
     const h = hOuter[i];
-    const sun = t < P.routeLength_s ? seg.sun_W_m2 : lastSeg.seg.sun_W_m2;
+    const sun = onRoute ? seg.sun_W_m2 : lastSeg.seg.sun_W_m2;
     const lid = solAirTemperature({ airTemp_C: seg.airTemp_C, solarAbsorptivity: P.finish.solarAbsorptivity, irradiance_W_m2: sun, hOuter_W_m2K: h, emissivity: P.finish.emissivity, facingSky: sun > 0 });
     // The sides take a share of the sun on the lid's area spread over their own area; the base none.
     const sides = seg.airTemp_C + (P.finish.solarAbsorptivity * sun * o.sunShareSides) / h;
+    return { air_C: seg.airTemp_C, solAir_C: { base: seg.airTemp_C, sidesLower: sides, sidesUpper: sides, lid }, outerH_W_m2K: h };
+  };
+  const onRouteConditions = P.segments.map((_, i) => conditionsOf(i, true));
+  const pastRouteConditions = conditionsOf(P.segments.length - 1, false);
+  // One object handed to the network at every step (it reads it at once and keeps nothing).
+  const amb = { air_C: 0, solAir_C: { base: 0, sidesLower: 0, sidesUpper: 0, lid: 0 }, outerH_W_m2K: 0, openExchange_W_K: 0 };
+  let segHint = 0;
+  const ambient = (t: number) => {
+    let c = pastRouteConditions;
     let open = 0;
-    if (t < P.routeLength_s) for (const op of P.openings) if (t >= op.start_s && t < op.end_s) open = openG;
-    return { air_C: seg.airTemp_C, solAir_C: { base: seg.airTemp_C, sidesLower: sides, sidesUpper: sides, lid }, outerH_W_m2K: h, openExchange_W_K: open };
+    if (t < P.routeLength_s) {
+      // Steps move forward in time: start from the last segment found.
+      if (segHint >= P.segments.length || (segHint > 0 && t < P.segments[segHint - 1].end_s)) segHint = 0;
+      while (segHint < P.segments.length - 1 && t >= P.segments[segHint].end_s) segHint++;
+      c = onRouteConditions[segHint];
+      for (const op of P.openings) if (t >= op.start_s && t < op.end_s) open = openG;
+    }
+    amb.air_C = c.air_C;
+    amb.solAir_C.base = c.solAir_C.base;
+    amb.solAir_C.sidesLower = c.solAir_C.sidesLower;
+    amb.solAir_C.sidesUpper = c.solAir_C.sidesUpper;
+    amb.solAir_C.lid = c.solAir_C.lid;
+    amb.outerH_W_m2K = c.outerH_W_m2K;
+    amb.openExchange_W_K = open;
+    return amb;
   };
 
   // Bodies: each pack line's packs at each position (underneath, on top, at the sides), then the products.
@@ -524,6 +543,20 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
       return { T_C: T, latentLeft: left, massLeft_kg: line.pack.kind === "dry_ice" ? line.pack.mass_kg * line.count * left : line.pack.mass_kg * line.count };
     });
   let lastLines: HoldSeriesPoint["packs"] = [];
+  // Without curves, the packs' state is read once, from the network's last state (it updates one object in place).
+  let lastState: NetworkState | null = null;
+  // Band check on a product's centre or surface after the step that ended at t (defined once: it runs every step).
+  const check = (t: number, j: number, point: HoldPoint, T: number, Tp: number, limit: "upper" | "lower", Lim: number | null) => {
+    if (Lim === null) return;
+    const out = limit === "upper" ? T > Lim : T < Lim;
+    if (!out) return;
+    const f = t === 0 || T === Tp ? 1 : (Lim - Tp) / (T - Tp);
+    const tc = t === 0 ? 0 : prevT + Math.min(1, Math.max(0, f)) * (t - prevT);
+    if (holdTime === null || tc < holdTime) {
+      holdTime = tc;
+      failsFirst = { product: inp.products[j].product.name, line: j, point, limit, limit_C: Lim };
+    }
+  };
   const net = runNetwork({
     faces,
     zones: [{ volume_m3: P.airVolume_m3 / 2 }, { volume_m3: P.airVolume_m3 / 2 }],
@@ -545,18 +578,6 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
     targetChange_K: 2 / (v.resolution ?? 1),
     errorScale: v.errorScale,
     onStep: (t, st) => {
-      // Band check on every product's centre and surface (no allocation: this runs every step).
-      const check = (j: number, point: HoldPoint, T: number, Tp: number, limit: "upper" | "lower", Lim: number | null) => {
-        if (Lim === null) return;
-        const out = limit === "upper" ? T > Lim : T < Lim;
-        if (!out) return;
-        const f = t === 0 || T === Tp ? 1 : (Lim - Tp) / (T - Tp);
-        const tc = t === 0 ? 0 : prevT + Math.min(1, Math.max(0, f)) * (t - prevT);
-        if (holdTime === null || tc < holdTime) {
-          holdTime = tc;
-          failsFirst = { product: inp.products[j].product.name, line: j, point, limit, limit_C: Lim };
-        }
-      };
       if (columns === null)
         columns = inp.products.map((line, j) =>
           P.bands[j].lower_C === null
@@ -571,10 +592,10 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
         const b = P.bands[j];
         const c = st.bodyCenter_C[nGroups + j];
         const s = st.bodySurface_C[nGroups + j];
-        check(j, "surface", s, prevS[j], "upper", b.upper_C);
-        check(j, "surface", s, prevS[j], "lower", b.lower_C);
-        check(j, "centre", c, prevC[j], "upper", b.upper_C);
-        check(j, "centre", c, prevC[j], "lower", b.lower_C);
+        check(t, j, "surface", s, prevS[j], "upper", b.upper_C);
+        check(t, j, "surface", s, prevS[j], "lower", b.lower_C);
+        check(t, j, "centre", c, prevC[j], "upper", b.upper_C);
+        check(t, j, "centre", c, prevC[j], "lower", b.lower_C);
         if (b.lower_C !== null && columns !== null && t > 0) {
           for (const x of columns[j]) {
             // Only the first crossing counts: a column that has crossed is not stepped again.
@@ -616,11 +637,12 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
           products: inp.products.map((_, j) => ({ center_C: st.bodyCenter_C[nGroups + j], surface_C: st.bodySurface_C[nGroups + j] })),
           packs: lastLines,
         });
-      } else if (dryGroups.length) lastLines = lineState(st);
+      } else lastState = st;
       // Past the end of the route, stop as soon as the band is left (the margin is known then).
       return (holdTime !== null && !v.keepSeries) || (v.stopAt_s !== undefined && t >= v.stopAt_s);
     },
   });
+  if (!v.keepSeries && dryGroups.length && lastState) lastLines = lineState(lastState);
   const dryIceSublimated = inp.packs.reduce((a, line, k) => (line.pack.kind !== "dry_ice" ? a : a + line.pack.mass_kg * line.count * (1 - (lastLines[k]?.latentLeft ?? 1))), 0);
   const all = net.gains_J;
   const moved = Math.abs(all.faces.base) + Math.abs(all.faces.sidesLower) + Math.abs(all.faces.sidesUpper) + Math.abs(all.faces.lid) + Math.abs(all.edges) + Math.abs(all.openings);

@@ -301,21 +301,7 @@ export function nodePositions(R: number, n: number, surfaceRatio: number): Float
   const r = new Float64Array(Math.max(1, n));
   if (n < 2) return r;
   const m = n - 1;
-  // Ratio q between neighbouring intervals (centre → surface) with d_last = surfaceRatio · R/m.
-  let q = 1;
-  if (m > 1 && surfaceRatio !== 1) {
-    // Solve q^(m−1)·(q − 1)/(q^m − 1) = surfaceRatio/m for q by bisection on log q.
-    const target = surfaceRatio / m;
-    const share = (x: number) => (Math.abs(x - 1) < 1e-12 ? 1 / m : (Math.pow(x, m - 1) * (x - 1)) / (Math.pow(x, m) - 1));
-    let lo = surfaceRatio < 1 ? 1e-3 : 1;
-    let hi = surfaceRatio < 1 ? 1 : 1e3;
-    for (let k = 0; k < 100; k++) {
-      const mid = Math.sqrt(lo * hi);
-      if (share(mid) > target) hi = mid;
-      else lo = mid;
-    }
-    q = Math.sqrt(lo * hi);
-  }
+  const q = m > 1 && surfaceRatio !== 1 ? gradingRatio(m, surfaceRatio) : 1;
   let d = q === 1 ? R / m : (R * (q - 1)) / (Math.pow(q, m) - 1);
   for (let i = 1; i < n; i++) {
     r[i] = r[i - 1] + d;
@@ -323,6 +309,30 @@ export function nodePositions(R: number, n: number, surfaceRatio: number): Float
   }
   r[n - 1] = R;
   return r;
+}
+
+/** The grid ratios found so far, by interval count and surface ratio (every corner of a plan asks for the same few). */
+const GRADING_RATIOS = new Map<string, number>();
+
+/** Ratio q between neighbouring intervals (centre → surface) with the last interval surfaceRatio · R/m (nodePositions). */
+function gradingRatio(m: number, surfaceRatio: number): number {
+  const key = `${m}:${surfaceRatio}`;
+  const known = GRADING_RATIOS.get(key);
+  if (known !== undefined) return known;
+  // Solve q^(m−1)·(q − 1)/(q^m − 1) = surfaceRatio/m for q by bisection on log q.
+  const target = surfaceRatio / m;
+  const share = (x: number) => (Math.abs(x - 1) < 1e-12 ? 1 / m : (Math.pow(x, m - 1) * (x - 1)) / (Math.pow(x, m) - 1));
+  let lo = surfaceRatio < 1 ? 1e-3 : 1;
+  let hi = surfaceRatio < 1 ? 1 : 1e3;
+  for (let k = 0; k < 100; k++) {
+    const mid = Math.sqrt(lo * hi);
+    if (share(mid) > target) hi = mid;
+    else lo = mid;
+  }
+  const q = Math.sqrt(lo * hi);
+  if (GRADING_RATIOS.size > 256) GRADING_RATIOS.clear();
+  GRADING_RATIOS.set(key, q);
+  return q;
 }
 
 /** ∫ r^m dr from a to b. */
