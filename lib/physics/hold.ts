@@ -444,8 +444,8 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
     let c = pastRouteConditions;
     let open = 0;
     if (t < P.routeLength_s) {
-      // Steps move forward in time: start from the last segment found.
-      if (segHint >= P.segments.length || (segHint > 0 && t < P.segments[segHint - 1].end_s)) segHint = 0;
+      // Steps move forward in time (a retried step only shorter): start from the last segment found.
+      if (segHint > 0 && t < P.segments[segHint - 1].end_s) segHint = 0;
       while (segHint < P.segments.length - 1 && t >= P.segments[segHint].end_s) segHint++;
       c = onRouteConditions[segHint];
       for (const op of P.openings) if (t >= op.start_s && t < op.end_s) open = openG;

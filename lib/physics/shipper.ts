@@ -86,7 +86,7 @@ export interface NetworkSpec {
   bodies: BodySpec[]; // packs then products (any order)
   contacts: { a: number; b: number; conductance_W_K: number }[]; // body indices, surfaces in contact
   boxStart_C: number;
-  /** Ambient conditions as step functions of time. */
+  /** Ambient conditions as step functions of time (read at once each step: the same object may be returned each time, updated). */
   ambient: (t_s: number) => { air_C: number; solAir_C: Record<FaceKind, number>; outerH_W_m2K: number; openExchange_W_K: number };
   breakpoints_s: number[];
   tEnd_s: number;
@@ -191,6 +191,12 @@ const NEWTON_TOL_K = 1e-5;
  * sizing candidate; at 1/6 the calibration check fails.
  */
 const RESTART_FRACTION = 1 / 60;
+/**
+ * The specific heat that turns an enthalpy error into kelvin for the step control, J/(kg·K): a scale, not a
+ * property (unfrozen foods lie near 3–4 kJ/(kg·K), Choi–Okos [choiOkos1986], from memory), so that walls,
+ * air and bodies share one error aim.
+ */
+const ERROR_C_J_KGK = 3000;
 
 interface Chain {
   n: number;
@@ -1050,7 +1056,7 @@ function eulerStepError(S: Net, h: number): number {
   for (let ci = 0; ci < S.chains.length; ci++) {
     const ch = S.chains[ci];
     const now = ch.mat ? ch.Hn : ch.T;
-    const sc = ch.mat ? 1 / 3000 : 1;
+    const sc = ch.mat ? 1 / ERROR_C_J_KGK : 1;
     const { Hs, rate0 } = ch;
     for (let i = 0; i < ch.n; i++) {
       const d = 0.5 * sc * Math.abs(now[i] - Hs[i] - h * rate0[i]);
@@ -1069,7 +1075,7 @@ function eulerStepError(S: Net, h: number): number {
 function extrapolationDistance(ch: Chain, L0: number, L1: number, L2: number): number {
   const n = ch.n;
   const now = ch.mat ? ch.Hn : ch.T;
-  const sc = ch.mat ? 1 / 3000 : 1;
+  const sc = ch.mat ? 1 / ERROR_C_J_KGK : 1;
   const Hs = ch.Hs;
   const Hm1 = ch.Hm1;
   const Hm2 = ch.Hm2;
