@@ -233,7 +233,6 @@ interface Chain {
   bpInv: Float64Array;
   /** Temperatures at the start of the previous step (the predictor's history). */
   Tp: Float64Array;
-  extra: number; // contact flux into the last node at this iterate, W
   linkDiag: number; // sum of the last node's contact conductances, W/K
 
   k: Float64Array; // node conductivities of this iteration (enthalpy chains)
@@ -269,7 +268,6 @@ function newChain(n: number, zones: number): Chain {
     w: f(),
     bpInv: f(),
     Tp: f(),
-    extra: 0,
     linkDiag: 0,
     k: f(),
     rate0: f(),
@@ -454,6 +452,76 @@ function solveSparse(E: Elimination, A: Float64Array, r: Float64Array, x: Float6
   }
 }
 
+/** The per-node arrays of a chain that are laid end to end over the whole network (Nodes). */
+const NODE_FIELDS = ["T", "Told", "Hold", "Hcur", "Hs", "Hm1", "Hm2", "Hn", "cn", "mass", "a", "b", "c", "R", "bp", "dp", "w", "bpInv", "Tp", "k", "rate0"] as const;
+
+/**
+ * Every chain's nodes laid end to end (faces first, nodes outside → inside; then bodies, centre → surface),
+ * each chain's own arrays being views into these, so that the Newton kernels sweep all the walls, and all
+ * the bodies, each in one loop instead of one call per chain. A chain's last link factor is zero, and so
+ * are its first sub-diagonal and last super-diagonal entries: the sweeps pass from one chain to the next
+ * without coupling them (each chain's end node takes its update from the dense system).
+ */
+interface Nodes extends Record<(typeof NODE_FIELDS)[number], Float64Array> {
+  /** All nodes; the walls' (faces first) are 0 … nW − 1. */
+  nT: number;
+  nW: number;
+  /** First and last node of each chain. */
+  start: Int32Array;
+  end: Int32Array;
+  /** Link factors and (bodies) this iteration's conductances from node j to j + 1; zero at a chain's end. */
+  Gfac: Float64Array;
+  Gk: Float64Array;
+  /** Contact flux into each chain's last node at this iterate, W (by chain). */
+  extra: Float64Array;
+  /** 1 at each chain's last node. */
+  isEnd: Uint8Array;
+  /** The update of each chain's last node, at that node (back substitution). */
+  endDelta: Float64Array;
+  /** Each node's property table (tabulated bodies), else null. */
+  table: (PropertyTable | null)[];
+}
+
+/** Lays the chains' nodes end to end (Nodes) and makes each chain's arrays views into them. */
+function flattenChains(chains: Chain[], nFaces: number): Nodes {
+  const start = new Int32Array(chains.length);
+  const end = new Int32Array(chains.length);
+  let nT = 0;
+  for (let ci = 0; ci < chains.length; ci++) {
+    start[ci] = nT;
+    nT += chains[ci].n;
+    end[ci] = nT - 1;
+  }
+  const f = () => new Float64Array(nT);
+  const F: Nodes = {
+    nT,
+    nW: nFaces > 0 ? end[nFaces - 1] + 1 : 0,
+    start,
+    end,
+    T: f(), Told: f(), Hold: f(), Hcur: f(), Hs: f(), Hm1: f(), Hm2: f(), Hn: f(), cn: f(), mass: f(), a: f(), b: f(), c: f(), R: f(), bp: f(), dp: f(), w: f(), bpInv: f(), Tp: f(), k: f(), rate0: f(),
+    Gfac: f(),
+    Gk: f(),
+    extra: new Float64Array(chains.length),
+    isEnd: new Uint8Array(nT),
+    endDelta: f(),
+    table: new Array<PropertyTable | null>(nT).fill(null),
+  };
+  for (let ci = 0; ci < chains.length; ci++) {
+    const ch = chains[ci];
+    const s0 = start[ci];
+    for (const key of NODE_FIELDS) {
+      F[key].set(ch[key], s0);
+      ch[key] = F[key].subarray(s0, s0 + ch.n);
+    }
+    F.Gfac.set(ch.Gfac, s0);
+    ch.Gfac = F.Gfac.subarray(s0, s0 + ch.n - 1);
+    ch.Gk = F.Gk.subarray(s0, s0 + ch.n - 1);
+    F.isEnd[end[ci]] = 1;
+    for (let i = 0; i < ch.n; i++) F.table[s0 + i] = ch.table;
+  }
+  return F;
+}
+
 /**
  * The assembled network and its work arrays, built once per run (buildNetwork) and then stepped in
  * place by small functions: one huge function is optimised late by the JIT (hundreds of milliseconds of
@@ -598,9 +666,11 @@ function buildNetwork(spec: NetworkSpec): Net {
     bodySurface_C: new Float64Array(nB),
     bodyMeanH_J_kg: new Float64Array(nB),
   };
+  const F = flattenChains(chains, nFaces);
   return {
     spec,
     chains,
+    F,
     nFaces,
     nZ,
     nK,
@@ -695,9 +765,19 @@ function setConditions(S: Net, amb: ReturnType<NetworkSpec["ambient"]>): void {
   }
 }
 
-/** Start of a step: each chain's history term and predictor, the zones' likewise. */
+/** Start of a step: every node's start state, BDF2 history term H* = H⁰ + star·(H⁰ − H⁻¹) (or H⁰ for backward Euler) and predictor T⁰ + f·(T⁰ − T⁻¹); the zones' likewise. */
 function startStep(S: Net, bdf: boolean, star: number, fPred: number): void {
-  for (let ci = 0; ci < S.chains.length; ci++) startChainStep(S.chains[ci], bdf, star, fPred);
+  const F = S.F;
+  const { T, Told, Hs, Hcur, Hold, Hm1, Tp } = F;
+  const nT = F.nT;
+  const nW = F.nW;
+  Told.set(T);
+  // The stored quantity: T for the walls, the carried H for the bodies.
+  for (let j = 0; j < nW; j++) Hs[j] = T[j];
+  for (let j = nW; j < nT; j++) Hs[j] = Hcur[j];
+  if (bdf) for (let j = 0; j < nT; j++) Hold[j] = Hs[j] + star * (Hs[j] - Hm1[j]);
+  else Hold.set(Hs);
+  if (fPred > 0) for (let j = 0; j < nT; j++) T[j] += fPred * (T[j] - Tp[j]);
   const { Tair, TairOld, TairStar, TairM1, TairP } = S;
   for (let z = 0; z < S.nZ; z++) {
     TairOld[z] = Tair[z];
@@ -708,10 +788,9 @@ function startStep(S: Net, bdf: boolean, star: number, fPred: number): void {
 
 /** Back to the start of a step Newton could not finish. */
 function undoStep(S: Net): void {
-  for (const ch of S.chains) {
-    ch.T.set(ch.Told);
-    if (ch.mat) ch.Hcur.set(ch.Hs);
-  }
+  const F = S.F;
+  F.T.set(F.Told);
+  F.Hcur.set(F.Hs.subarray(F.nW), F.nW);
   S.Tair.set(S.TairOld);
 }
 
@@ -724,10 +803,8 @@ function undoStep(S: Net): void {
  * to the stored change to round-off.
  */
 function finishStep(S: Net, air_C: number, Gedge: number, Gopen: number, h: number, a0: number, a2: number): void {
-  for (let ci = S.bodyStart; ci < S.chains.length; ci++) {
-    const ch = S.chains[ci];
-    if (ch.mat) ch.Hcur.set(ch.Hn);
-  }
+  const F = S.F;
+  F.Hcur.set(F.Hn.subarray(F.nW), F.nW);
   const pf = S.pathFlow;
   const pp = S.pathPrev;
   pf.fill(0);
@@ -746,13 +823,22 @@ function finishStep(S: Net, air_C: number, Gedge: number, Gopen: number, h: numb
   }
 }
 
-/** The largest distance of any node (and, weighted 0.2, any zone) from the extrapolation L0·E⁰ + L1·E⁻¹ + L2·E⁻², K. */
+/** The largest distance of any node (and, weighted 0.2, any zone) from the extrapolation L0·E⁰ + L1·E⁻¹ + L2·E⁻², K (bodies' H over ERROR_C_J_KGK). */
 function stepDistance(S: Net, L0: number, L1: number, L2: number): number {
-  let m = 0;
-  for (let ci = 0; ci < S.chains.length; ci++) {
-    const d = extrapolationDistance(S.chains[ci], L0, L1, L2);
-    if (d > m) m = d;
+  const F = S.F;
+  const { T, Hn, Hs, Hm1, Hm2 } = F;
+  const nW = F.nW;
+  let mW = 0;
+  for (let j = 0; j < nW; j++) {
+    const d = Math.abs(T[j] - (L0 * Hs[j] + L1 * Hm1[j] + L2 * Hm2[j]));
+    if (d > mW) mW = d;
   }
+  let mB = 0;
+  for (let j = nW; j < F.nT; j++) {
+    const d = Math.abs(Hn[j] - (L0 * Hs[j] + L1 * Hm1[j] + L2 * Hm2[j]));
+    if (d > mB) mB = d;
+  }
+  let m = Math.max(mW, mB * (1 / ERROR_C_J_KGK));
   const { Tair, TairOld, TairM1, TairM2 } = S;
   for (let z = 0; z < S.nZ; z++) {
     const d = 0.2 * Math.abs(Tair[z] - (L0 * TairOld[z] + L1 * TairM1[z] + L2 * TairM2[z]));
@@ -761,16 +847,12 @@ function stepDistance(S: Net, L0: number, L1: number, L2: number): number {
   return m;
 }
 
-/** Shifts the history (by swapping the arrays: H⁻² takes H⁻¹'s, H⁻¹ the start's, the old H⁻² is the next start's). */
+/** Shifts the history: H⁻² takes H⁻¹, H⁻¹ the start's; the predictor's history the start temperatures. */
 function shiftHistory(S: Net): void {
-  for (let ci = 0; ci < S.chains.length; ci++) {
-    const ch = S.chains[ci];
-    const spare = ch.Hm2;
-    ch.Hm2 = ch.Hm1;
-    ch.Hm1 = ch.Hs;
-    ch.Hs = spare;
-    ch.Tp.set(ch.Told);
-  }
+  const F = S.F;
+  F.Hm2.set(F.Hm1);
+  F.Hm1.set(F.Hs);
+  F.Tp.set(F.Told);
   S.TairM2.set(S.TairM1);
   S.TairM1.set(S.TairOld);
   S.TairP.set(S.TairOld);
@@ -835,7 +917,7 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
     // saves a Newton iteration or two).
     startStep(S, bdf, star, hist >= 1 ? Math.min(2, h / hPrev1) : 0);
     const invH = 1 / hE;
-    for (let ci = 0; ci < S.nFaces; ci++) factorLinearChain(S.chains[ci], invH, S.outerG[ci], nZ);
+    factorWalls(S, invH);
     fixedSystem(S, invH, Gedge, Gopen, Gzz);
     const it = newtonStep(S, invH, Gedge, Gopen, Gzz, amb.air_C, !bdf);
     if (it === 0) {
@@ -899,6 +981,7 @@ export function runNetwork(spec: NetworkSpec): NetworkResult {
 /** Everything one Newton solve of the network works on, fixed for a run (arrays are overwritten in place). */
 interface NewtonSystem {
   chains: Chain[];
+  F: Nodes;
   nFaces: number;
   nZ: number;
   nK: number;
@@ -974,19 +1057,20 @@ function fixedSystem(S: NewtonSystem, invH: number, Gedge: number, Gopen: number
  * converge within 40.
  */
 function newtonStep(S: NewtonSystem, invH: number, Gedge: number, Gopen: number, Gzz: number, air_C: number, keepRates: boolean): number {
-  const { chains, nFaces, nZ, nK, keyRow, zoneRow, elim, linkA, linkB, linkG, A, A0, rhs, dAir, res, outerG, outerT, Cair, edgeShare, openShare, Tair, TairStar } = S;
+  const { chains, F, nFaces, nZ, nK, keyRow, zoneRow, elim, linkA, linkB, linkG, A, A0, rhs, dAir, res, Cair, edgeShare, openShare, Tair, TairStar } = S;
+  const { T, end, extra } = F;
   let lastStep = Infinity;
   for (let it = 0; it < 40; it++) {
     A.set(A0);
     rhs.fill(0);
     // Contact fluxes at this iterate (their Jacobian is in the dense system).
-    for (let ci = 0; ci < chains.length; ci++) chains[ci].extra = 0;
+    extra.fill(0);
     for (let l = 0; l < linkA.length; l++) {
-      const P = chains[linkA[l]];
-      const Q = chains[linkB[l]];
-      const q = linkG[l] * (Q.T[Q.n - 1] - P.T[P.n - 1]);
-      P.extra += q;
-      Q.extra -= q;
+      const a = linkA[l];
+      const b = linkB[l];
+      const q = linkG[l] * (T[end[b]] - T[end[a]]);
+      extra[a] += q;
+      extra[b] -= q;
     }
     // The zones' own residuals.
     for (let z = 0; z < nZ; z++) {
@@ -996,17 +1080,20 @@ function newtonStep(S: NewtonSystem, invH: number, Gedge: number, Gopen: number,
       res[0] -= Gzz * (Tair[1] - Tair[0]);
       res[1] -= Gzz * (Tair[0] - Tair[1]);
     }
-    // Build and forward-eliminate each chain, then couple its end node to the dense system.
+    // Build and forward-eliminate every chain, then couple each end node to the dense system.
+    if (it > 0) wallEnds(S, invH, res);
+    else assembleWalls(S, invH, res);
+    assembleBodies(S, invH, res);
+    const { bp, dp } = F;
     for (let ci = 0; ci < chains.length; ci++) {
-      const ch = chains[ci];
       const wall = ci < nFaces;
-      assembleChain(ch, invH, wall ? outerG[ci] : 0, wall ? outerT[ci] : 0, Tair, nZ, res, wall && it > 0);
       const row = keyRow[ci];
       if (row >= 0) {
         // The end node stays an unknown: bp δ_end − Σ U_z δ_z − Σ G δ_partner = dp (a wall's bp is in A0).
-        if (!wall) A[row * nK + row] += ch.bp[ch.n - 1];
-        rhs[row] += ch.dp[ch.n - 1];
-      } else schurOntoZones(ch, A, rhs, nK, nZ, zoneRow, !wall);
+        const e = end[ci];
+        if (!wall) A[row * nK + row] += bp[e];
+        rhs[row] += dp[e];
+      } else schurOntoZones(chains[ci], A, rhs, nK, nZ, zoneRow, !wall);
     }
     for (let z = 0; z < nZ; z++) rhs[zoneRow[z]] -= res[z];
     if (it === 0 && keepRates) keepStartRates(S, invH);
@@ -1017,11 +1104,8 @@ function newtonStep(S: NewtonSystem, invH: number, Gedge: number, Gopen: number,
       Tair[z] += d;
       maxStep = Math.max(maxStep, Math.abs(d));
     }
-    for (let ci = 0; ci < chains.length; ci++) {
-      const row = keyRow[ci];
-      const m = backSubstitute(chains[ci], row >= 0 ? dAir[row] : NaN, dAir, nZ, zoneRow);
-      if (m > maxStep) maxStep = m;
-    }
+    const m = backSubstituteAll(S, dAir);
+    if (m > maxStep) maxStep = m;
     // Converged once the error left after this update is below the tolerance: the update itself, or,
     // while the updates shrink at a rate θ = |δ_k|/|δ_k−1| < 1/2, the next one, bounded by θ/(1 − θ)·|δ_k|
     // (the contraction estimate of Hairer & Wanner [hairerWanner1996]).
@@ -1071,76 +1155,150 @@ function eulerStepError(S: Net, h: number): number {
   return m;
 }
 
-/** Largest distance of a chain's stored quantity from its extrapolation L0·E⁰ + L1·E⁻¹ + L2·E⁻², in kelvin (H over 3 kJ/(kg·K)). */
-function extrapolationDistance(ch: Chain, L0: number, L1: number, L2: number): number {
-  const n = ch.n;
-  const now = ch.mat ? ch.Hn : ch.T;
-  const sc = ch.mat ? 1 / ERROR_C_J_KGK : 1;
-  const Hs = ch.Hs;
-  const Hm1 = ch.Hm1;
-  const Hm2 = ch.Hm2;
-  let m = 0;
-  for (let i = 0; i < n; i++) {
-    const d = Math.abs(now[i] - (L0 * Hs[i] + L1 * Hm1[i] + L2 * Hm2[i]));
-    if (d > m) m = d;
+/** Each link's conductance G_j (node j to j + 1, zero at a chain's end) on both diagonals, −G_j off them, for nodes from … to − 1. */
+function linkRows(from: number, to: number, G: Float64Array, a: Float64Array, b: Float64Array, c: Float64Array): void {
+  for (let j = from; j < to - 1; j++) {
+    const g = G[j];
+    b[j] += g;
+    b[j + 1] += g;
+    c[j] = -g;
+    a[j + 1] = -g;
   }
-  return m * sc;
+  a[from] = 0;
+  c[to - 1] = 0;
 }
 
 /**
- * Start of a step for one chain: keeps the start state, forms the BDF2 history term
- * H* = H⁰ + star·(H⁰ − H⁻¹) (or H⁰ for backward Euler) and puts the predictor T⁰ + f·(T⁰ − T⁻¹) in T.
+ * The walls (constant properties) have the same Newton matrix at every iteration of a step: their diagonal
+ * (capacity/h, links, the outer film, contacts and zone couplings at the end node), off-diagonals and
+ * forward-elimination multipliers are formed once per step here, so that each iteration forms only the
+ * residual and sweeps it without a division.
  */
-function startChainStep(ch: Chain, bdf: boolean, star: number, fPred: number): void {
-  const n = ch.n;
-  const T = ch.T;
-  ch.Told.set(T);
-  ch.Hs.set(ch.mat ? ch.Hcur : T);
-  const Hs = ch.Hs;
-  const Hold = ch.Hold;
-  if (bdf) {
-    const Hm1 = ch.Hm1;
-    for (let i = 0; i < n; i++) Hold[i] = Hs[i] + star * (Hs[i] - Hm1[i]);
-  } else Hold.set(Hs);
-  if (fPred > 0) {
-    const Tp = ch.Tp;
-    for (let i = 0; i < n; i++) T[i] += fPred * (T[i] - Tp[i]);
+function factorWalls(S: NewtonSystem, invH: number): void {
+  const F = S.F;
+  const nW = F.nW;
+  if (nW === 0) return;
+  const { a, b, c, bp, w, bpInv, Gfac, mass, start, end } = F;
+  for (let j = 0; j < nW; j++) b[j] = mass[j] * invH;
+  linkRows(0, nW, Gfac, a, b, c);
+  for (let ci = 0; ci < S.nFaces; ci++) {
+    const Gout = S.outerG[ci];
+    if (Gout > 0) b[start[ci]] += Gout;
+    const ch = S.chains[ci];
+    const e = end[ci];
+    b[e] += ch.linkDiag;
+    for (let z = 0; z < S.nZ; z++) b[e] += ch.U[z];
+  }
+  bp[0] = b[0];
+  bpInv[0] = 1 / b[0];
+  for (let j = 1; j < nW; j++) {
+    w[j] = a[j] * bpInv[j - 1];
+    bp[j] = b[j] - w[j] * c[j - 1];
+    bpInv[j] = 1 / bp[j];
   }
 }
 
-/**
- * One chain's Newton rows at the current iterate (capacity, internal links, the outer film for a face,
- * contact and zone coupling at the end node), forward-eliminated towards the end node (bp, dp); adds the
- * chain's share to the zones' residuals.
- */
-function assembleChain(ch: Chain, invH: number, Gout: number, Tout: number, Tair: Float64Array, nZ: number, res: Float64Array, endOnly: boolean): void {
-  const n = ch.n;
-  const T = ch.T;
-  const a = ch.a;
-  const b = ch.b;
-  const c = ch.c;
-  const R = ch.R;
-  const mat = ch.mat;
-  const Gfac = ch.Gfac;
-  if (mat) {
-    // One fused table look-up per node: H, its slope and k.
-    if (ch.table) evalTable(ch.table, T, 0, n, ch.Hn, ch.cn, ch.k, 1);
-    else evalMaterial(mat, T, 0, n, ch.Hn, ch.cn, ch.k, 1);
-    capacityRows(n, ch.mass, ch.cn, ch.Hn, ch.Hold, invH, b, R);
-    const k = ch.k;
-    const Gk = ch.Gk;
-    for (let i = 0; i < n - 1; i++) {
-      const k1 = k[i];
-      const k2 = k[i + 1];
-      const G = (Gfac[i] * 2 * k1 * k2) / (k1 + k2);
-      Gk[i] = G;
-      const q = G * (T[i + 1] - T[i]);
-      R[i] -= q;
-      R[i + 1] += q;
+/** The walls' residual at the current iterate (capacity, links, the outer film, contact and zones at the end node), swept forward; adds their share to the zones' residuals. */
+function assembleWalls(S: NewtonSystem, invH: number, res: Float64Array): void {
+  const F = S.F;
+  const nW = F.nW;
+  if (nW === 0) return;
+  const { T, R, mass, Hold, Gfac, dp, w, start, end, extra } = F;
+  const { Tair, nZ, outerG, outerT } = S;
+  for (let j = 0; j < nW; j++) R[j] = mass[j] * invH * (T[j] - Hold[j]);
+  for (let j = 0; j < nW - 1; j++) {
+    const q = Gfac[j] * (T[j + 1] - T[j]);
+    R[j] -= q;
+    R[j + 1] += q;
+  }
+  for (let ci = 0; ci < S.nFaces; ci++) {
+    const Gout = outerG[ci];
+    const s0 = start[ci];
+    if (Gout > 0) R[s0] -= Gout * (outerT[ci] - T[s0]);
+    const e = end[ci];
+    R[e] -= extra[ci];
+    const U = S.chains[ci].U;
+    for (let z = 0; z < nZ; z++) {
+      const Uz = U[z];
+      if (Uz === 0) continue;
+      R[e] -= Uz * (Tair[z] - T[e]);
+      res[z] -= Uz * (T[e] - Tair[z]);
     }
-    linkRows(n, Gk, a, b, c);
-    const e = n - 1;
-    R[e] -= ch.extra;
+  }
+  dp[0] = -R[0];
+  for (let j = 1; j < nW; j++) dp[j] = -R[j] - w[j] * dp[j - 1];
+}
+
+/**
+ * The walls' rows after a Newton iteration: every row of a wall is linear in the wall's own temperatures,
+ * and the last iteration moved them all by the exact solution of those rows (T + δ, no table), so each
+ * row's residual is zero to round-off except the end node's, which also sees the zones and any body in
+ * contact (whose update may have been placed through its table's inverse, backSubstituteAll). So only
+ * that row is formed; the forward sweep of zeros leaves zeros (dp = 0 inside, −R at the end).
+ */
+function wallEnds(S: NewtonSystem, invH: number, res: Float64Array): void {
+  const F = S.F;
+  const { T, mass, Hold, Gfac, dp, start, end, extra } = F;
+  const { Tair, nZ, outerG, outerT } = S;
+  dp.fill(0, 0, F.nW);
+  for (let ci = 0; ci < S.nFaces; ci++) {
+    const e = end[ci];
+    let Re = mass[e] * invH * (T[e] - Hold[e]) - extra[ci];
+    if (e > start[ci]) Re -= Gfac[e - 1] * (T[e - 1] - T[e]);
+    else if (outerG[ci] > 0) Re -= outerG[ci] * (outerT[ci] - T[e]);
+    const U = S.chains[ci].U;
+    for (let z = 0; z < nZ; z++) {
+      const Uz = U[z];
+      if (Uz === 0) continue;
+      Re -= Uz * (Tair[z] - T[e]);
+      res[z] -= Uz * (T[e] - Tair[z]);
+    }
+    dp[e] = -Re;
+  }
+}
+
+/**
+ * The bodies' Newton rows at the current iterate: one fused table look-up per node (H, its slope and k),
+ * capacity m·c/h and residual m·(H − H*)/h, links with the harmonic-mean k, contact and zone coupling at
+ * each end node; forward-eliminated towards the end nodes (bp, dp). Adds their share to the zones' residuals.
+ */
+function assembleBodies(S: NewtonSystem, invH: number, res: Float64Array): void {
+  const F = S.F;
+  const nW = F.nW;
+  const nT = F.nT;
+  if (nT === nW) return;
+  const { T, Hn, cn, k, mass, Hold, Gfac, Gk, a, b, c, R, bp, dp, bpInv, start, end, extra } = F;
+  const { chains, Tair, nZ } = S;
+  for (let ci = S.nFaces; ci < chains.length; ci++) {
+    const ch = chains[ci];
+    const s0 = start[ci];
+    if (ch.table) evalTable(ch.table, T, s0, s0 + ch.n, Hn, cn, k, 1);
+    else if (ch.mat) evalMaterial(ch.mat, T, s0, s0 + ch.n, Hn, cn, k, 1);
+  }
+  for (let j = nW; j < nT; j++) {
+    const m = mass[j] * invH;
+    b[j] = m * cn[j];
+    R[j] = m * (Hn[j] - Hold[j]);
+  }
+  for (let j = nW; j < nT - 1; j++) {
+    const g = Gfac[j];
+    if (g === 0) {
+      Gk[j] = 0;
+      continue;
+    }
+    const k1 = k[j];
+    const k2 = k[j + 1];
+    const G = (g * 2 * k1 * k2) / (k1 + k2);
+    Gk[j] = G;
+    const q = G * (T[j + 1] - T[j]);
+    R[j] -= q;
+    R[j + 1] += q;
+  }
+  linkRows(nW, nT, Gk, a, b, c);
+  for (let ci = S.nFaces; ci < chains.length; ci++) {
+    const ch = chains[ci];
+    const e = end[ci];
+    R[e] -= extra[ci];
     b[e] += ch.linkDiag;
     const U = ch.U;
     for (let z = 0; z < nZ; z++) {
@@ -1150,110 +1308,15 @@ function assembleChain(ch: Chain, invH: number, Gout: number, Tout: number, Tair
       b[e] += Uz;
       res[z] -= Uz * (T[e] - Tair[z]);
     }
-    // Forward elimination towards the air-coupled end.
-    const bp = ch.bp;
-    const dp = ch.dp;
-    const inv = ch.bpInv;
-    bp[0] = b[0];
-    inv[0] = 1 / b[0];
-    dp[0] = -R[0];
-    for (let i = 1; i < n; i++) {
-      const w = a[i] * inv[i - 1];
-      bp[i] = b[i] - w * c[i - 1];
-      inv[i] = 1 / bp[i];
-      dp[i] = -R[i] - w * dp[i - 1];
-    }
-    return;
   }
-  // A wall (constant properties): its matrix and multipliers were formed for the step (factorLinearChain);
-  // only the residual and the forward sweep of its right-hand side are left.
-  const Cn = ch.mass;
-  const Hold = ch.Hold;
-  if (endOnly) {
-    endResidualOnly(ch, invH, Gout, Tout, Tair, nZ, res);
-    return;
-  }
-  for (let i = 0; i < n; i++) R[i] = Cn[i] * invH * (T[i] - Hold[i]);
-  for (let i = 0; i < n - 1; i++) {
-    const q = Gfac[i] * (T[i + 1] - T[i]);
-    R[i] -= q;
-    R[i + 1] += q;
-  }
-  if (Gout > 0) R[0] -= Gout * (Tout - T[0]);
-  const e = n - 1;
-  R[e] -= ch.extra;
-  const U = ch.U;
-  for (let z = 0; z < nZ; z++) {
-    const Uz = U[z];
-    if (Uz === 0) continue;
-    R[e] -= Uz * (Tair[z] - T[e]);
-    res[z] -= Uz * (T[e] - Tair[z]);
-  }
-  const dp = ch.dp;
-  const w = ch.w;
-  dp[0] = -R[0];
-  for (let i = 1; i < n; i++) dp[i] = -R[i] - w[i] * dp[i - 1];
-}
-
-/**
- * A wall's rows after a Newton iteration: every row of a wall is linear in the wall's own temperatures,
- * and the last iteration moved them all by the exact solution of those rows (T + δ, no table), so each
- * row's residual is zero to round-off except the end node's, which also sees the zones and any body in
- * contact (whose update may have been placed through its table's inverse, backSubstituteTable). So only
- * that row is formed; the forward sweep of zeros leaves zeros (dp = 0 inside, −R at the end).
- */
-function endResidualOnly(ch: Chain, invH: number, Gout: number, Tout: number, Tair: Float64Array, nZ: number, res: Float64Array): void {
-  const n = ch.n;
-  const e = n - 1;
-  const T = ch.T;
-  const dp = ch.dp;
-  let Re = ch.mass[e] * invH * (T[e] - ch.Hold[e]) - ch.extra;
-  if (e > 0) Re -= ch.Gfac[e - 1] * (T[e - 1] - T[e]);
-  else if (Gout > 0) Re -= Gout * (Tout - T[0]);
-  const U = ch.U;
-  for (let z = 0; z < nZ; z++) {
-    const Uz = U[z];
-    if (Uz === 0) continue;
-    Re -= Uz * (Tair[z] - T[e]);
-    res[z] -= Uz * (T[e] - Tair[z]);
-  }
-  for (let i = 0; i < e; i++) dp[i] = 0;
-  dp[e] = -Re;
-}
-
-/** A chain's links in its tridiagonal Newton rows: each conductance G_i on both diagonals, −G_i off them. */
-function linkRows(n: number, G: Float64Array, a: Float64Array, b: Float64Array, c: Float64Array): void {
-  for (let i = 0; i < n - 1; i++) {
-    const g = G[i];
-    b[i] += g;
-    b[i + 1] += g;
-    c[i] = -g;
-    a[i + 1] = -g;
-  }
-  a[0] = 0;
-  c[n - 1] = 0;
-}
-
-/**
- * A wall chain (constant properties) has the same Newton matrix at every iteration of a step: its
- * diagonal (capacity/h, links, the outer film, contacts and zone couplings at the end node), its
- * off-diagonals and the forward-elimination multipliers are formed once per step here, so that each
- * iteration forms only the residual and sweeps it without a division.
- */
-function factorLinearChain(ch: Chain, invH: number, Gout: number, nZ: number): void {
-  const n = ch.n;
-  const { a, b, c, bp, w, bpInv, Gfac, mass, U } = ch;
-  for (let i = 0; i < n; i++) b[i] = mass[i] * invH;
-  linkRows(n, Gfac, a, b, c);
-  if (Gout > 0) b[0] += Gout;
-  b[n - 1] += ch.linkDiag;
-  for (let z = 0; z < nZ; z++) b[n - 1] += U[z];
-  bp[0] = b[0];
-  bpInv[0] = 1 / b[0];
-  for (let i = 1; i < n; i++) {
-    w[i] = a[i] * bpInv[i - 1];
-    bp[i] = b[i] - w[i] * c[i - 1];
-    bpInv[i] = 1 / bp[i];
+  bp[nW] = b[nW];
+  bpInv[nW] = 1 / b[nW];
+  dp[nW] = -R[nW];
+  for (let j = nW + 1; j < nT; j++) {
+    const w = a[j] * bpInv[j - 1];
+    bp[j] = b[j] - w * c[j - 1];
+    bpInv[j] = 1 / bp[j];
+    dp[j] = -R[j] - w * dp[j - 1];
   }
 }
 
@@ -1275,81 +1338,58 @@ function zoneSchurMatrix(U: Float64Array, bpn: number, A: Float64Array, nK: numb
   }
 }
 
-/** Back substitution of one chain from its end node's update (given for a node in the dense system, NaN to derive it from the zones); returns the largest |δT|. */
-function backSubstitute(ch: Chain, endDelta: number, d: Float64Array, nZ: number, zoneRow: Int32Array): number {
-  const n = ch.n;
-  const T = ch.T;
-  const inv = ch.bpInv;
-  const dp = ch.dp;
-  const c = ch.c;
-  let next = endDelta;
-  if (next !== next) {
-    let coupled = dp[n - 1];
-    const U = ch.U;
-    for (let z = 0; z < nZ; z++) coupled += U[z] * d[zoneRow[z]];
-    next = coupled * inv[n - 1];
+/**
+ * Back substitution of every chain from its end node's update (a node in the dense system: its solution;
+ * else derived from the zones'); returns the largest |δT|. Walls move by T + δ. Bodies also move H along the
+ * same linearisation, H + c·δ, the energy the Newton rows store; for a tabulated body, while T + δ stays in
+ * the node's table cell that H is the table's at T + δ, and when it leaves the cell (a node crossing a
+ * melting band's edge, where the slope jumps) T is placed from that H through the table's inverse instead
+ * [swaminathanVoller1992], so that a node never overshoots a band it has only begun to enter and Newton
+ * does not cycle between its two sides. The largest |δ| is that of the linear update (not the placed |ΔT|:
+ * a node entering a band moves little in T for a large change in H, and must not count as converged).
+ */
+function backSubstituteAll(S: NewtonSystem, d: Float64Array): number {
+  const F = S.F;
+  const { T, Hn, cn, c, dp, bpInv, isEnd, endDelta, table, end } = F;
+  const { chains, keyRow, zoneRow, nZ } = S;
+  for (let ci = 0; ci < chains.length; ci++) {
+    const row = keyRow[ci];
+    const e = end[ci];
+    if (row >= 0) endDelta[e] = d[row];
+    else {
+      let coupled = dp[e];
+      const U = chains[ci].U;
+      for (let z = 0; z < nZ; z++) coupled += U[z] * d[zoneRow[z]];
+      endDelta[e] = coupled * bpInv[e];
+    }
   }
-  const table = ch.table;
-  if (table) return backSubstituteTable(ch, table, next);
-  // Enthalpy chains also move H along the same linearisation (H + c·δ): the energy the Newton rows store.
-  const mat = ch.mat !== null;
-  const Hn = ch.Hn;
-  const cn = ch.cn;
-  T[n - 1] += next;
-  if (mat) Hn[n - 1] += cn[n - 1] * next;
-  let maxStep = Math.abs(next);
-  for (let i = n - 2; i >= 0; i--) {
-    next = (dp[i] - c[i] * next) * inv[i];
-    T[i] += next;
-    if (mat) Hn[i] += cn[i] * next;
-    const m = Math.abs(next);
+  const nW = F.nW;
+  let maxStep = 0;
+  let next = 0;
+  for (let j = nW - 1; j >= 0; j--) {
+    next = isEnd[j] ? endDelta[j] : (dp[j] - c[j] * next) * bpInv[j];
+    T[j] += next;
+    const m = next < 0 ? -next : next;
     if (m > maxStep) maxStep = m;
   }
-  return maxStep;
-}
-
-/**
- * Back substitution of a tabulated chain (foods, packs): H moves along the linearisation, H + c·δ, the
- * energy the Newton rows store. While T + δ stays in the node's table cell that H is the table's at T + δ;
- * when it leaves the cell (a node crossing a melting band's edge, where the slope jumps), T is placed from
- * that H through the table's inverse instead of at T + δ [swaminathanVoller1992], so that a node never
- * overshoots a band it has only begun to enter and Newton does not cycle between its two sides. Returns
- * the largest |δ| of the linear update (not the placed |ΔT|: a node entering a band moves little in T for
- * a large change in H, and must not count as converged).
- */
-function backSubstituteTable(ch: Chain, table: PropertyTable, endDelta: number): number {
-  const n = ch.n;
-  const T = ch.T;
-  const inv = ch.bpInv;
-  const dp = ch.dp;
-  const c = ch.c;
-  const Hn = ch.Hn;
-  const cn = ch.cn;
-  let next = endDelta;
-  let maxStep = 0;
-  for (let i = n - 1; i >= 0; i--) {
-    if (i < n - 1) next = (dp[i] - c[i] * next) * inv[i];
-    const Ti = T[i];
-    const Tlin = Ti + next;
-    const H = Hn[i] + cn[i] * next;
-    Hn[i] = H;
-    T[i] = tableCell(table, Tlin) === tableCell(table, Ti) ? Tlin : tableT(table, H);
+  for (let j = F.nT - 1; j >= nW; j--) {
+    next = isEnd[j] ? endDelta[j] : (dp[j] - c[j] * next) * bpInv[j];
+    const tb = table[j];
+    if (tb) {
+      const Tj = T[j];
+      const Tlin = Tj + next;
+      const H = Hn[j] + cn[j] * next;
+      Hn[j] = H;
+      T[j] = tableCell(tb, Tlin) === tableCell(tb, Tj) ? Tlin : tableT(tb, H);
+    } else {
+      T[j] += next;
+      Hn[j] += cn[j] * next;
+    }
     const m = next < 0 ? -next : next;
     if (m > maxStep) maxStep = m;
   }
   return maxStep;
 }
-
-/** Capacity terms of an enthalpy chain's rows: diagonal m·c/h and residual m·(H − H_old)/h. */
-function capacityRows(n: number, mass: Float64Array, c: Float64Array, H: Float64Array, Hold: Float64Array, invH: number, b: Float64Array, R: Float64Array): void {
-  for (let i = 0; i < n; i++) {
-    const m = mass[i] * invH;
-    b[i] = m * c[i];
-    R[i] = m * (H[i] - Hold[i]);
-  }
-}
-
-
 
 /** Outer combined coefficient of a box in given air, from the core's correlations plus radiation. */
 export function boxOuterCoefficient(outer: { length_m: number; width_m: number; height_m: number }, air_C: number, speed_m_s: number, emissivity: number, surfaceMinusAir_K: number): number {
