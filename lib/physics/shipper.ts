@@ -241,38 +241,42 @@ interface Chain {
 }
 
 function newChain(n: number, zones: number): Chain {
-  const f = () => new Float64Array(n);
+  // Only what the builders fill is allocated here; every node array becomes a view into the network's
+  // arrays when the chains are laid end to end (flattenChains), which copies T, mass and Gfac over.
+  const none = EMPTY_NODES;
   return {
     n,
-    T: f(),
-    Told: f(),
-    Hold: f(),
-    Hcur: f(),
-    Hs: f(),
-    Hm1: f(),
-    Hm2: f(),
-    Hn: f(),
-    cn: f(),
-    mass: f(),
+    T: new Float64Array(n),
+    Told: none,
+    Hold: none,
+    Hcur: none,
+    Hs: none,
+    Hm1: none,
+    Hm2: none,
+    Hn: none,
+    cn: none,
+    mass: new Float64Array(n),
     Gfac: new Float64Array(Math.max(0, n - 1)),
-    Gk: new Float64Array(Math.max(0, n - 1)),
+    Gk: none,
     mat: null,
     table: null,
     U: new Float64Array(zones),
-    a: f(),
-    b: f(),
-    c: f(),
-    R: f(),
-    bp: f(),
-    dp: f(),
-    w: f(),
-    bpInv: f(),
-    Tp: f(),
+    a: none,
+    b: none,
+    c: none,
+    R: none,
+    bp: none,
+    dp: none,
+    w: none,
+    bpInv: none,
+    Tp: none,
     linkDiag: 0,
-    k: f(),
-    rate0: f(),
+    k: none,
+    rate0: none,
   };
 }
+/** The placeholder of a chain's node arrays until flattenChains. */
+const EMPTY_NODES = new Float64Array(0);
 
 /** Builds a wall chain: nodes outside → inside; first node couples to the outer film, last to the inner side. */
 function wallChain(layers: WallLayerSpec[], area: number, refine: number, zones: number): { chain: Chain; halfOuter_K_W: number; halfInner_K_W: number } {
@@ -510,7 +514,7 @@ function flattenChains(chains: Chain[], nFaces: number): Nodes {
     const ch = chains[ci];
     const s0 = start[ci];
     for (const key of NODE_FIELDS) {
-      F[key].set(ch[key], s0);
+      if (ch[key].length) F[key].set(ch[key], s0);
       ch[key] = F[key].subarray(s0, s0 + ch.n);
     }
     F.Gfac.set(ch.Gfac, s0);
@@ -621,6 +625,7 @@ function buildNetwork(spec: NetworkSpec): Net {
   // Bodies.
   const bodyStart = chains.length;
   for (const b of spec.bodies) chains.push(bodyChain(b, nZ));
+  const F = flattenChains(chains, nFaces);
   // Every surface contact, as pairs of chain indices (last node to last node).
   const links: Link[] = [];
   for (const c of spec.contacts) links.push({ a: bodyStart + c.a, b: bodyStart + c.b, G: c.conductance_W_K });
@@ -666,7 +671,6 @@ function buildNetwork(spec: NetworkSpec): Net {
     bodySurface_C: new Float64Array(nB),
     bodyMeanH_J_kg: new Float64Array(nB),
   };
-  const F = flattenChains(chains, nFaces);
   return {
     spec,
     chains,
