@@ -1384,7 +1384,8 @@ function backSubstituteAll(S: NewtonSystem, d: Float64Array): number {
       const Tlin = Tj + next;
       const H = Hn[j] + cn[j] * next;
       Hn[j] = H;
-      T[j] = tableCell(tb, Tlin) === tableCell(tb, Tj) ? Tlin : tableT(tb, H);
+      const cell = tableCell(tb, Tlin);
+      T[j] = cell === tableCell(tb, Tj) ? Tlin : tableT(tb, H, cell);
     } else {
       T[j] += next;
       Hn[j] += cn[j] * next;

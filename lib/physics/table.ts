@@ -106,15 +106,21 @@ export function tableCell(t: PropertyTable, T_C: number): number {
  * slopes extend it linearly, as tableH does. Where H is flat over a range of T (c = 0), the top of that
  * range. The solvers use it to place a node from the enthalpy its Newton update reached when that update
  * leaves the node's cell (the enthalpy-update form of Swaminathan & Voller [swaminathanVoller1992]).
+ * `hint`, a cell near the answer (the cell of T + δ), replaces the binary search by a walk; the cell is the same.
  */
-export function tableT(t: PropertyTable, H_J_kg: number): number {
+export function tableT(t: PropertyTable, H_J_kg: number, hint = -1): number {
   const Ht = t.H;
   const last = Ht.length - 2;
   let lo = 0;
   let hi = last;
   if (H_J_kg <= Ht[0]) hi = 0;
   else if (H_J_kg >= Ht[last + 1]) lo = last;
-  else {
+  else if (hint >= 0) {
+    // From a nearby cell (a node's update leaves its cell by a few cells at most): walk to the same cell.
+    lo = hint > last ? last : hint;
+    while (lo > 0 && Ht[lo] > H_J_kg) lo--;
+    while (lo < last && Ht[lo + 1] <= H_J_kg) lo++;
+  } else {
     // Largest i with Ht[i] <= H, in 0 … last.
     while (lo < hi) {
       const mid = (lo + hi + 1) >> 1;
