@@ -1195,9 +1195,16 @@ function factorWalls(S: NewtonSystem, invH: number): void {
   }
   bp[0] = b[0];
   bpInv[0] = 1 / b[0];
+  // At a chain's first node (a = 0) the elimination starts afresh: written as a branch, so that the
+  // processor need not wait for the last chain's pivots (each chain's sweep is serial, the chains are not).
   for (let j = 1; j < nW; j++) {
-    w[j] = a[j] * bpInv[j - 1];
-    bp[j] = b[j] - w[j] * c[j - 1];
+    if (a[j] === 0) {
+      w[j] = 0;
+      bp[j] = b[j];
+    } else {
+      w[j] = a[j] * bpInv[j - 1];
+      bp[j] = b[j] - w[j] * c[j - 1];
+    }
     bpInv[j] = 1 / bp[j];
   }
 }
@@ -1230,7 +1237,7 @@ function assembleWalls(S: NewtonSystem, invH: number, res: Float64Array): void {
     }
   }
   dp[0] = -R[0];
-  for (let j = 1; j < nW; j++) dp[j] = -R[j] - w[j] * dp[j - 1];
+  for (let j = 1; j < nW; j++) dp[j] = w[j] === 0 ? -R[j] : -R[j] - w[j] * dp[j - 1];
 }
 
 /**
@@ -1316,11 +1323,17 @@ function assembleBodies(S: NewtonSystem, invH: number, res: Float64Array): void 
   bp[nW] = b[nW];
   bpInv[nW] = 1 / b[nW];
   dp[nW] = -R[nW];
+  // A chain's first node (a = 0) starts afresh, as a branch (factorWalls).
   for (let j = nW + 1; j < nT; j++) {
-    const w = a[j] * bpInv[j - 1];
-    bp[j] = b[j] - w * c[j - 1];
+    if (a[j] === 0) {
+      bp[j] = b[j];
+      dp[j] = -R[j];
+    } else {
+      const w = a[j] * bpInv[j - 1];
+      bp[j] = b[j] - w * c[j - 1];
+      dp[j] = -R[j] - w * dp[j - 1];
+    }
     bpInv[j] = 1 / bp[j];
-    dp[j] = -R[j] - w * dp[j - 1];
   }
 }
 
