@@ -482,8 +482,9 @@ interface Nodes extends Record<(typeof NODE_FIELDS)[number], Float64Array> {
   isEnd: Uint8Array;
   /** The update of each chain's last node, at that node (back substitution). */
   endDelta: Float64Array;
-  /** Each node's property table (tabulated bodies), else null. */
+  /** Each node's property table (tabulated bodies), else null, and the cell its T was in at this iteration's look-up. */
   table: (PropertyTable | null)[];
+  cell: Int32Array;
 }
 
 /** Lays the chains' nodes end to end (Nodes) and makes each chain's arrays views into them. */
@@ -509,6 +510,7 @@ function flattenChains(chains: Chain[], nFaces: number): Nodes {
     isEnd: new Uint8Array(nT),
     endDelta: f(),
     table: new Array<PropertyTable | null>(nT).fill(null),
+    cell: new Int32Array(nT),
   };
   for (let ci = 0; ci < chains.length; ci++) {
     const ch = chains[ci];
@@ -1278,12 +1280,12 @@ function assembleBodies(S: NewtonSystem, invH: number, res: Float64Array): void 
   const nW = F.nW;
   const nT = F.nT;
   if (nT === nW) return;
-  const { T, Hn, cn, k, mass, Hold, Gfac, Gk, a, b, c, R, bp, dp, bpInv, start, end, extra } = F;
+  const { T, Hn, cn, k, mass, Hold, Gfac, Gk, a, b, c, R, bp, dp, bpInv, start, end, extra, cell } = F;
   const { chains, Tair, nZ } = S;
   for (let ci = S.nFaces; ci < chains.length; ci++) {
     const ch = chains[ci];
     const s0 = start[ci];
-    if (ch.table) evalTable(ch.table, T, s0, s0 + ch.n, Hn, cn, k, 1);
+    if (ch.table) evalTable(ch.table, T, s0, s0 + ch.n, Hn, cn, k, 1, cell);
     else if (ch.mat) evalMaterial(ch.mat, T, s0, s0 + ch.n, Hn, cn, k, 1);
   }
   for (let j = nW; j < nT; j++) {
@@ -1367,7 +1369,7 @@ function zoneSchurMatrix(U: Float64Array, bpn: number, A: Float64Array, nK: numb
  */
 function backSubstituteAll(S: NewtonSystem, d: Float64Array): number {
   const F = S.F;
-  const { T, Hn, cn, c, dp, bpInv, isEnd, endDelta, table, end } = F;
+  const { T, Hn, cn, c, dp, bpInv, isEnd, endDelta, table, end, cell } = F;
   const { chains, keyRow, zoneRow, nZ } = S;
   for (let ci = 0; ci < chains.length; ci++) {
     const row = keyRow[ci];
@@ -1397,8 +1399,8 @@ function backSubstituteAll(S: NewtonSystem, d: Float64Array): number {
       const Tlin = Tj + next;
       const H = Hn[j] + cn[j] * next;
       Hn[j] = H;
-      const cell = tableCell(tb, Tlin);
-      T[j] = cell === tableCell(tb, Tj) ? Tlin : tableT(tb, H, cell);
+      const to = tableCell(tb, Tlin);
+      T[j] = to === cell[j] ? Tlin : tableT(tb, H, to);
     } else {
       T[j] += next;
       Hn[j] += cn[j] * next;

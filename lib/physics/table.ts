@@ -54,9 +54,10 @@ export function tableK(t: PropertyTable, T_C: number): number {
 
 /**
  * The fused kernel: for nodes `from` … `to − 1` of T, writes H, dH/dT (at least `cMin`) and k from one
- * index per node. No allocation; the solvers call it once per Newton iteration.
+ * index per node, and that index (the node's cell, as tableCell) into `cellOut` when given. No
+ * allocation; the solvers call it once per Newton iteration.
  */
-export function evalTable(t: PropertyTable, T: Float64Array, from: number, to: number, Hout: Float64Array, cOut: Float64Array, kOut: Float64Array, cMin: number): void {
+export function evalTable(t: PropertyTable, T: Float64Array, from: number, to: number, Hout: Float64Array, cOut: Float64Array, kOut: Float64Array, cMin: number, cellOut?: Int32Array): void {
   const Ht = t.H;
   const Kt = t.k;
   const T0 = t.T0_C;
@@ -67,6 +68,7 @@ export function evalTable(t: PropertyTable, T: Float64Array, from: number, to: n
     let i = Math.floor(u);
     if (i < 0) i = 0;
     else if (i > last) i = last;
+    if (cellOut !== undefined) cellOut[j] = i;
     const f = u - i;
     const H0 = Ht[i];
     const dH = Ht[i + 1] - H0;
