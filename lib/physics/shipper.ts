@@ -198,85 +198,30 @@ const RESTART_FRACTION = 1 / 60;
  */
 const ERROR_C_J_KGK = 3000;
 
+/**
+ * A chain as built: its node count, the builders' starting temperatures, node capacities (kg for enthalpy
+ * chains, J/K for walls) and link factors (W/K per W/(m·K) for enthalpy chains, W/K for walls), its
+ * material, and its last node's couplings. Once the chains are laid end to end (flattenChains), T, mass
+ * and Gfac are views into the network's node arrays, where every other per-node quantity lives.
+ */
 interface Chain {
   n: number;
   T: Float64Array;
-  Told: Float64Array;
-  Hold: Float64Array;
-  /** H of the current temperatures (enthalpy chains), carried from the last Newton iteration. */
-  Hcur: Float64Array;
-  /** Stored quantity (H, or T for linear chains) at the step's start and the two accepted steps before (BDF2 history). */
-  Hs: Float64Array;
-  Hm1: Float64Array;
-  Hm2: Float64Array;
-  /** H and dH/dT of this iteration (enthalpy chains). */
-  Hn: Float64Array;
-  cn: Float64Array;
-  mass: Float64Array; // kg per node (enthalpy chains) or heat capacity J/K (linear chains)
-  Gfac: Float64Array; // n-1 link factors: W/K per (W/(m·K)) for enthalpy chains, or W/K for linear chains
-  /** Link conductances of this iteration (enthalpy chains), W/K. */
-  Gk: Float64Array;
+  mass: Float64Array;
+  /** n − 1 link factors. */
+  Gfac: Float64Array;
   mat: EnthalpyMaterial | null;
   /** The material's table when it has one (foods and packs): read directly, so one monomorphic look-up serves every chain. */
   table: PropertyTable | null;
   /** Coupling of the last node to each air zone, W/K. */
   U: Float64Array;
-  // Newton work arrays
-  a: Float64Array;
-  b: Float64Array;
-  c: Float64Array;
-  R: Float64Array;
-  bp: Float64Array;
-  dp: Float64Array;
-  /** Forward-elimination multipliers a_i/bp_(i−1) and 1/bp (walls: formed once per step). */
-  w: Float64Array;
-  bpInv: Float64Array;
-  /** Temperatures at the start of the previous step (the predictor's history). */
-  Tp: Float64Array;
-  linkDiag: number; // sum of the last node's contact conductances, W/K
-
-  k: Float64Array; // node conductivities of this iteration (enthalpy chains)
-  /** Rate of the stored quantity at the step's start (per kg, or per J/K), kept on a restart's first step for its error estimate. */
-  rate0: Float64Array;
+  /** Sum of the last node's contact conductances, W/K. */
+  linkDiag: number;
 }
 
 function newChain(n: number, zones: number): Chain {
-  // Only what the builders fill is allocated here; every node array becomes a view into the network's
-  // arrays when the chains are laid end to end (flattenChains), which copies T, mass and Gfac over.
-  const none = EMPTY_NODES;
-  return {
-    n,
-    T: new Float64Array(n),
-    Told: none,
-    Hold: none,
-    Hcur: none,
-    Hs: none,
-    Hm1: none,
-    Hm2: none,
-    Hn: none,
-    cn: none,
-    mass: new Float64Array(n),
-    Gfac: new Float64Array(Math.max(0, n - 1)),
-    Gk: none,
-    mat: null,
-    table: null,
-    U: new Float64Array(zones),
-    a: none,
-    b: none,
-    c: none,
-    R: none,
-    bp: none,
-    dp: none,
-    w: none,
-    bpInv: none,
-    Tp: none,
-    linkDiag: 0,
-    k: none,
-    rate0: none,
-  };
+  return { n, T: new Float64Array(n), mass: new Float64Array(n), Gfac: new Float64Array(Math.max(0, n - 1)), mat: null, table: null, U: new Float64Array(zones), linkDiag: 0 };
 }
-/** The placeholder of a chain's node arrays until flattenChains. */
-const EMPTY_NODES = new Float64Array(0);
 
 /** Builds a wall chain: nodes outside → inside; first node couples to the outer film, last to the inner side. */
 function wallChain(layers: WallLayerSpec[], area: number, refine: number, zones: number): { chain: Chain; halfOuter_K_W: number; halfInner_K_W: number } {
@@ -456,17 +401,23 @@ function solveSparse(E: Elimination, A: Float64Array, r: Float64Array, x: Float6
   }
 }
 
-/** The per-node arrays of a chain that are laid end to end over the whole network (Nodes). */
-const NODE_FIELDS = ["T", "Told", "Hold", "Hcur", "Hs", "Hm1", "Hm2", "Hn", "cn", "mass", "a", "b", "c", "R", "bp", "dp", "w", "bpInv", "Tp", "k", "rate0"] as const;
+/** The network's per-node arrays (Nodes). */
+type NodeField = "T" | "Told" | "Hold" | "Hcur" | "Hs" | "Hm1" | "Hm2" | "Hn" | "cn" | "mass" | "a" | "b" | "c" | "R" | "bp" | "dp" | "w" | "bpInv" | "Tp" | "k" | "rate0";
 
 /**
  * Every chain's nodes laid end to end (faces first, nodes outside → inside; then bodies, centre → surface),
- * each chain's own arrays being views into these, so that the Newton kernels sweep all the walls, and all
+ * so that the Newton kernels sweep all the walls, and all
  * the bodies, each in one loop instead of one call per chain. A chain's last link factor is zero, and so
  * are its first sub-diagonal and last super-diagonal entries: the sweeps pass from one chain to the next
  * without coupling them (each chain's end node takes its update from the dense system).
  */
-interface Nodes extends Record<(typeof NODE_FIELDS)[number], Float64Array> {
+interface Nodes extends Record<NodeField, Float64Array> {
+  // T and Told: temperatures now and at the step's start; Hold: the history term H* the step starts from;
+  // Hcur: H carried from the last Newton iteration (bodies); Hs, Hm1, Hm2: the stored quantity (H, or T for
+  // walls) at the step's start and the two accepted steps before (BDF2); Hn, cn, k: this iteration's H,
+  // dH/dT and conductivity (bodies); mass: kg (bodies) or J/K (walls); a, b, c, R: the tridiagonal rows and
+  // residual; bp, dp, w, bpInv: forward elimination (pivots, right-hand side, multipliers, 1/pivot); Tp: the
+  // predictor's history; rate0: the stored quantity's rate at a restart's first step.
   /** All nodes; the walls' (faces first) are 0 … nW − 1. */
   nT: number;
   nW: number;
@@ -487,7 +438,7 @@ interface Nodes extends Record<(typeof NODE_FIELDS)[number], Float64Array> {
   cell: Int32Array;
 }
 
-/** Lays the chains' nodes end to end (Nodes) and makes each chain's arrays views into them. */
+/** Lays the chains' nodes end to end (Nodes); each chain's T, mass and Gfac become views into them. */
 function flattenChains(chains: Chain[], nFaces: number): Nodes {
   const start = new Int32Array(chains.length);
   const end = new Int32Array(chains.length);
@@ -515,13 +466,12 @@ function flattenChains(chains: Chain[], nFaces: number): Nodes {
   for (let ci = 0; ci < chains.length; ci++) {
     const ch = chains[ci];
     const s0 = start[ci];
-    for (const key of NODE_FIELDS) {
-      if (ch[key].length) F[key].set(ch[key], s0);
-      ch[key] = F[key].subarray(s0, s0 + ch.n);
-    }
+    F.T.set(ch.T, s0);
+    ch.T = F.T.subarray(s0, s0 + ch.n);
+    F.mass.set(ch.mass, s0);
+    ch.mass = F.mass.subarray(s0, s0 + ch.n);
     F.Gfac.set(ch.Gfac, s0);
     ch.Gfac = F.Gfac.subarray(s0, s0 + ch.n - 1);
-    ch.Gk = F.Gk.subarray(s0, s0 + ch.n - 1);
     F.isEnd[end[ci]] = 1;
     for (let i = 0; i < ch.n; i++) F.table[s0 + i] = ch.table;
   }
@@ -658,7 +608,10 @@ function buildNetwork(spec: NetworkSpec): Net {
   }
   // The stored energy: zones and walls from their temperatures, bodies from their carried enthalpy
   // (evaluated from the starting temperatures once, then carried step to step: see newtonStep).
-  for (const ch of chains) if (ch.mat) evalMaterialH(ch.mat, ch.T, 0, ch.n, ch.Hcur);
+  for (let ci = 0; ci < chains.length; ci++) {
+    const ch = chains[ci];
+    if (ch.mat) evalMaterialH(ch.mat, F.T, F.start[ci], F.start[ci] + ch.n, F.Hcur);
+  }
   let airCapacity = 0;
   for (let z = 0; z < nZ; z++) airCapacity += Cair[z];
   let heatCapacity = airCapacity;
@@ -725,11 +678,9 @@ function buildNetwork(spec: NetworkSpec): Net {
 function storedEnergy(S: Net): number {
   let e = 0;
   for (let z = 0; z < S.nZ; z++) e += S.Cair[z] * S.Tair[z];
-  for (let ci = 0; ci < S.chains.length; ci++) {
-    const ch = S.chains[ci];
-    const q = ch.mat ? ch.Hcur : ch.T;
-    for (let i = 0; i < ch.n; i++) e += ch.mass[i] * q[i];
-  }
+  const { T, Hcur, mass, nW, nT } = S.F;
+  for (let j = 0; j < nW; j++) e += mass[j] * T[j];
+  for (let j = nW; j < nT; j++) e += mass[j] * Hcur[j];
   return e;
 }
 
@@ -742,16 +693,17 @@ function fillState(S: Net): void {
     s += S.Cair[z] * S.Tair[z];
   }
   st.air_C = s / S.airCapacity;
+  const { T, Hcur, mass, start, end } = S.F;
   for (let j = 0; j < S.nBodies; j++) {
-    const ch = S.chains[S.bodyStart + j];
-    const n = ch.n;
-    st.bodyCenter_C[j] = ch.T[0];
-    st.bodySurface_C[j] = ch.T[n - 1];
+    const s0 = start[S.bodyStart + j];
+    const e = end[S.bodyStart + j];
+    st.bodyCenter_C[j] = T[s0];
+    st.bodySurface_C[j] = T[e];
     let hm = 0;
     let m = 0;
-    for (let i = 0; i < n; i++) {
-      hm += ch.mass[i] * ch.Hcur[i];
-      m += ch.mass[i];
+    for (let i = s0; i <= e; i++) {
+      hm += mass[i] * Hcur[i];
+      m += mass[i];
     }
     st.bodyMeanH_J_kg[j] = hm / m;
   }
@@ -814,7 +766,7 @@ function finishStep(S: Net, air_C: number, Gedge: number, Gopen: number, h: numb
   const pf = S.pathFlow;
   const pp = S.pathPrev;
   pf.fill(0);
-  for (let ci = 0; ci < S.nFaces; ci++) pf[S.faceKind[ci]] += S.outerG[ci] * (S.outerT[ci] - S.chains[ci].T[0]);
+  for (let ci = 0; ci < S.nFaces; ci++) pf[S.faceKind[ci]] += S.outerG[ci] * (S.outerT[ci] - F.T[F.start[ci]]);
   for (let z = 0; z < S.nZ; z++) {
     pf[4] += Gedge * S.edgeShare[z] * (air_C - S.Tair[z]);
     pf[5] += Gopen * S.openShare[z] * (air_C - S.Tair[z]);
@@ -1049,11 +1001,10 @@ function fixedSystem(S: NewtonSystem, invH: number, Gedge: number, Gopen: number
   // The walls' eliminated rows are the same at every iteration of the step (factorLinearChain): their
   // share of the dense matrix is fixed too, the end node's pivot or the Schur complement onto the zones.
   for (let ci = 0; ci < S.nFaces; ci++) {
-    const ch = chains[ci];
     const row = keyRow[ci];
-    const bpn = ch.bp[ch.n - 1];
+    const bpn = S.F.bp[S.F.end[ci]];
     if (row >= 0) A0[row * nK + row] += bpn;
-    else zoneSchurMatrix(ch.U, bpn, A0, nK, nZ, zoneRow);
+    else zoneSchurMatrix(chains[ci].U, bpn, A0, nK, nZ, zoneRow);
   }
 }
 
@@ -1099,7 +1050,7 @@ function newtonStep(S: NewtonSystem, invH: number, Gedge: number, Gopen: number,
         const e = end[ci];
         if (!wall) A[row * nK + row] += bp[e];
         rhs[row] += dp[e];
-      } else schurOntoZones(chains[ci], A, rhs, nK, nZ, zoneRow, !wall);
+      } else schurOntoZones(chains[ci].U, bp[end[ci]], dp[end[ci]], A, rhs, nK, nZ, zoneRow, !wall);
     }
     for (let z = 0; z < nZ; z++) rhs[zoneRow[z]] -= res[z];
     if (it === 0 && keepRates) keepStartRates(S, invH);
@@ -1127,13 +1078,10 @@ function newtonStep(S: NewtonSystem, invH: number, Gedge: number, Gopen: number,
  * minus the heat flowing into each node there: the rates F(E⁰), per kg (bodies) or per J/K (walls, zones).
  */
 function keepStartRates(S: NewtonSystem, invH: number): void {
-  const { chains, nZ, res, Cair, Tair, TairStar, rate0Air } = S;
-  for (let ci = 0; ci < chains.length; ci++) {
-    const ch = chains[ci];
-    const q = ch.mat ? ch.Hn : ch.T;
-    const { R, mass, Hold, rate0 } = ch;
-    for (let i = 0; i < ch.n; i++) rate0[i] = invH * (q[i] - Hold[i]) - R[i] / mass[i];
-  }
+  const { nZ, res, Cair, Tair, TairStar, rate0Air } = S;
+  const { T, Hn, R, mass, Hold, rate0, nW, nT } = S.F;
+  for (let j = 0; j < nW; j++) rate0[j] = invH * (T[j] - Hold[j]) - R[j] / mass[j];
+  for (let j = nW; j < nT; j++) rate0[j] = invH * (Hn[j] - Hold[j]) - R[j] / mass[j];
   for (let z = 0; z < nZ; z++) rate0Air[z] = invH * (Tair[z] - TairStar[z]) - res[z] / Cair[z];
 }
 
@@ -1143,15 +1091,15 @@ function keepStartRates(S: NewtonSystem, invH: number): void {
  */
 function eulerStepError(S: Net, h: number): number {
   let m = 0;
-  for (let ci = 0; ci < S.chains.length; ci++) {
-    const ch = S.chains[ci];
-    const now = ch.mat ? ch.Hn : ch.T;
-    const sc = ch.mat ? 1 / ERROR_C_J_KGK : 1;
-    const { Hs, rate0 } = ch;
-    for (let i = 0; i < ch.n; i++) {
-      const d = 0.5 * sc * Math.abs(now[i] - Hs[i] - h * rate0[i]);
-      if (d > m) m = d;
-    }
+  const { T, Hn, Hs, rate0, nW, nT } = S.F;
+  for (let j = 0; j < nW; j++) {
+    const d = 0.5 * 1 * Math.abs(T[j] - Hs[j] - h * rate0[j]);
+    if (d > m) m = d;
+  }
+  const sc = 1 / ERROR_C_J_KGK;
+  for (let j = nW; j < nT; j++) {
+    const d = 0.5 * sc * Math.abs(Hn[j] - Hs[j] - h * rate0[j]);
+    if (d > m) m = d;
   }
   const { Tair, TairOld, rate0Air } = S;
   for (let z = 0; z < S.nZ; z++) {
@@ -1340,10 +1288,7 @@ function assembleBodies(S: NewtonSystem, invH: number, res: Float64Array): void 
 }
 
 /** A chain whose end node only touches the zones: δ_end = (dp + Σ U_z δ_z)/bp, its Schur complement onto the zones' rows. */
-function schurOntoZones(ch: Chain, A: Float64Array, rhs: Float64Array, nK: number, nZ: number, zoneRow: Int32Array, withMatrix: boolean): void {
-  const bpn = ch.bp[ch.n - 1];
-  const dpn = ch.dp[ch.n - 1];
-  const U = ch.U;
+function schurOntoZones(U: Float64Array, bpn: number, dpn: number, A: Float64Array, rhs: Float64Array, nK: number, nZ: number, zoneRow: Int32Array, withMatrix: boolean): void {
   for (let z = 0; z < nZ; z++) if (U[z] !== 0) rhs[zoneRow[z]] += (U[z] * dpn) / bpn;
   if (withMatrix) zoneSchurMatrix(U, bpn, A, nK, nZ, zoneRow);
 }
