@@ -998,7 +998,7 @@ function fixedSystem(S: NewtonSystem, invH: number, Gedge: number, Gopen: number
       A0[zr * nK + row] -= U[z];
     }
   }
-  // The walls' eliminated rows are the same at every iteration of the step (factorLinearChain): their
+  // The walls' eliminated rows are the same at every iteration of the step (factorWalls): their
   // share of the dense matrix is fixed too, the end node's pivot or the Schur complement onto the zones.
   for (let ci = 0; ci < S.nFaces; ci++) {
     const row = keyRow[ci];
