@@ -273,6 +273,13 @@ export const BIBLIOGRAPHY = {
     where: "C&J §2.7; Incropera 6th ed. §5.7, Eq. 5.60 (semi-infinite solid whose surface exchanges heat by a coefficient h with a medium at a fixed temperature: (Ts − Ti)/(T∞ − Ti) = 1 − exp(β²)·erfc(β), β = h√(αt)/k)",
     note: "section and equation numbers from memory",
   },
+  golubVanLoan2013: {
+    authors: "G. H. Golub, C. F. Van Loan",
+    title: "Matrix Computations, 4th ed.",
+    year: 2013,
+    where: "Ch. 4 (symmetric systems: LDLᵀ, Gaussian elimination that keeps symmetry and works on one triangle)",
+    note: "chapter from memory",
+  },
   patankar1980: {
     authors: "S. V. Patankar",
     title: "Numerical Heat Transfer and Fluid Flow",

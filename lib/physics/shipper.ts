@@ -321,14 +321,12 @@ function bodyChain(b: BodySpec, zones: number): Chain {
 
 /**
  * The fill-in pattern of Gaussian elimination in row order on a symmetric pattern (entries listed as
- * pairs, the diagonal implied): for each pivot i, the rows below it with an entry in column i (`below`) and
- * the columns right of it with an entry in row i (`right`), as offsets into flat lists. Worked out once
- * per network; the numbers are eliminated over it on every Newton iteration.
+ * pairs, the diagonal implied): for each pivot i, the columns right of it with an entry in row i (`right`,
+ * ascending; by symmetry also the rows below it with an entry in column i), as offsets into a flat list.
+ * Worked out once per network; the numbers are eliminated over it on every Newton iteration.
  */
 interface Elimination {
   n: number;
-  belowStart: Int32Array;
-  below: Int32Array;
   rightStart: Int32Array;
   right: Int32Array;
 }
@@ -345,49 +343,43 @@ function eliminationPattern(n: number, pairs: [number, number][]): Elimination {
       for (let k = i + 1; k < n; k++) if (P[i * n + k]) P[j * n + k] = 1;
     }
   }
-  const belowStart = new Int32Array(n + 1);
   const rightStart = new Int32Array(n + 1);
-  const below: number[] = [];
   const right: number[] = [];
   for (let i = 0; i < n; i++) {
-    belowStart[i] = below.length;
     rightStart[i] = right.length;
-    for (let j = i + 1; j < n; j++) {
-      if (P[j * n + i]) below.push(j);
-      if (P[i * n + j]) right.push(j);
-    }
+    for (let j = i + 1; j < n; j++) if (P[i * n + j]) right.push(j);
   }
-  belowStart[n] = below.length;
   rightStart[n] = right.length;
-  return { n, belowStart, below: Int32Array.from(below), rightStart, right: Int32Array.from(right) };
+  return { n, rightStart, right: Int32Array.from(right) };
 }
 
 /**
- * Solves A x = r (A row-major n×n with the sparsity of `E`, overwritten; r overwritten) into x by Gaussian
- * elimination without pivoting (A is diagonally dominant), touching only the entries of the fill-in pattern.
+ * Solves A x = r for a symmetric A (row-major n×n with the sparsity of `E`; its upper triangle is
+ * overwritten, r too) into x by symmetric Gaussian elimination without pivoting (A is diagonally dominant):
+ * each pivot row updates only the upper triangle of the rows below it (the lower one stays the transpose
+ * and is never read), touching only the entries of the fill-in pattern (the LDLᵀ form of Gaussian
+ * elimination [golubVanLoan2013], from memory).
  */
 function solveSparse(E: Elimination, A: Float64Array, r: Float64Array, x: Float64Array): void {
   const n = E.n;
-  const below = E.below;
-  const belowStart = E.belowStart;
   const right = E.right;
   const rightStart = E.rightStart;
   for (let i = 0; i < n; i++) {
     const ii = i * n;
     const piv = A[ii + i];
-    const r0 = rightStart[i];
     const r1 = rightStart[i + 1];
-    for (let q = belowStart[i]; q < belowStart[i + 1]; q++) {
-      const j = below[q];
+    const ri = r[i];
+    for (let q = rightStart[i]; q < r1; q++) {
+      const j = right[q];
+      const aij = A[ii + j];
+      if (aij === 0) continue;
+      const f = aij / piv;
       const jj = j * n;
-      const aji = A[jj + i];
-      if (aji === 0) continue;
-      const f = aji / piv;
-      for (let p = r0; p < r1; p++) {
+      for (let p = q; p < r1; p++) {
         const k = right[p];
         A[jj + k] -= f * A[ii + k];
       }
-      r[j] -= f * r[i];
+      r[j] -= f * ri;
     }
   }
   for (let i = n - 1; i >= 0; i--) {
