@@ -398,8 +398,8 @@ type NodeField = "T" | "Told" | "Hold" | "Hcur" | "Hs" | "Hm1" | "Hm2" | "Hn" | 
 
 /**
  * Every chain's nodes laid end to end (faces first, nodes outside → inside; then bodies, centre → surface),
- * so that the Newton kernels sweep all the walls, and all
- * the bodies, each in one loop instead of one call per chain. A chain's last link factor is zero, and so
+ * so that the Newton kernels sweep all the walls, and all the bodies, each in one loop instead of one
+ * call per chain. A chain's last link factor is zero, and so
  * are its first sub-diagonal and last super-diagonal entries: the sweeps pass from one chain to the next
  * without coupling them (each chain's end node takes its update from the dense system).
  */
@@ -408,7 +408,8 @@ interface Nodes extends Record<NodeField, Float64Array> {
   // Hcur: H carried from the last Newton iteration (bodies); Hs, Hm1, Hm2: the stored quantity (H, or T for
   // walls) at the step's start and the two accepted steps before (BDF2); Hn, cn, k: this iteration's H,
   // dH/dT and conductivity (bodies); mass: kg (bodies) or J/K (walls); a, b, c, R: the tridiagonal rows and
-  // residual; bp, dp, w, bpInv: forward elimination (pivots, right-hand side, multipliers, 1/pivot); Tp: the
+  // residual; bp, dp, w, bpInv: forward elimination (pivots, right-hand side, multipliers (walls only: the
+  // bodies' are formed as they go), 1/pivot); Tp: the
   // predictor's history; rate0: the stored quantity's rate at a restart's first step.
   /** All nodes; the walls' (faces first) are 0 … nW − 1. */
   nT: number;
@@ -599,7 +600,7 @@ function buildNetwork(spec: NetworkSpec): Net {
     chains[l.b].linkDiag += l.G;
   }
   // The stored energy: zones and walls from their temperatures, bodies from their carried enthalpy
-  // (evaluated from the starting temperatures once, then carried step to step: see newtonStep).
+  // (evaluated from the starting temperatures once, then carried step to step: see backSubstituteAll and finishStep).
   for (let ci = 0; ci < chains.length; ci++) {
     const ch = chains[ci];
     if (ch.mat) evalMaterialH(ch.mat, F.T, F.start[ci], F.start[ci] + ch.n, F.Hcur);
@@ -676,7 +677,7 @@ function storedEnergy(S: Net): number {
   return e;
 }
 
-/** What the caller sees after a step: zones, and each body's centre, surface, node under it and mean H. */
+/** What the caller sees after a step: zones, and each body's centre, surface and mean H. */
 function fillState(S: Net): void {
   const st = S.state;
   let s = 0;
@@ -746,7 +747,7 @@ function undoStep(S: Net): void {
 
 /**
  * After a converged step: the bodies carry the enthalpy their last Newton update reached (H + c·δ at the
- * last iterate, newtonStep), which is what the implicit balance stored, so the energy closes to round-off
+ * last iterate, backSubstituteAll), which is what the implicit balance stored, so the energy closes to round-off
  * whatever the Newton tolerance; then the heat that came in is booked by path with the converged
  * temperatures (net through each face, edges, openings). With BDF2 the stored energy moves by
  * (h·F + α2·ΔE_prev)/α0 per step; booking each path by the same recursion keeps the sum of the paths equal
@@ -1054,7 +1055,7 @@ function newtonStep(S: NewtonSystem, invH: number, Gedge: number, Gopen: number,
       maxStep = Math.max(maxStep, Math.abs(d));
     }
     const m = backSubstituteAll(S, dAir);
-    if (m > maxStep) maxStep = m;
+    if (!(m <= maxStep)) maxStep = m;
     // Converged once the error left after this update is below the tolerance: the update itself, or,
     // while the updates shrink at a rate θ = |δ_k|/|δ_k−1| < 1/2, the next one, bounded by θ/(1 − θ)·|δ_k|
     // (the contraction estimate of Hairer & Wanner [hairerWanner1996]).
@@ -1326,7 +1327,8 @@ function backSubstituteAll(S: NewtonSystem, d: Float64Array): number {
     next = isEnd[j] ? endDelta[j] : (dp[j] - c[j] * next) * bpInv[j];
     T[j] += next;
     const m = next < 0 ? -next : next;
-    if (m > maxStep) maxStep = m;
+    // Written so that a NaN update is never taken for a converged one.
+    if (!(m <= maxStep)) maxStep = m;
   }
   for (let j = F.nT - 1; j >= nW; j--) {
     next = isEnd[j] ? endDelta[j] : (dp[j] - c[j] * next) * bpInv[j];
@@ -1343,7 +1345,7 @@ function backSubstituteAll(S: NewtonSystem, d: Float64Array): number {
       Hn[j] += cn[j] * next;
     }
     const m = next < 0 ? -next : next;
-    if (m > maxStep) maxStep = m;
+    if (!(m <= maxStep)) maxStep = m;
   }
   return maxStep;
 }

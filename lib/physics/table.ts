@@ -54,7 +54,7 @@ export function tableK(t: PropertyTable, T_C: number): number {
 
 /**
  * The fused kernel: for nodes `from` … `to − 1` of T, writes H, dH/dT (at least `cMin`) and k from one
- * index per node, and that index (the node's cell, as tableCell) into `cellOut` when given. No
+ * index per node, and that index (the node's cell, as tableCell; 0 for a NaN T) into `cellOut` when given. No
  * allocation; the solvers call it once per Newton iteration.
  */
 export function evalTable(t: PropertyTable, T: Float64Array, from: number, to: number, Hout: Float64Array, cOut: Float64Array, kOut: Float64Array, cMin: number, cellOut?: Int32Array): void {
@@ -102,13 +102,17 @@ export function tableCell(t: PropertyTable, T_C: number): number {
   return i < 0 ? 0 : i > last ? last : i;
 }
 
+/** Cells tableT walks from a hint before it falls back to the binary search. */
+const HINT_WALK = 8;
+
 /**
  * The inverse of tableH: the temperature at which the table's H equals `H_J_kg`, °C. H rises through the
  * grid (foods and packs: c ≥ 0), so one binary search finds the cell; beyond the ends the end cells'
  * slopes extend it linearly, as tableH does. Where H is flat over a range of T (c = 0), the top of that
  * range. The solvers use it to place a node from the enthalpy its Newton update reached when that update
  * leaves the node's cell (the enthalpy-update form of Swaminathan & Voller [swaminathanVoller1992]).
- * `hint`, a cell near the answer (the cell of T + δ), replaces the binary search by a walk; the cell is the same.
+ * `hint`, a cell near the answer (the cell of T + δ), replaces the binary search by a short walk; the cell
+ * found is the same (H must not fall anywhere along the grid, as for every enthalpy table here).
  */
 export function tableT(t: PropertyTable, H_J_kg: number, hint = -1): number {
   const Ht = t.H;
@@ -117,18 +121,26 @@ export function tableT(t: PropertyTable, H_J_kg: number, hint = -1): number {
   let hi = last;
   if (H_J_kg <= Ht[0]) hi = 0;
   else if (H_J_kg >= Ht[last + 1]) lo = last;
-  else if (hint >= 0) {
-    // From a nearby cell (a node's update leaves its cell by a few cells at most): walk to the same cell.
-    lo = hint > last ? last : hint;
-    while (lo > 0 && Ht[lo] > H_J_kg) lo--;
-    while (lo < last && Ht[lo + 1] <= H_J_kg) lo++;
-  } else {
-    // Largest i with Ht[i] <= H, in 0 … last.
-    while (lo < hi) {
-      const mid = (lo + hi + 1) >> 1;
-      if (Ht[mid] <= H_J_kg) lo = mid;
-      else hi = mid - 1;
+  else {
+    // From a nearby cell (a node's update leaves its cell by a few cells at most): walk to the same cell
+    // within HINT_WALK steps, else (or without a hint, or for NaN) the binary search.
+    let found = false;
+    if (hint >= 0 && H_J_kg === H_J_kg) {
+      let i = Math.min(last, Math.floor(hint));
+      for (let s = 0; s < HINT_WALK && i > 0 && Ht[i] > H_J_kg; s++) i--;
+      for (let s = 0; s < HINT_WALK && i < last && Ht[i + 1] <= H_J_kg; s++) i++;
+      if (Ht[i] <= H_J_kg && (i === last || Ht[i + 1] > H_J_kg)) {
+        lo = i;
+        found = true;
+      }
     }
+    // Largest i with Ht[i] <= H, in 0 … last.
+    if (!found)
+      while (lo < hi) {
+        const mid = (lo + hi + 1) >> 1;
+        if (Ht[mid] <= H_J_kg) lo = mid;
+        else hi = mid - 1;
+      }
   }
   const i = lo;
   const dH = Ht[i + 1] - Ht[i];

@@ -1,4 +1,5 @@
 import { describe, expect, it } from "vitest";
+import fc from "fast-check";
 import { solve1D } from "../../lib/physics/solver1d";
 import { simpleMaterial } from "../../lib/physics/properties";
 import { makeTable, tableC, tableCell, tableH, tableK, tableT } from "../../lib/physics/table";
@@ -41,5 +42,23 @@ describe("the table's inverse (T from H)", () => {
     expect(tableT(flat, 15)).toBeCloseTo(2.5, 12);
     expect(tableCell(flat, 2.5)).toBe(2);
     expect(tableCell(flat, -4)).toBe(0);
+  });
+  it("gives exactly the binary search's answer from any hint cell, near or far, on rising tables with flat cells", () => {
+    fc.assert(
+      fc.property(
+        fc.array(fc.oneof(fc.constant(0), fc.double({ min: 0, max: 1e5, noNaN: true })), { minLength: 1, maxLength: 40 }),
+        fc.double({ min: -1e5, max: 5e6, noNaN: true }),
+        fc.integer({ min: 0, max: 60 }),
+        (steps, H, hint) => {
+          const Ht = new Float64Array(steps.length + 1);
+          for (let i = 0; i < steps.length; i++) Ht[i + 1] = Ht[i] + steps[i];
+          const tb = makeTable(-10, 0.5, Ht, new Float64Array(Ht.length).fill(1));
+          expect(Object.is(tableT(tb, H, hint), tableT(tb, H))).toBe(true);
+          for (const g of Ht) expect(Object.is(tableT(tb, g, hint), tableT(tb, g))).toBe(true);
+        },
+      ),
+      { numRuns: 400 },
+    );
+    expect(tableT(t, NaN, 3)).toBeNaN();
   });
 });
