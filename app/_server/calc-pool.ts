@@ -3,7 +3,8 @@ import { availableParallelism } from "node:os";
 import path from "node:path";
 import { existsSync } from "node:fs";
 import { Piscina } from "piscina";
-import type { CalcAnswer, CalcJob, Calculation } from "./calc-worker";
+import type { CalcAnswer, CalcJob, Calculation, ShareAnswer } from "./calc-worker";
+import { runWhole } from "./calc-shares";
 import { plannerOf } from "@/lib/planners/registry";
 
 /**
@@ -23,7 +24,7 @@ const MAX_QUEUE = 64;
 export type PoolOutcome = CalcAnswer | { ok: false; status: 503; message: string; fieldErrors: Record<string, string[]>; retryAfter_s: number };
 
 interface PoolState {
-  pool: Piscina<CalcJob, CalcAnswer>;
+  pool: Piscina<CalcJob, CalcAnswer | ShareAnswer>;
   threads: number;
   sizingRunning: number;
 }
@@ -42,7 +43,7 @@ function state(): PoolState {
     g.__holdlineCalcPool = {
       // niceIncrement (19, the lowest) lowers the worker threads' CPU priority (Linux, through the optional @napi-rs/nice),
       // so the request thread is never starved by a long sizing on a busy machine.
-      pool: new Piscina<CalcJob, CalcAnswer>({ filename, minThreads: 1, maxThreads: threads, maxQueue: MAX_QUEUE, idleTimeout: 60_000, niceIncrement: 19 }),
+      pool: new Piscina<CalcJob, CalcAnswer | ShareAnswer>({ filename, minThreads: Math.min(2, threads), maxThreads: threads, maxQueue: MAX_QUEUE, idleTimeout: 60_000, niceIncrement: 19 }),
       threads,
       sizingRunning: 0,
     };
@@ -59,8 +60,9 @@ export async function runCalculation(kind: Calculation, input: unknown, limit_s 
   }
   if (s.pool.queueSize >= MAX_QUEUE) return busy();
   if (kind === "size") s.sizingRunning++;
+  const signal = AbortSignal.timeout(limit_s * 1000);
   try {
-    return await s.pool.run({ kind, input }, { signal: AbortSignal.timeout(limit_s * 1000) });
+    return await runWhole(kind, input, s.threads, (job) => s.pool.run(job, { signal }));
   } catch (e) {
     const err = e as Error;
     if (err?.name === "AbortError" || err?.name === "TimeoutError") {

@@ -5,7 +5,7 @@
  * checked here with its planner's zod schema (lib/planners/registry.ts) and computed.
  */
 import type { FieldErrors } from "../../lib/schemas/errors";
-import { runPlanner } from "../../lib/planners/run";
+import { runPlanner, runPlannerShare } from "../../lib/planners/run";
 import { isPlannerKind, plannerOf, type PlannerKind } from "../../lib/planners/registry";
 
 export type Calculation = PlannerKind;
@@ -13,7 +13,12 @@ export type Calculation = PlannerKind;
 export interface CalcJob {
   kind: Calculation;
   input: unknown;
+  /** A share of a planner's run (PlannerEntry.shares), or every share's answer to put together. */
+  share?: { index: number; of: number } | { parts: unknown[] };
 }
+
+/** A share's answer, passed on to the job that puts the shares together. */
+export type ShareAnswer = { ok: true; part: unknown } | Exclude<CalcAnswer, { ok: true }>;
 
 export type CalcAnswer =
   /** The result as JSON text: serialised here, so the request thread only passes a string on. */
@@ -21,12 +26,24 @@ export type CalcAnswer =
   | { ok: false; status: 422; message: string; fieldErrors: FieldErrors }
   | { ok: false; status: 500; message: string; fieldErrors: FieldErrors };
 
+function share(kind: Calculation, input: unknown, sh: NonNullable<CalcJob["share"]>): CalcAnswer | ShareAnswer {
+  const r = runPlannerShare(plannerOf(kind), input, sh);
+  if (!r.ok) return { ok: false, status: 422, message: r.message ?? "Some fields are not valid", fieldErrors: r.fieldErrors };
+  if (!("parts" in sh)) return { ok: true, part: r.value };
+  return finished(r.value);
+}
+
+/** A finished result as JSON text, or a 500 where the model produced a number that is not finite. */
+function finished(result: unknown): CalcAnswer {
+  const bad = nonFinitePath(result);
+  if (bad !== null) return { ok: false, status: 500, message: `The model produced a number that is not finite (at ${bad || "the top"}); this is a defect, please report it with the input`, fieldErrors: {} };
+  return { ok: true, json: JSON.stringify(result) };
+}
+
 async function checked(kind: Calculation, input: unknown): Promise<CalcAnswer> {
   const r = await runPlanner(plannerOf(kind), input);
   if (!r.ok) return { ok: false, status: 422, message: r.message ?? "Some fields are not valid", fieldErrors: r.fieldErrors };
-  const bad = nonFinitePath(r.result.result);
-  if (bad !== null) return { ok: false, status: 500, message: `The model produced a number that is not finite (at ${bad || "the top"}); this is a defect, please report it with the input`, fieldErrors: {} };
-  return { ok: true, json: JSON.stringify(r.result.result) };
+  return finished(r.result.result);
 }
 
 /** The path of the first NaN or ±Infinity in a result (JSON would silently turn it into null), else null. */
@@ -49,7 +66,8 @@ export function nonFinitePath(x: unknown, path = ""): string | null {
 }
 
 /** Piscina calls the default export with each job. */
-export default function run(job: CalcJob): Promise<CalcAnswer> {
+export default function run(job: CalcJob): Promise<CalcAnswer | ShareAnswer> {
   if (!job || !isPlannerKind(job.kind)) return Promise.resolve({ ok: false, status: 422, message: "Unknown calculation", fieldErrors: {} });
+  if (job.share) return Promise.resolve(share(job.kind, job.input, job.share));
   return checked(job.kind, job.input);
 }

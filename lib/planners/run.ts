@@ -28,3 +28,21 @@ export async function runPlanner(entry: PlannerEntry, input: unknown, stage: "qu
     throw e;
   }
 }
+
+/**
+ * One share of a planner's full run (PlannerEntry.shares), or, with `parts`, all of them put together: on
+ * untrusted input, checked and reported as runPlanner does. For hosts that run the shares side by side.
+ */
+export function runPlannerShare(entry: PlannerEntry, input: unknown, share: { index: number; of: number } | { parts: unknown[] }): { ok: true; value: unknown } | { ok: false; fieldErrors: FieldErrors; message?: string } {
+  const sh = entry.shares;
+  if (!sh) return { ok: false, fieldErrors: { "": ["This calculation does not come in shares"] }, message: "This calculation does not come in shares" };
+  const parsed = entry.schema.safeParse(input);
+  if (!parsed.success) return { ok: false, fieldErrors: fieldErrorsOf(parsed.error) };
+  try {
+    return { ok: true, value: "parts" in share ? sh.join(parsed.data, share.parts) : sh.runPart(parsed.data, share.index, share.of) };
+  } catch (e) {
+    if (e instanceof PhysicsInputError) return { ok: false, fieldErrors: { [e.field]: [e.message] }, message: e.message };
+    throw e;
+  }
+}
+

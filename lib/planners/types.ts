@@ -93,6 +93,17 @@ export interface PlannerEntry<S extends z.ZodType = z.ZodType, R = unknown> {
   /** Computes the full result (throws PhysicsInputError for an impossible but well-formed input). */
   run: (parsed: z.output<S>) => R | Promise<R>;
   /**
+   * The full run as shares a host with threads to spare may run side by side (the server's pool), and
+   * how to put them together: `join` of every share's `runPart` gives exactly what `run` gives.
+   * Absent: the run is one piece.
+   */
+  shares?: {
+    /** How many shares (at most; hosts with fewer threads run fewer, each taking several). */
+    count: number;
+    runPart: (parsed: z.output<S>, index: number, of: number) => unknown;
+    join: (parsed: z.output<S>, parts: unknown[]) => R;
+  };
+  /**
    * A cheaper first answer shown while the full one is worked out (the central run without the
    * uncertainty band; one method without the comparison), with what is still to come. Null: the full
    * run is already quick (for this input).

@@ -1,5 +1,7 @@
 import { describe, it, expect } from "vitest";
-import { runHoldParsed } from "../../lib/physics/hold";
+import { runHoldParsed, runHoldPart, joinHoldParts } from "../../lib/physics/hold";
+import { plannerOf } from "../../lib/planners/registry";
+import { runPlannerShare } from "../../lib/planners/run";
 import { holdInputSchema, type HoldInput } from "../../lib/schemas/hold";
 import { runValidated } from "../../lib/schemas/run";
 import { PhysicsInputError } from "../../lib/physics/validation";
@@ -223,3 +225,31 @@ describe("hold planner: the face next to a pack, on the page's default plan", ()
     expect(t[0]).toBeLessThanOrEqual(t[2]);
   });
 });
+
+describe("hold planner: the band run in shares side by side (as the server's pool does)", () => {
+  it("gives exactly the one-piece answer, in any number of shares, through the registry's shares", () => {
+    const inp = holdInput(true);
+    const whole = runHoldParsed(inp);
+    for (const of of [1, 2, 3, 9, 12]) {
+      const parts = Array.from({ length: of }, (_, i) => runHoldPart(inp, i, of));
+      // Every run is in exactly one share; the central run in the first.
+      expect(parts.flatMap((p) => p.holds.map((h) => h.at)).sort((a, b) => a - b)).toEqual([0, 1, 2, 3, 4, 5, 6, 7, 8]);
+      expect(parts[0].central).not.toBeNull();
+      expect(joinHoldParts(inp, parts)).toEqual(whole);
+    }
+    const entry = plannerOf("hold");
+    const shares = [0, 1].map((index) => runPlannerShare(entry, inp, { index, of: 2 }));
+    const parts = shares.map((s) => (s.ok ? s.value : null));
+    const joined = runPlannerShare(entry, inp, { parts });
+    expect(joined).toEqual({ ok: true, value: whole });
+    // Two shares split the work about evenly: the central run and three corners, then five corners.
+    expect(runHoldPart(inp, 0, 2).holds.map((h) => h.at)).toEqual([0, 1, 2, 3]);
+  });
+  it("a share that is missing, or bad input, is an error, not a partial band", () => {
+    const inp = holdInput(true);
+    expect(() => joinHoldParts(inp, [runHoldPart(inp, 0, 2)])).toThrow(/5 of 9|4 of 9/);
+    const bad = runPlannerShare(plannerOf("hold"), { ...inp, route: null }, { index: 0, of: 2 });
+    expect(bad.ok).toBe(false);
+  });
+});
+
