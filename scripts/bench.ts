@@ -102,7 +102,8 @@ console.log(`  with the uncertainty band (central + 8 runs): median ${median(h9)
 // The same plan as the server runs it (POST /api/v1/hold): its pool's worker bundle, the central run and
 // the corners in two shares on two threads side by side, then a job that puts them together (wall time).
 {
-  const pool = new Piscina<CalcJob, CalcAnswer | ShareAnswer>({ filename: path.join(ROOT, "dist", "calc-worker.mjs"), minThreads: 2, maxThreads: 2 });
+  // execArgv []: the threads run plain node, as under `next start` (not with this script's TypeScript loader, which slows them).
+  const pool = new Piscina<CalcJob, CalcAnswer | ShareAnswer>({ filename: path.join(ROOT, "dist", "calc-worker.mjs"), minThreads: 2, maxThreads: 2, execArgv: [] });
   const asServer = async (threads: number) => {
     const a = await runWhole("hold", withBand, threads, (job) => pool.run(job));
     if (!a.ok) throw new Error(a.message);
