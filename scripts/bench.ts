@@ -20,8 +20,8 @@ import { bundle } from "./bundle.mjs";
 import { median, time } from "./bench-util";
 import { holdInput, sizeInput } from "./bench-cases";
 import { Piscina } from "piscina";
-import { runWhole } from "../app/_server/calc-shares";
-import type { CalcAnswer, CalcJob, ShareAnswer } from "../app/_server/calc-worker";
+import { runWhole } from "../app/_server/calc-pieces";
+import type { CalcAnswer, CalcJob, HelperAnswer } from "../app/_server/calc-worker";
 
 const ROOT = path.resolve(import.meta.dirname, "..");
 // The sizer's threads and the CLI timings below run the bundle: build it if the sources moved on.
@@ -100,10 +100,10 @@ console.log("\nHold planner — 48 h route, 6 segments, 1 box, 4 pack lines, 3 p
 console.log(`  one plan: median ${median(h1).toFixed(2)} ms (${lastHold.steps} implicit steps, ${lastHold.newtonIterations} Newton iterations, energy balance ${lastHold.energyBalanceError?.toExponential(1) ?? "not meaningful"})`);
 console.log(`  with the uncertainty band (central + 8 runs): median ${median(h9).toFixed(2)} ms (${(median(h9) / median(h1)).toFixed(1)}× one plan)`);
 // The same plan as the server runs it (POST /api/v1/hold): its pool's worker bundle, the central run and
-// the corners in two shares on two threads side by side, then a job that puts them together (wall time).
+// the corners as pieces taken by two threads side by side, the lead answering (wall time).
 {
   // execArgv []: the threads run plain node, as under `next start` (not with this script's TypeScript loader, which slows them).
-  const pool = new Piscina<CalcJob, CalcAnswer | ShareAnswer>({ filename: path.join(ROOT, "dist", "calc-worker.mjs"), minThreads: 2, maxThreads: 2, execArgv: [] });
+  const pool = new Piscina<CalcJob, CalcAnswer | HelperAnswer>({ filename: path.join(ROOT, "dist", "calc-worker.mjs"), minThreads: 2, maxThreads: 2, execArgv: [] });
   const asServer = async (threads: number) => {
     const a = await runWhole("hold", withBand, threads, (job) => pool.run(job));
     if (!a.ok) throw new Error(a.message);
@@ -119,12 +119,12 @@ console.log(`  with the uncertainty band (central + 8 runs): median ${median(h9)
     }
     return out;
   };
-  // Warm both threads (each compiles the model on its own), then time in shares and whole.
+  // Warm both threads (each compiles the model on its own), then time in pieces and whole.
   await wall(2, 0, 150);
   const shared = await wall(2, 40, 10);
   const whole = await wall(1, 40, 10);
   await pool.destroy();
-  console.log(`  with the band, as the server runs it (worker pool, 2 threads): in two shares side by side median ${median(shared).toFixed(2)} ms wall; whole on one thread ${median(whole).toFixed(2)} ms`);
+  console.log(`  with the band, as the server runs it (worker pool, 2 threads): in pieces on both threads median ${median(shared).toFixed(2)} ms wall; whole on one thread ${median(whole).toFixed(2)} ms`);
 }
 // 5. Thaw planner.
 const codThaw = thawInputSchema.parse({ product: find(D.products, "Cod fillets"), start_C: -18, ruleSet: D.rulesets[0], method: { kind: "fridge_air", air_C: 4, speed_m_s: 0.3 } });

@@ -3,8 +3,8 @@ import { availableParallelism } from "node:os";
 import path from "node:path";
 import { existsSync } from "node:fs";
 import { Piscina } from "piscina";
-import type { CalcAnswer, CalcJob, Calculation, ShareAnswer } from "./calc-worker";
-import { runWhole } from "./calc-shares";
+import type { CalcAnswer, CalcJob, Calculation, HelperAnswer } from "./calc-worker";
+import { runWhole } from "./calc-pieces";
 import { plannerOf } from "@/lib/planners/registry";
 
 /**
@@ -24,7 +24,7 @@ const MAX_QUEUE = 64;
 export type PoolOutcome = CalcAnswer | { ok: false; status: 503; message: string; fieldErrors: Record<string, string[]>; retryAfter_s: number };
 
 interface PoolState {
-  pool: Piscina<CalcJob, CalcAnswer | ShareAnswer>;
+  pool: Piscina<CalcJob, CalcAnswer | HelperAnswer>;
   threads: number;
   sizingRunning: number;
 }
@@ -43,7 +43,7 @@ function state(): PoolState {
     g.__holdlineCalcPool = {
       // niceIncrement (19, the lowest) lowers the worker threads' CPU priority (Linux, through the optional @napi-rs/nice),
       // so the request thread is never starved by a long sizing on a busy machine.
-      pool: new Piscina<CalcJob, CalcAnswer | ShareAnswer>({ filename, minThreads: Math.min(2, threads), maxThreads: threads, maxQueue: MAX_QUEUE, idleTimeout: 60_000, niceIncrement: 19 }),
+      pool: new Piscina<CalcJob, CalcAnswer | HelperAnswer>({ filename, minThreads: Math.min(2, threads), maxThreads: threads, maxQueue: MAX_QUEUE, idleTimeout: 60_000, niceIncrement: 19 }),
       threads,
       sizingRunning: 0,
     };

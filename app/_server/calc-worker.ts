@@ -5,7 +5,8 @@
  * checked here with its planner's zod schema (lib/planners/registry.ts) and computed.
  */
 import type { FieldErrors } from "../../lib/schemas/errors";
-import { runPlanner, runPlannerShare } from "../../lib/planners/run";
+import { runPlanner, runPlannerPieces } from "../../lib/planners/run";
+import { SharedBoard } from "./calc-pieces";
 import { isPlannerKind, plannerOf, type PlannerKind } from "../../lib/planners/registry";
 
 export type Calculation = PlannerKind;
@@ -13,12 +14,12 @@ export type Calculation = PlannerKind;
 export interface CalcJob {
   kind: Calculation;
   input: unknown;
-  /** A share of a planner's run (PlannerEntry.shares), or every share's answer to put together. */
-  share?: { index: number; of: number } | { parts: unknown[] };
+  /** One of the threads taking a planner's pieces (PlannerEntry.pieces) from a board in shared memory (calc-pieces.ts). */
+  pieces?: { board: SharedArrayBuffer; lead: boolean };
 }
 
-/** A share's answer, passed on to the job that puts the shares together. */
-export type ShareAnswer = { ok: true; part: unknown } | Exclude<CalcAnswer, { ok: true }>;
+/** A helper's answer: its pieces are on the board; the lead's answer is the whole one. */
+export type HelperAnswer = { ok: true; helped: true };
 
 export type CalcAnswer =
   /** The result as JSON text: serialised here, so the request thread only passes a string on. */
@@ -26,10 +27,11 @@ export type CalcAnswer =
   | { ok: false; status: 422; message: string; fieldErrors: FieldErrors }
   | { ok: false; status: 500; message: string; fieldErrors: FieldErrors };
 
-function share(kind: Calculation, input: unknown, sh: NonNullable<CalcJob["share"]>): CalcAnswer | ShareAnswer {
-  const r = runPlannerShare(plannerOf(kind), input, sh);
+function pieces(kind: Calculation, input: unknown, p: NonNullable<CalcJob["pieces"]>): CalcAnswer | HelperAnswer {
+  const board = new SharedBoard(p.board);
+  const r = runPlannerPieces(plannerOf(kind), input, board, p.lead ? "lead" : "helper");
+  if (!p.lead) return { ok: true, helped: true };
   if (!r.ok) return { ok: false, status: 422, message: r.message ?? "Some fields are not valid", fieldErrors: r.fieldErrors };
-  if (!("parts" in sh)) return { ok: true, part: r.value };
   return finished(r.value);
 }
 
@@ -66,8 +68,11 @@ export function nonFinitePath(x: unknown, path = ""): string | null {
 }
 
 /** Piscina calls the default export with each job. */
-export default function run(job: CalcJob): Promise<CalcAnswer | ShareAnswer> {
+export default function run(job: CalcJob): Promise<CalcAnswer | HelperAnswer> {
   if (!job || !isPlannerKind(job.kind)) return Promise.resolve({ ok: false, status: 422, message: "Unknown calculation", fieldErrors: {} });
-  if (job.share) return Promise.resolve(share(job.kind, job.input, job.share));
+  if (job.pieces) {
+    if (!(job.pieces.board instanceof SharedArrayBuffer)) return Promise.resolve({ ok: false, status: 422, message: "A piece's board must be shared memory", fieldErrors: {} });
+    return Promise.resolve(pieces(job.kind, job.input, job.pieces));
+  }
   return checked(job.kind, job.input);
 }

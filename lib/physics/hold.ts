@@ -785,16 +785,16 @@ export function holdSampleRuns(inp: HoldParsed, corners: HoldCorner[], opts: { l
 type HoldOpts = { resolution?: number; errorScale?: number };
 
 /**
- * One share of a hold plan's runs, for a host that runs the shares side by side (each on its own thread):
- * the runs are the central run (with its curves) and every corner of the band's sample, in the order
- * runHoldParsed takes them; share `index` of `of` takes a contiguous block of them, the central run
- * counted as 1.6 corners (its curves and its run to the end of the route). joinHoldParts puts the shares
- * together into exactly what runHoldParsed gives.
+ * A hold plan as pieces that threads may take side by side (PlannerEntry.pieces, the server's pool): piece 0
+ * is the central run with its curves, kept by the thread that runs it (runLead); pieces 1 … count − 1 are
+ * the band's sample in its order, each giving its hold (Infinity where the run never left its band).
+ * `finish` with every piece's hold gives exactly what runHoldParsed gives.
  */
-export interface HoldPart {
-  central: HoldRun | null;
-  /** The hold of each run in this share, by its place in the sample (0: the central run). */
-  holds: { at: number; hold_s: number | null }[];
+export interface HoldPieces {
+  count: number;
+  runLead(): void;
+  runPiece(at: number): number;
+  finish(holds: ArrayLike<number>): HoldResult;
 }
 
 /** The band's sample after the central run: the calibrated corners (each with its own input) or the default corners. */
@@ -806,62 +806,46 @@ function bandSample(inp: HoldParsed): { inp: HoldParsed | null; corner: HoldCorn
     .map((corner) => ({ inp: null, corner }));
 }
 
-/** The block of runs (0: central, then the sample) that share `index` of `of` takes. */
-function shareOf(runs: number, index: number, of: number): { from: number; to: number } {
-  const CENTRAL_WEIGHT = 1.6;
-  const total = CENTRAL_WEIGHT + (runs - 1);
-  const edge = (k: number) => {
-    if (k <= 0) return 0;
-    if (k >= of) return runs;
-    // The first run whose start lies at or past k/of of the work.
-    const w = (total * k) / of;
-    return w <= 0 ? 0 : Math.min(runs, Math.max(1, Math.round(w - CENTRAL_WEIGHT) + 1));
-  };
-  return { from: edge(index), to: edge(index + 1) };
-}
-
-/** Runs share `index` of `of` of a hold plan (HoldPart). */
-export function runHoldPart(inp: HoldParsed, index: number, of: number, opts: HoldOpts = {}): HoldPart {
-  return runPart(prepare(inp), inp, index, of, opts);
-}
-
-/** runHoldPart with the plan prepared (`inp` as given: the calibrated corners start from it, not from P.inp). */
-function runPart(P: Prepared, inp: HoldParsed, index: number, of: number, opts: HoldOpts): HoldPart {
+/** A hold plan prepared once (per thread), to be run piece by piece (HoldPieces). */
+export function holdPieces(inp: HoldParsed, opts: HoldOpts = {}): HoldPieces {
+  const P = prepare(inp);
   const sample = bandSample(inp);
-  const { from, to } = shareOf(sample.length + 1, index, of);
-  const out: HoldPart = { central: null, holds: [] };
-  for (let at = from; at < to; at++) {
-    if (at === 0) {
-      out.central = runOnce(P, { resolution: opts.resolution, errorScale: opts.errorScale, outerHScale: 1, insulationKScale: 1, conditioningShift_K: 0, keepSeries: true });
-      out.holds.push({ at, hold_s: out.central.holdTime_s });
-      continue;
-    }
-    const s = sample[at - 1];
-    const r = runOnce(s.inp ? prepare(s.inp) : P, { ...s.corner, resolution: opts.resolution, errorScale: opts.errorScale, keepSeries: false });
-    out.holds.push({ at, hold_s: r.holdTime_s });
-  }
-  return out;
+  let central: HoldRun | null = null;
+  return {
+    count: sample.length + 1,
+    runLead() {
+      central = runOnce(P, { resolution: opts.resolution, errorScale: opts.errorScale, outerHScale: 1, insulationKScale: 1, conditioningShift_K: 0, keepSeries: true });
+    },
+    runPiece(at) {
+      const s = sample[at - 1];
+      if (!s) throw new Error(`hold plan: there is no piece ${at} of ${sample.length + 1}`);
+      // A calibrated corner starts from its own input (`inp` as given, not P.inp).
+      const r = runOnce(s.inp ? prepare(s.inp) : P, { ...s.corner, resolution: opts.resolution, errorScale: opts.errorScale, keepSeries: false });
+      return r.holdTime_s ?? Infinity;
+    },
+    finish(holds) {
+      if (!central) throw new Error("hold plan: the central run has not been run");
+      const all: (number | null)[] = [central.holdTime_s];
+      for (let at = 1; at <= sample.length; at++) {
+        const h = holds[at];
+        if (typeof h !== "number" || Number.isNaN(h)) throw new Error(`hold plan: the hold of piece ${at} of ${sample.length + 1} is missing`);
+        all.push(h === Infinity ? null : h);
+      }
+      return joinParts(P, inp, central, all);
+    },
+  };
 }
 
 export function runHoldParsed(inp: HoldParsed, opts: HoldOpts = {}): HoldResult {
-  const P = prepare(inp);
-  return joinParts(P, inp, [runPart(P, inp, 0, 1, opts)]);
+  const pieces = holdPieces(inp, opts);
+  pieces.runLead();
+  const holds = new Float64Array(pieces.count);
+  for (let at = 1; at < pieces.count; at++) holds[at] = pieces.runPiece(at);
+  return pieces.finish(holds);
 }
 
-/** The hold planner's result from every share of its runs (runHoldPart): the same as runHoldParsed's. */
-export function joinHoldParts(inp: HoldParsed, parts: HoldPart[]): HoldResult {
-  return joinParts(prepare(inp), inp, parts);
-}
-
-function joinParts(P: Prepared, inp: HoldParsed, parts: HoldPart[]): HoldResult {
-  const central = parts.find((p) => p.central)?.central;
-  const runs = bandSample(inp).length + 1;
-  const byAt = new Map<number, number | null>();
-  for (const p of parts) for (const h of p.holds) byAt.set(h.at, h.hold_s);
-  if (!central || byAt.size !== runs) throw new Error(`hold plan: ${byAt.size} of ${runs} runs came back`);
-  // Uncertainty: the central run and every corner of the shared sample (in the sample's order).
-  const holds: (number | null)[] = [];
-  for (let at = 0; at < runs; at++) holds.push(byAt.get(at) ?? null);
+/** The result from the central run and the holds of the central run and every corner of the sample, in the sample's order. */
+function joinParts(P: Prepared, inp: HoldParsed, central: HoldRun, holds: (number | null)[]): HoldResult {
   // A calibrated box's band comes from its fitted intervals; otherwise from the default spreads.
   const calSample = calibratedCorners(inp);
   const asNumber = (x: number | null) => (x === null ? Infinity : x);

@@ -2,18 +2,13 @@
 import { holdInputSchema, type HoldParsed } from "../schemas/hold";
 import { MAX_HOLD_LINES } from "../schemas/hold";
 import { PACK_KIND_LABELS } from "../schemas/templates";
-import { runHoldParsed, runHoldPart, joinHoldParts, type HoldResult, type HoldPart } from "../physics/hold";
+import { runHoldParsed, holdPieces, type HoldResult } from "../physics/hold";
 import type { PlannerEntry, ChartSpec } from "./types";
 import { kit, limitLines, PALETTE, tCol, csvT, round3, mCol, csvM, SIGNATURE_LINE } from "./view-kit";
 
 const WH = 3600;
 /** How a placement reads: "around the load", "on top"… */
 export const PLACEMENT_LABELS: Record<HoldParsed["packs"][number]["placement"], string> = { around: "around the load", top: "on top", bottom: "underneath", side: "at one side" };
-
-/** A share of the hold planner's runs as it comes back from another thread. */
-function isHoldPart(x: unknown): x is HoldPart {
-  return typeof x === "object" && x !== null && "holds" in x && Array.isArray(x.holds) && "central" in x;
-}
 
 export const holdPlanner: PlannerEntry<typeof holdInputSchema, HoldResult> = {
   kind: "hold",
@@ -33,12 +28,9 @@ export const holdPlanner: PlannerEntry<typeof holdInputSchema, HoldResult> = {
   timeLimit_s: 30,
   tooLongHint: "use a shorter route, fewer segments or lid openings, or fewer product and pack lines",
   run: (p) => runHoldParsed(p),
-  // The central run and the band's corners in two shares (the server runs them on two threads).
-  shares: {
-    count: 2,
-    runPart: (p, index, of) => runHoldPart(p, index, of),
-    join: (p, parts) => joinHoldParts(p, parts.filter(isHoldPart)),
-  },
+  // The central run and each of the band's corners as pieces (the server's threads take them side by side);
+  // four threads at most: the central run alone takes about a sixth of the work.
+  pieces: { threads: 4, start: (p) => holdPieces(p) },
   quick: (p) =>
     p.uncertainty.outerH_frac === 0 && p.uncertainty.insulationK_frac === 0 && p.uncertainty.conditioning_K === 0
       ? null

@@ -30,19 +30,60 @@ export async function runPlanner(entry: PlannerEntry, input: unknown, stage: "qu
 }
 
 /**
- * One share of a planner's full run (PlannerEntry.shares), or, with `parts`, all of them put together: on
- * untrusted input, checked and reported as runPlanner does. For hosts that run the shares side by side.
+ * Where the threads running one calculation's pieces (PlannerEntry.pieces) meet: which piece is taken next
+ * and each piece's number. The server's is shared memory (app/_server/calc-pieces.ts); a test's may be a
+ * plain object.
  */
-export function runPlannerShare(entry: PlannerEntry, input: unknown, share: { index: number; of: number } | { parts: unknown[] }): { ok: true; value: unknown } | { ok: false; fieldErrors: FieldErrors; message?: string } {
-  const sh = entry.shares;
-  if (!sh) return { ok: false, fieldErrors: { "": ["This calculation does not come in shares"] }, message: "This calculation does not come in shares" };
+export interface PieceBoard {
+  /** How many pieces it has room for (a run with more is run whole by its lead). */
+  capacity: number;
+  /** Takes the next piece no thread has taken yet, counting from 1; a number past the last when none is left. */
+  take(): number;
+  /** A piece's number; NaN: the thread that took it gave up. */
+  put(at: number, value: number): void;
+  /** Waits until every piece from 1 to count − 1 has its number (NaN where its thread gave up, or is gone) and returns them. */
+  collect(count: number): ArrayLike<number>;
+}
+
+export type PieceRun = { ok: true; value: unknown } | { ok: false; fieldErrors: FieldErrors; message?: string };
+
+/**
+ * Runs a planner's pieces on untrusted input, as one of several threads sharing `board`. The lead runs
+ * piece 0, then takes pieces until none is left, waits for the others', runs itself any that another
+ * thread gave up, and returns the whole result (the same as runPlanner's). A helper takes pieces until none
+ * is left and returns nothing; on input the lead will reject it does nothing, and if a piece throws it
+ * gives that piece up (the lead runs it again and reports the error).
+ */
+export function runPlannerPieces(entry: PlannerEntry, input: unknown, board: PieceBoard, role: "lead" | "helper"): PieceRun {
+  const pc = entry.pieces;
+  if (!pc) return { ok: false, fieldErrors: { "": ["This calculation does not come in pieces"] }, message: "This calculation does not come in pieces" };
   const parsed = entry.schema.safeParse(input);
-  if (!parsed.success) return { ok: false, fieldErrors: fieldErrorsOf(parsed.error) };
+  if (!parsed.success) return role === "lead" ? { ok: false, fieldErrors: fieldErrorsOf(parsed.error) } : { ok: true, value: null };
   try {
-    return { ok: true, value: "parts" in share ? sh.join(parsed.data, share.parts) : sh.runPart(parsed.data, share.index, share.of) };
+    const run = pc.start(parsed.data);
+    const shared = run.count <= board.capacity;
+    if (role === "helper") {
+      if (!shared) return { ok: true, value: null };
+      for (let at = board.take(); at < run.count; at = board.take()) {
+        try {
+          board.put(at, run.runPiece(at));
+        } catch (e) {
+          board.put(at, NaN);
+          throw e;
+        }
+      }
+      return { ok: true, value: null };
+    }
+    run.runLead();
+    const values = new Float64Array(run.count);
+    if (shared) {
+      for (let at = board.take(); at < run.count; at = board.take()) board.put(at, (values[at] = run.runPiece(at)));
+      const got = board.collect(run.count);
+      for (let at = 1; at < run.count; at++) values[at] = Number.isNaN(got[at]) ? run.runPiece(at) : got[at];
+    } else for (let at = 1; at < run.count; at++) values[at] = run.runPiece(at);
+    return { ok: true, value: run.finish(values) };
   } catch (e) {
-    if (e instanceof PhysicsInputError) return { ok: false, fieldErrors: { [e.field]: [e.message] }, message: e.message };
+    if (e instanceof PhysicsInputError) return role === "lead" ? { ok: false, fieldErrors: { [e.field]: [e.message] }, message: e.message } : { ok: true, value: null };
     throw e;
   }
 }
-

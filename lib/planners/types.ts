@@ -73,6 +73,19 @@ export interface PlanView {
   pending?: string;
 }
 
+/**
+ * A run prepared once on one thread, to be taken piece by piece: piece 0 (runLead) stays with the thread that
+ * finishes, keeping whatever only the whole answer needs (the curves); pieces 1 … count − 1 each give one
+ * number, on whichever thread takes them. `finish` with every piece's number (index 0 unread) gives exactly
+ * what the entry's `run` gives.
+ */
+export interface PlannerPieces<R> {
+  count: number;
+  runLead(): void;
+  runPiece(at: number): number;
+  finish(values: ArrayLike<number>): R;
+}
+
 export type CsvRow = Record<string, string | number | null>;
 
 export interface PlannerEntry<S extends z.ZodType = z.ZodType, R = unknown> {
@@ -93,15 +106,13 @@ export interface PlannerEntry<S extends z.ZodType = z.ZodType, R = unknown> {
   /** Computes the full result (throws PhysicsInputError for an impossible but well-formed input). */
   run: (parsed: z.output<S>) => R | Promise<R>;
   /**
-   * The full run as shares a host with threads to spare may run side by side (the server's pool), and
-   * how to put them together: `join` of every share's `runPart` gives exactly what `run` gives.
-   * Absent: the run is one piece.
+   * The full run as independent pieces that several threads of one host may take side by side (the
+   * server's pool), each thread preparing the run once: PlannerPieces. Absent: the run is one piece.
    */
-  shares?: {
-    /** How many shares (at most; hosts with fewer threads run fewer, each taking several). */
-    count: number;
-    runPart: (parsed: z.output<S>, index: number, of: number) => unknown;
-    join: (parsed: z.output<S>, parts: unknown[]) => R;
+  pieces?: {
+    /** At most this many threads are worth it (the lead and its helpers). */
+    threads: number;
+    start: (parsed: z.output<S>) => PlannerPieces<R>;
   };
   /**
    * A cheaper first answer shown while the full one is worked out (the central run without the

@@ -7,6 +7,8 @@ import { startApi, JSON_HEADERS, type ApiHarness } from "../helpers/api";
 import { parseId } from "../../lib/schemas/id";
 import { getTemplate } from "../../lib/db/templates";
 import { getPlan } from "../../lib/db/plans";
+import { runHoldParsed } from "../../lib/physics/hold";
+import { holdInput } from "../../scripts/bench-cases";
 
 vi.mock("server-only", () => ({}));
 
@@ -122,6 +124,20 @@ describe("2. calculations run off the request thread, with a time limit", () => 
       else process.env.HOLDLINE_CALC_TIME_LIMIT_S = old;
     }
     expect((await api.call("POST", "/api/v1/hold", holdByName)).status).toBe(200); // the pool carries on
+  });
+});
+
+describe("2. a hold plan's band in pieces on the pool's threads", () => {
+  it("answers exactly what one thread gives, again and again (the pieces shared over two threads each time)", async () => {
+    const inp = holdInput(true);
+    const whole = JSON.parse(JSON.stringify(runHoldParsed(inp)));
+    for (let i = 0; i < 4; i++) {
+      const r = await api.call("POST", "/api/v1/hold", inp);
+      expect(r.status).toBe(200);
+      const body = await bodyOf(r);
+      expect(body.band).toEqual(whole.band);
+      expect(body.series).toEqual(whole.series);
+    }
   });
 });
 

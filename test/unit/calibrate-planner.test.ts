@@ -17,7 +17,9 @@ import { lunchPlan, syntheticCsv } from "../helpers/synthetic-log";
 import { exampleLogText, EXAMPLE_TRUTH } from "../../scripts/make-calibrate-example";
 import { guessLogFormat } from "../../lib/calibration/guess-format";
 import { calibratedShipper, calibratedBoxName } from "../../lib/calibration/calibrated-box";
-import { runHoldParsed, joinHoldParts, runHoldPart } from "../../lib/physics/hold";
+import { runHoldParsed } from "../../lib/physics/hold";
+import { runPlannerPieces } from "../../lib/planners/run";
+import { TestBoard } from "../helpers/piece-board";
 import { holdInputSchema, type HoldInput } from "../../lib/schemas/hold";
 import { shipperSchema } from "../../lib/schemas/templates";
 import type { CalibrationResult } from "../../lib/physics/calibrate";
@@ -212,9 +214,12 @@ describe("a box saved from a calibration, planned with", () => {
     expect(low).toBeLessThan(central);
     expect(high).toBeGreaterThan(central);
     expect(high - low).toBeLessThan((explicit.band.high! - explicit.band.low!) * 0.8);
-    // Run in shares side by side, as the server does, the calibrated band is the same to the last digit.
-    const parsed = holdInputSchema.parse(plan);
-    for (const of of [2, 3]) expect(joinHoldParts(parsed, Array.from({ length: of }, (_, i) => runHoldPart(parsed, i, of)))).toEqual(withBox);
+    // Run in pieces on two threads, as the server does, the calibrated band is the same to the last digit.
+    for (const helperTook of [1, 4]) {
+      const board = new TestBoard().helper(helperTook);
+      runPlannerPieces(plannerOf("hold"), plan, board, "helper");
+      expect(runPlannerPieces(plannerOf("hold"), plan, board.lead(), "lead")).toEqual({ ok: true, value: withBox });
+    }
     // The registry's quick first answer (no band) stays a single run, also for a calibrated box.
     const quick = await runPlanner(plannerOf("hold"), plan, "quick");
     expect(quick.ok && quick.result.pending).toMatch(/uncertainty/);

@@ -1,7 +1,8 @@
 import { describe, it, expect } from "vitest";
-import { runHoldParsed, runHoldPart, joinHoldParts } from "../../lib/physics/hold";
+import { runHoldParsed, holdPieces } from "../../lib/physics/hold";
 import { plannerOf } from "../../lib/planners/registry";
-import { runPlannerShare } from "../../lib/planners/run";
+import { runPlannerPieces } from "../../lib/planners/run";
+import { TestBoard } from "../helpers/piece-board";
 import { holdInputSchema, type HoldInput } from "../../lib/schemas/hold";
 import { runValidated } from "../../lib/schemas/run";
 import { PhysicsInputError } from "../../lib/physics/validation";
@@ -226,30 +227,45 @@ describe("hold planner: the face next to a pack, on the page's default plan", ()
   });
 });
 
-describe("hold planner: the band run in shares side by side (as the server's pool does)", () => {
-  it("gives exactly the one-piece answer, in any number of shares, through the registry's shares", () => {
+describe("hold planner: the band run in pieces on several threads (as the server's pool does)", () => {
+  it("gives exactly the one-piece answer however the pieces are shared, through the registry's entry", () => {
     const inp = holdInput(true);
     const whole = runHoldParsed(inp);
-    for (const of of [1, 2, 3, 9, 12]) {
-      const parts = Array.from({ length: of }, (_, i) => runHoldPart(inp, i, of));
-      // Every run is in exactly one share; the central run in the first.
-      expect(parts.flatMap((p) => p.holds.map((h) => h.at)).sort((a, b) => a - b)).toEqual([0, 1, 2, 3, 4, 5, 6, 7, 8]);
-      expect(parts[0].central).not.toBeNull();
-      expect(joinHoldParts(inp, parts)).toEqual(whole);
-    }
     const entry = plannerOf("hold");
-    const shares = [0, 1].map((index) => runPlannerShare(entry, inp, { index, of: 2 }));
-    const parts = shares.map((s) => (s.ok ? s.value : null));
-    const joined = runPlannerShare(entry, inp, { parts });
-    expect(joined).toEqual({ ok: true, value: whole });
-    // Two shares split the work about evenly: the central run and three corners, then five corners.
-    expect(runHoldPart(inp, 0, 2).holds.map((h) => h.at)).toEqual([0, 1, 2, 3]);
+    expect(holdPieces(inp).count).toBe(9); // the central run and 8 corners
+    for (const helperTook of [0, 1, 3, 8]) {
+      const board = new TestBoard().helper(helperTook);
+      expect(runPlannerPieces(entry, inp, board, "helper")).toEqual({ ok: true, value: null });
+      expect(board.values.size).toBe(helperTook);
+      // The lead takes what is left and collects the helper's; the answer is the same to the last digit.
+      expect(runPlannerPieces(entry, inp, board.lead(), "lead")).toEqual({ ok: true, value: whole });
+      expect(board.values.size).toBe(8);
+    }
   });
-  it("a share that is missing, or bad input, is an error, not a partial band", () => {
+  it("a piece a helper gave up is run by the lead; a run too big for the board is run whole", () => {
     const inp = holdInput(true);
-    expect(() => joinHoldParts(inp, [runHoldPart(inp, 0, 2)])).toThrow(/5 of 9|4 of 9/);
-    const bad = runPlannerShare(plannerOf("hold"), { ...inp, route: null }, { index: 0, of: 2 });
+    const whole = runHoldParsed(inp);
+    const entry = plannerOf("hold");
+    const board = new TestBoard(1024, [2, 3]).helper(4);
+    runPlannerPieces(entry, inp, board, "helper");
+    expect(Number.isNaN(board.values.get(2))).toBe(true);
+    expect(runPlannerPieces(entry, inp, board.lead(), "lead")).toEqual({ ok: true, value: whole });
+    const small = new TestBoard(4);
+    expect(runPlannerPieces(entry, inp, small, "helper")).toEqual({ ok: true, value: null });
+    expect(runPlannerPieces(entry, inp, small, "lead")).toEqual({ ok: true, value: whole });
+    expect(small.taken).toBe(0);
+  });
+  it("bad input: the lead answers with field errors, a helper takes nothing; a missing hold is an error, not a partial band", () => {
+    const inp = holdInput(true);
+    const board = new TestBoard();
+    expect(runPlannerPieces(plannerOf("hold"), { ...inp, route: null }, board, "helper")).toEqual({ ok: true, value: null });
+    expect(board.taken).toBe(0);
+    const bad = runPlannerPieces(plannerOf("hold"), { ...inp, route: null }, board, "lead");
     expect(bad.ok).toBe(false);
+    if (!bad.ok) expect(Object.keys(bad.fieldErrors)).toContain("route");
+    const pieces = holdPieces(inp);
+    pieces.runLead();
+    expect(() => pieces.finish(new Float64Array(9).fill(NaN))).toThrow(/piece 1 of 9 is missing/);
   });
 });
 
