@@ -49,22 +49,32 @@ async function checked(kind: Calculation, input: unknown): Promise<CalcAnswer> {
 }
 
 /** The path of the first NaN or ±Infinity in a result (JSON would silently turn it into null), else null. */
-export function nonFinitePath(x: unknown, path = ""): string | null {
-  if (typeof x === "number") return Number.isFinite(x) ? null : path;
+export function nonFinitePath(x: unknown): string | null {
+  const path: (string | number)[] = [];
+  return firstNonFinite(x, path) ? path.join(".") : null;
+}
+
+/** Whether x holds a non-finite number; if so, `path` is left holding the keys to the first one (built only then). */
+function firstNonFinite(x: unknown, path: (string | number)[]): boolean {
+  if (typeof x === "number") return !Number.isFinite(x);
+  if (typeof x !== "object" || x === null) return false;
   if (Array.isArray(x)) {
     for (let i = 0; i < x.length; i++) {
-      const p = nonFinitePath(x[i], `${path}.${i}`);
-      if (p !== null) return p;
+      if (firstNonFinite(x[i], path)) {
+        path.unshift(i);
+        return true;
+      }
     }
-    return null;
+    return false;
   }
-  if (x && typeof x === "object") {
-    for (const [k, v] of Object.entries(x)) {
-      const p = nonFinitePath(v, path ? `${path}.${k}` : k);
-      if (p !== null) return p;
+  for (const k in x) {
+    if (!Object.prototype.hasOwnProperty.call(x, k)) continue;
+    if (firstNonFinite((x as Record<string, unknown>)[k], path)) {
+      path.unshift(k);
+      return true;
     }
   }
-  return null;
+  return false;
 }
 
 /** Piscina calls the default export with each job. */
