@@ -27,6 +27,8 @@ interface PoolState {
   pool: Piscina<CalcJob, CalcAnswer | HelperAnswer>;
   threads: number;
   sizingRunning: number;
+  /** Jobs sent to the pool and not yet settled (queued or running), helpers included. */
+  jobs: number;
 }
 const g = globalThis as unknown as { __holdlineCalcPool?: PoolState };
 
@@ -46,6 +48,7 @@ function state(): PoolState {
       pool: new Piscina<CalcJob, CalcAnswer | HelperAnswer>({ filename, minThreads: Math.min(2, threads), maxThreads: threads, maxQueue: MAX_QUEUE, idleTimeout: 60_000, niceIncrement: 19 }),
       threads,
       sizingRunning: 0,
+      jobs: 0,
     };
   }
   return g.__holdlineCalcPool;
@@ -62,7 +65,13 @@ export async function runCalculation(kind: Calculation, input: unknown, limit_s 
   if (kind === "size") s.sizingRunning++;
   const signal = AbortSignal.timeout(limit_s * 1000);
   try {
-    return await runWhole(kind, input, s.threads, (job) => s.pool.run(job, { signal }));
+    // Pieces go only to threads that are free now (none queued behind other work).
+    const idle = Math.max(0, s.threads - s.jobs);
+    const send = (job: CalcJob) => {
+      s.jobs++;
+      return s.pool.run(job, { signal }).finally(() => s.jobs--);
+    };
+    return await runWhole(kind, input, idle, send);
   } catch (e) {
     const err = e as Error;
     if (err?.name === "AbortError" || err?.name === "TimeoutError") {

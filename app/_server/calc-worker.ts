@@ -6,7 +6,7 @@
  */
 import type { FieldErrors } from "../../lib/schemas/errors";
 import { runPlanner, runPlannerPieces } from "../../lib/planners/run";
-import { SharedBoard } from "./calc-pieces";
+import { MAX_HELPERS, SharedBoard } from "./calc-pieces";
 import { isPlannerKind, plannerOf, type PlannerKind } from "../../lib/planners/registry";
 
 export type Calculation = PlannerKind;
@@ -14,8 +14,8 @@ export type Calculation = PlannerKind;
 export interface CalcJob {
   kind: Calculation;
   input: unknown;
-  /** One of the threads taking a planner's pieces (PlannerEntry.pieces) from a board in shared memory (calc-pieces.ts). */
-  pieces?: { board: SharedArrayBuffer; lead: boolean };
+  /** One of the threads taking a planner's pieces (PlannerEntry.pieces) from a board in shared memory (calc-pieces.ts): helper 0 is the lead, 1 … a helper. */
+  pieces?: { board: SharedArrayBuffer; helper: number };
 }
 
 /** A helper's answer: its pieces are on the board; the lead's answer is the whole one. */
@@ -28,11 +28,26 @@ export type CalcAnswer =
   | { ok: false; status: 500; message: string; fieldErrors: FieldErrors };
 
 function pieces(kind: Calculation, input: unknown, p: NonNullable<CalcJob["pieces"]>): CalcAnswer | HelperAnswer {
-  const board = new SharedBoard(p.board);
-  const r = runPlannerPieces(plannerOf(kind), input, board, p.lead ? "lead" : "helper");
-  if (!p.lead) return { ok: true, helped: true };
+  const board = new SharedBoard(p.board, p.helper);
+  if (p.helper > 0) {
+    // Nothing left to take: the lead has all the pieces it needs (a helper that started late).
+    if (board.isClosed()) return { ok: true, helped: true };
+    try {
+      runPlannerPieces(plannerOf(kind), input, board, "helper");
+    } catch {
+      // The piece was given up (its number NaN): the lead runs it again and reports what went wrong.
+    }
+    return { ok: true, helped: true };
+  }
+  const r = runPlannerPieces(plannerOf(kind), input, board, "lead");
   if (!r.ok) return { ok: false, status: 422, message: r.message ?? "Some fields are not valid", fieldErrors: r.fieldErrors };
   return finished(r.value);
+}
+
+/** A model failure that is not an input error: a 500 that says it is a defect, with the model's words. */
+function defect(e: unknown): CalcAnswer {
+  const what = e instanceof Error ? e.message : String(e);
+  return { ok: false, status: 500, message: `The model failed (${what}); this is a defect, please report it with the input`, fieldErrors: {} };
 }
 
 /** A finished result as JSON text, or a 500 where the model produced a number that is not finite. */
@@ -43,7 +58,12 @@ function finished(result: unknown): CalcAnswer {
 }
 
 async function checked(kind: Calculation, input: unknown): Promise<CalcAnswer> {
-  const r = await runPlanner(plannerOf(kind), input);
+  let r: Awaited<ReturnType<typeof runPlanner>>;
+  try {
+    r = await runPlanner(plannerOf(kind), input);
+  } catch (e) {
+    return defect(e);
+  }
   if (!r.ok) return { ok: false, status: 422, message: r.message ?? "Some fields are not valid", fieldErrors: r.fieldErrors };
   return finished(r.result.result);
 }
@@ -81,8 +101,13 @@ function firstNonFinite(x: unknown, path: (string | number)[]): boolean {
 export default function run(job: CalcJob): Promise<CalcAnswer | HelperAnswer> {
   if (!job || !isPlannerKind(job.kind)) return Promise.resolve({ ok: false, status: 422, message: "Unknown calculation", fieldErrors: {} });
   if (job.pieces) {
-    if (!(job.pieces.board instanceof SharedArrayBuffer)) return Promise.resolve({ ok: false, status: 422, message: "A piece's board must be shared memory", fieldErrors: {} });
-    return Promise.resolve(pieces(job.kind, job.input, job.pieces));
+    const { board, helper } = job.pieces;
+    if (!(board instanceof SharedArrayBuffer) || !Number.isInteger(helper) || helper < 0 || helper > MAX_HELPERS) return Promise.resolve({ ok: false, status: 422, message: "A piece's board must be shared memory and its helper one the board can name", fieldErrors: {} });
+    try {
+      return Promise.resolve(pieces(job.kind, job.input, job.pieces));
+    } catch (e) {
+      return Promise.resolve(defect(e));
+    }
   }
   return checked(job.kind, job.input);
 }

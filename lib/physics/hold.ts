@@ -831,7 +831,7 @@ export function holdPieces(inp: HoldParsed, opts: HoldOpts = {}): HoldPieces {
         if (typeof h !== "number" || Number.isNaN(h)) throw new Error(`hold plan: the hold of piece ${at} of ${sample.length + 1} is missing`);
         all.push(h === Infinity ? null : h);
       }
-      return joinParts(P, inp, central, all);
+      return holdResult(P, inp, central, all);
     },
   };
 }
@@ -845,7 +845,7 @@ export function runHoldParsed(inp: HoldParsed, opts: HoldOpts = {}): HoldResult 
 }
 
 /** The result from the central run and the holds of the central run and every corner of the sample, in the sample's order. */
-function joinParts(P: Prepared, inp: HoldParsed, central: HoldRun, holds: (number | null)[]): HoldResult {
+function holdResult(P: Prepared, inp: HoldParsed, central: HoldRun, holds: (number | null)[]): HoldResult {
   // A calibrated box's band comes from its fitted intervals; otherwise from the default spreads.
   const calSample = calibratedCorners(inp);
   const asNumber = (x: number | null) => (x === null ? Infinity : x);

@@ -41,6 +41,8 @@ export interface PieceBoard {
   take(): number;
   /** A piece's number; NaN: the thread that took it gave up. */
   put(at: number, value: number): void;
+  /** Said by the lead once it has taken the last piece (or will run them all itself): a helper starting later has nothing to do. */
+  close(): void;
   /** Waits until every piece from 1 to count − 1 has its number (NaN where its thread gave up, or is gone) and returns them. */
   collect(count: number): ArrayLike<number>;
 }
@@ -78,9 +80,13 @@ export function runPlannerPieces(entry: PlannerEntry, input: unknown, board: Pie
     const values = new Float64Array(run.count);
     if (shared) {
       for (let at = board.take(); at < run.count; at = board.take()) board.put(at, (values[at] = run.runPiece(at)));
+      board.close();
       const got = board.collect(run.count);
       for (let at = 1; at < run.count; at++) values[at] = Number.isNaN(got[at]) ? run.runPiece(at) : got[at];
-    } else for (let at = 1; at < run.count; at++) values[at] = run.runPiece(at);
+    } else {
+      board.close();
+      for (let at = 1; at < run.count; at++) values[at] = run.runPiece(at);
+    }
     return { ok: true, value: run.finish(values) };
   } catch (e) {
     if (e instanceof PhysicsInputError) return role === "lead" ? { ok: false, fieldErrors: { [e.field]: [e.message] }, message: e.message } : { ok: true, value: null };

@@ -8,6 +8,7 @@ import type { PieceBoard } from "../../lib/planners/run";
 export class TestBoard implements PieceBoard {
   readonly values = new Map<number, number>();
   taken = 0;
+  closed = false;
   private helperLeft = Infinity;
   constructor(
     readonly capacity = 1024,
@@ -29,6 +30,9 @@ export class TestBoard implements PieceBoard {
   }
   put(at: number, value: number): void {
     this.values.set(at, this.giveUp.includes(at) ? NaN : value);
+  }
+  close(): void {
+    this.closed = true;
   }
   collect(count: number): Float64Array {
     const out = new Float64Array(count);
