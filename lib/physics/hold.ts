@@ -784,19 +784,6 @@ export function holdSampleRuns(inp: HoldParsed, corners: HoldCorner[], opts: { l
 
 type HoldOpts = { resolution?: number; errorScale?: number };
 
-/**
- * A hold plan as pieces that threads may take side by side (PlannerEntry.pieces, the server's pool): piece 0
- * is the central run with its curves, kept by the thread that runs it (runLead); pieces 1 … count − 1 are
- * the band's sample in its order, each giving its hold (Infinity where the run never left its band).
- * `finish` with every piece's hold gives exactly what runHoldParsed gives.
- */
-export interface HoldPieces {
-  count: number;
-  runLead(): void;
-  runPiece(at: number): number;
-  finish(holds: ArrayLike<number>): HoldResult;
-}
-
 /** The band's sample after the central run: the calibrated corners (each with its own input) or the default corners. */
 function bandSample(inp: HoldParsed): { inp: HoldParsed | null; corner: HoldCorner }[] {
   const cal = calibratedCorners(inp);
@@ -806,24 +793,29 @@ function bandSample(inp: HoldParsed): { inp: HoldParsed | null; corner: HoldCorn
     .map((corner) => ({ inp: null, corner }));
 }
 
-/** A hold plan prepared once (per thread), to be run piece by piece (HoldPieces). */
-export function holdPieces(inp: HoldParsed, opts: HoldOpts = {}): HoldPieces {
+/**
+ * A hold plan prepared once (per thread), as pieces that threads may take side by side (the registry's
+ * PlannerPieces, the server's pool): piece 0 is the central run with its curves, kept by the thread that runs
+ * it (runLead); pieces 1 … count − 1 are the band's sample in its order, each giving its hold (Infinity where
+ * the run never left its band). `finish` with every piece's hold gives exactly what runHoldParsed gives.
+ */
+export function holdPieces(inp: HoldParsed, opts: HoldOpts = {}) {
   const P = prepare(inp);
   const sample = bandSample(inp);
   let central: HoldRun | null = null;
   return {
     count: sample.length + 1,
-    runLead() {
+    runLead(): void {
       central = runOnce(P, { resolution: opts.resolution, errorScale: opts.errorScale, outerHScale: 1, insulationKScale: 1, conditioningShift_K: 0, keepSeries: true });
     },
-    runPiece(at) {
+    runPiece(at: number): number {
       const s = sample[at - 1];
       if (!s) throw new Error(`hold plan: there is no piece ${at} of ${sample.length + 1}`);
       // A calibrated corner starts from its own input (`inp` as given, not P.inp).
       const r = runOnce(s.inp ? prepare(s.inp) : P, { ...s.corner, resolution: opts.resolution, errorScale: opts.errorScale, keepSeries: false });
       return r.holdTime_s ?? Infinity;
     },
-    finish(holds) {
+    finish(holds: ArrayLike<number>): HoldResult {
       if (!central) throw new Error("hold plan: the central run has not been run");
       const all: (number | null)[] = [central.holdTime_s];
       for (let at = 1; at <= sample.length; at++) {
