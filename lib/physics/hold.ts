@@ -406,6 +406,16 @@ export function zoneExchange_W_K(lower_C: number, upper_C: number, area_m2: numb
  */
 const PRODUCT_SURFACE_RATIO = 0.2;
 
+/**
+ * Nodes across a coolant pack (centre to surface; dry ice is one node), chosen by measured accuracy. With 4
+ * instead of 5 the 48 h frozen bench plan's band stayed as close to the run refined 4× (low −0.100 against
+ * −0.107 %), but frozen cod with two eutectic plates on the overnight route, whose hold is set by the
+ * plates' melt, moved from −0.065 % to −0.533 % from the run with twice the nodes and half the steps
+ * (test/reference/hold.ref.test.ts): the plates' melt front is carried node by node, and 4 nodes place it
+ * too coarsely.
+ */
+const PACK_NODES = 5;
+
 function runOnce(P: Prepared, v: Variant): HoldRun {
   const inp = P.inp;
   const o = inp.overrides;
@@ -477,7 +487,7 @@ function runOnce(P: Prepared, v: Variant): HoldRun {
       volume_m3: V,
       area_m2: A,
       count: g.count,
-      nodes: p.kind === "dry_ice" ? 1 : 5 * (v.resolution ?? 1),
+      nodes: p.kind === "dry_ice" ? 1 : PACK_NODES * (v.resolution ?? 1),
       start_C: packStart_C(p, line.conditioning_C, v.conditioningShift_K),
       zoneG_W_K: [hi * g.exposed_m2 * g.zoneShare[0], hi * g.exposed_m2 * g.zoneShare[1]],
     });

@@ -662,8 +662,11 @@ function buildNetwork(spec: NetworkSpec): Net {
     Tair,
     TairStar: new Float64Array(nZ),
     rate0Air: new Float64Array(nZ),
-    thetaLast: 1,
+    firstIterationFactor: Infinity,
     slopeJump: true,
+    wallFixedDiag: wallFixedRows(F, chains, nFaces, nZ),
+    wallsInvH: NaN,
+    wallsOuterH: NaN,
     bodyStart,
     nBodies: nB,
     halfOuter: Float64Array.from(faceParts.map((f) => f.halfOuter)),
@@ -726,10 +729,13 @@ function setConditions(S: Net, amb: ReturnType<NetworkSpec["ambient"]>): void {
   sa[2] = amb.solAir_C.sidesUpper;
   sa[3] = amb.solAir_C.lid;
   const hA = amb.outerH_W_m2K;
-  for (let ci = 0; ci < S.nFaces; ci++) {
-    S.outerG[ci] = 1 / (S.halfOuter[ci] + 1 / (hA * S.area[ci]));
-    S.outerT[ci] = sa[S.faceKind[ci]];
+  // The outer films change only with the conditions (a new segment, or past the route's end).
+  if (hA !== S.wallsOuterH) {
+    for (let ci = 0; ci < S.nFaces; ci++) S.outerG[ci] = 1 / (S.halfOuter[ci] + 1 / (hA * S.area[ci]));
+    S.wallsOuterH = hA;
+    S.wallsInvH = NaN;
   }
+  for (let ci = 0; ci < S.nFaces; ci++) S.outerT[ci] = sa[S.faceKind[ci]];
 }
 
 /** Start of a step: every node's start state, BDF2 history term H* = H⁰ + star·(H⁰ − H⁻¹) (or H⁰ for backward Euler) and predictor T⁰ + f·(T⁰ − T⁻¹); the zones' likewise. */
@@ -973,10 +979,19 @@ interface NewtonSystem {
   TairStar: Float64Array;
   /** The zones' rates at the step's start, K/s (a restart's first step). */
   rate0Air: Float64Array;
-  /** The contraction rate θ of the last step that took more than one iteration (1 before the first). */
-  thetaLast: number;
+  /**
+   * (θ/(1 − θ))^0.8 from the contraction rate θ of the last step that took more than one iteration, the
+   * factor newtonStep's first-iteration test puts on the first update; Infinity before the first such step
+   * and while θ ≥ 1/2.
+   */
+  firstIterationFactor: number;
   /** Whether the last back substitution moved a body node into a cell of quite another slope (SLOPE_JUMP). */
   slopeJump: boolean;
+  /** The walls' diagonal without capacity and outer film (links, contacts and zones at the end node), W/K: fixed for a run. */
+  wallFixedDiag: Float64Array;
+  /** The 1/h and outer coefficient the walls' rows were last eliminated with (factorWalls); NaN for none. */
+  wallsInvH: number;
+  wallsOuterH: number;
 }
 
 /** The parts of the dense system that stay fixed over a step's Newton iterations, into A0. */
@@ -1082,10 +1097,10 @@ function newtonStep(S: NewtonSystem, invH: number, Gedge: number, Gopen: number,
     // The first iteration: no rate of its own yet, so the last step's stands in, η = (θ/(1 − θ))^0.8 as in
     // Hairer & Wanner's RADAU5 [hairerWanner1996], unless a node has just crossed into a cell of quite
     // another slope (the linearisation this iteration used no longer holds there).
-    if (it === 0 && !S.slopeJump && S.thetaLast < 0.5 && Math.pow(Math.max(S.thetaLast / (1 - S.thetaLast), 1e-16), 0.8) * maxStep < NEWTON_TOL_K) return 1;
+    if (it === 0 && !S.slopeJump && S.firstIterationFactor * maxStep < NEWTON_TOL_K) return 1;
     const theta = maxStep / lastStep;
     if (maxStep < NEWTON_TOL_K || (it > 0 && theta < 0.5 && (theta / (1 - theta)) * maxStep < NEWTON_TOL_K)) {
-      if (it > 0) S.thetaLast = theta;
+      if (it > 0) S.firstIterationFactor = theta < 0.5 ? Math.pow(Math.max(theta / (1 - theta), 1e-16), 0.8) : Infinity;
       return it + 1;
     }
     lastStep = maxStep;
@@ -1143,25 +1158,42 @@ function linkRows(from: number, to: number, G: Float64Array, a: Float64Array, b:
 }
 
 /**
- * The walls (constant properties) have the same Newton matrix at every iteration of a step: their diagonal
- * (capacity/h, links, the outer film, contacts and zone couplings at the end node), off-diagonals and
- * forward-elimination multipliers are formed once per step here, so that each iteration forms only the
- * residual and sweeps it without a division.
+ * The walls' rows without capacity and outer film, fixed for a run: links on both diagonals (the
+ * off-diagonals a, c, which nothing else writes for the walls, are set here once), and each end node's
+ * contacts and zone couplings. Returns that diagonal.
+ */
+function wallFixedRows(F: Nodes, chains: Chain[], nFaces: number, nZ: number): Float64Array {
+  const nW = F.nW;
+  const { a, b, c, Gfac, end } = F;
+  b.fill(0, 0, nW);
+  if (nW > 0) linkRows(0, nW, Gfac, a, b, c);
+  for (let ci = 0; ci < nFaces; ci++) {
+    const ch = chains[ci];
+    const e = end[ci];
+    b[e] += ch.linkDiag;
+    for (let z = 0; z < nZ; z++) b[e] += ch.U[z];
+  }
+  return b.slice(0, nW);
+}
+
+/**
+ * The walls (constant properties) have the same Newton matrix at every iteration of a step, and at every
+ * step of the same length within one set of conditions: their diagonal (capacity/h, the fixed part of
+ * wallFixedRows, the outer film) and forward-elimination multipliers are formed here only when 1/h or the
+ * outer films have changed since the last time, so that each iteration forms only the residual and sweeps
+ * it without a division.
  */
 function factorWalls(S: NewtonSystem, invH: number): void {
   const F = S.F;
   const nW = F.nW;
-  if (nW === 0) return;
-  const { a, b, c, bp, w, bpInv, Gfac, mass, start, end } = F;
-  for (let j = 0; j < nW; j++) b[j] = mass[j] * invH;
-  linkRows(0, nW, Gfac, a, b, c);
+  if (nW === 0 || invH === S.wallsInvH) return;
+  S.wallsInvH = invH;
+  const { a, b, c, bp, w, bpInv, mass, start } = F;
+  const fixed = S.wallFixedDiag;
+  for (let j = 0; j < nW; j++) b[j] = mass[j] * invH + fixed[j];
   for (let ci = 0; ci < S.nFaces; ci++) {
     const Gout = S.outerG[ci];
     if (Gout > 0) b[start[ci]] += Gout;
-    const ch = S.chains[ci];
-    const e = end[ci];
-    b[e] += ch.linkDiag;
-    for (let z = 0; z < S.nZ; z++) b[e] += ch.U[z];
   }
   bp[0] = b[0];
   bpInv[0] = 1 / b[0];
