@@ -33,6 +33,10 @@ const nextConfig = {
           { key: "X-Content-Type-Options", value: "nosniff" },
           { key: "Referrer-Policy", value: "no-referrer" },
           { key: "X-Frame-Options", value: "DENY" },
+          // Cross-origin isolation, so that the page's two planner workers can share one board of pieces
+          // (SharedArrayBuffer; app/_components/usePlanner.ts). Everything the pages load is from this origin.
+          { key: "Cross-Origin-Opener-Policy", value: "same-origin" },
+          { key: "Cross-Origin-Embedder-Policy", value: "require-corp" },
         ],
       },
     ];

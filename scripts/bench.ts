@@ -22,6 +22,11 @@ import { holdInput, sizeInput } from "./bench-cases";
 import { Piscina } from "piscina";
 import { runWhole } from "../app/_server/calc-pieces";
 import type { CalcAnswer, CalcJob, HelperAnswer } from "../app/_server/calc-worker";
+import { Worker } from "node:worker_threads";
+import * as esbuild from "esbuild";
+import { SharedBoard } from "../lib/planners/shared-board";
+import { DEFAULT_UNIT_PREFS } from "../lib/units";
+import type { FromPlannerWorker } from "../lib/planners/worker-protocol";
 
 const ROOT = path.resolve(import.meta.dirname, "..");
 // The sizer's threads and the CLI timings below run the bundle: build it if the sources moved on.
@@ -125,6 +130,52 @@ console.log(`  with the uncertainty band (central + 8 runs): median ${median(h9)
   const whole = await wall(1, 40, 10);
   await pool.destroy();
   console.log(`  with the band, as the server runs it (worker pool, 2 threads): in pieces on both threads median ${median(shared).toFixed(2)} ms wall; whole on one thread ${median(whole).toFixed(2)} ms`);
+}
+// The same plan as the page runs it: its planner worker's protocol (quick answer, then the full one with
+// its view and CSV rows) in worker threads, one worker alone or a lead and a helper on one board (wall
+// time from the request to the full answer).
+{
+  const host = path.join(mkdtempSync(path.join(os.tmpdir(), "holdline-bench-")), "page-worker.mjs");
+  await esbuild.build({ entryPoints: [path.join(ROOT, "scripts", "page-worker-host.ts")], bundle: true, platform: "node", format: "esm", outfile: host, logLevel: "warning" });
+  const lead = new Worker(host);
+  const helper = new Worker(host);
+  const input = JSON.parse(JSON.stringify(withBand)) as unknown;
+  const boards = new Map<number, SharedBoard>();
+  helper.on("message", (m: FromPlannerWorker) => {
+    if (m.type !== "helped") return;
+    boards.get(m.id)?.helperSettled(1, true);
+    boards.delete(m.id);
+  });
+  let id = 0;
+  const once = (withHelper: boolean) =>
+    new Promise<number>((resolve) => {
+      const my = ++id;
+      const t0 = performance.now();
+      const on = (m: FromPlannerWorker) => {
+        if (m.id !== my || (m.type === "result" && m.stage === "quick")) return;
+        lead.off("message", on);
+        resolve(performance.now() - t0);
+      };
+      lead.on("message", on);
+      let board: SharedBoard | null = null;
+      if (withHelper) {
+        board = SharedBoard.create();
+        boards.set(my, board);
+        helper.postMessage({ type: "help", id: my, kind: "hold", input, board: board.buffer });
+      }
+      lead.postMessage({ type: "run", id: my, kind: "hold", input, units: DEFAULT_UNIT_PREFS, ...(board ? { board: board.buffer } : {}) });
+    });
+  const times = async (withHelper: boolean, n: number) => {
+    const out: number[] = [];
+    for (let i = 0; i < n; i++) out.push(await once(withHelper));
+    return out;
+  };
+  for (let i = 0; i < 60; i++) await times(i % 2 === 0, 1);
+  const paired = await times(true, 40);
+  const alone = await times(false, 40);
+  await lead.terminate();
+  await helper.terminate();
+  console.log(`  with the band, as the page runs it (planner worker protocol, quick then full answer with view and CSV): with a helper worker median ${median(paired).toFixed(2)} ms wall; one worker ${median(alone).toFixed(2)} ms`);
 }
 // 5. Thaw planner.
 const codThaw = thawInputSchema.parse({ product: find(D.products, "Cod fillets"), start_C: -18, ruleSet: D.rulesets[0], method: { kind: "fridge_air", air_C: 4, speed_m_s: 0.3 } });

@@ -4,6 +4,7 @@ import type { FromPlannerWorker, ToPlannerWorker } from "@/lib/planners/worker-p
 import type { PlannerKind } from "@/lib/planners/registry";
 import type { CsvRow, PlanView } from "@/lib/planners/types";
 import type { FieldErrors } from "@/lib/schemas/errors";
+import { SharedBoard } from "@/lib/planners/shared-board";
 import { useUnits } from "./units-context";
 
 /** How long the page waits after the last change before asking the worker (ms): typing a number is one request. */
@@ -20,17 +21,30 @@ type Answer = (Exclude<PlannerState, { status: "ready" }> | Omit<Extract<Planner
 declare global {
   interface Window {
     /** Time from the last input change to each answer, for the browser suite's latency figures. */
-    __holdlineTimings?: { kind: string; stage: string; ms: number; compute_ms: number }[];
+    __holdlineTimings?: { kind: string; stage: string; ms: number; compute_ms: number; pieces?: number }[];
   }
 }
 
 /**
+ * Whether the page can share memory with its workers (it is served cross-origin isolated: next.config.js)
+ * and has a second core for a helper worker.
+ */
+function canShareWork(): boolean {
+  return typeof SharedArrayBuffer !== "undefined" && globalThis.crossOriginIsolated === true && (navigator.hardwareConcurrency ?? 1) > 1;
+}
+
+/**
  * Runs a planner in a Web Worker on every input change (debounced), keeping the page's thread free; the
- * last good answer stays on screen, marked as being updated, until the new one arrives.
+ * last good answer stays on screen, marked as being updated, until the new one arrives. Where memory can be
+ * shared, a second worker helps with the planner's pieces (the hold planner's band corners) on a board
+ * both workers share (lib/planners/worker-protocol.ts); the answer is the same.
  */
 export function usePlanner(kind: PlannerKind, input: unknown): PlannerState {
   const units = useUnits();
   const worker = useRef<Worker | null>(null);
+  const helper = useRef<Worker | null>(null);
+  /** Each request's board while the helper may still be on it. */
+  const boards = useRef(new Map<number, SharedBoard>());
   const seq = useRef(0);
   const changedAt = useRef(0);
   const key = JSON.stringify(input ?? null);
@@ -48,11 +62,39 @@ export function usePlanner(kind: PlannerKind, input: unknown): PlannerState {
       const forKey = sent.current.get(m.id) ?? "";
       if (m.type === "result") setAnswer({ status: "ready", stage: m.stage, view: m.view, csv: m.csv, parsed: m.parsed, result: m.result, forKey });
       else if (m.type === "invalid") setAnswer({ status: "invalid", fieldErrors: m.fieldErrors, forKey });
-      else setAnswer({ status: "error", message: m.message, forKey });
+      else if (m.type === "error") setAnswer({ status: "error", message: m.message, forKey });
     };
+    // The helper: once it has finished with a board, the lead no longer waits for pieces it took.
+    const settle = (id: number) => {
+      const b = boards.current.get(id);
+      if (!b) return;
+      b.helperSettled(1, true);
+      boards.current.delete(id);
+      // How many pieces the helper put in, for the browser suite.
+      let pieces = 0;
+      for (let at = 1; at < b.capacity; at++) if (b.ownerOf(at) === 1 && b.isIn(at)) pieces++;
+      (window.__holdlineTimings ??= []).push({ kind, stage: "helped", ms: performance.now() - changedAt.current, compute_ms: 0, pieces });
+    };
+    const h = canShareWork() ? new Worker(new URL("./planner.worker.ts", import.meta.url), { type: "module" }) : null;
+    helper.current = h;
+    if (h) {
+      h.onmessage = (e: MessageEvent<FromPlannerWorker>) => {
+        if (e.data.type === "helped") settle(e.data.id);
+      };
+      h.onerror = () => {
+        for (const id of [...boards.current.keys()]) settle(id);
+        h.terminate();
+        helper.current = null;
+      };
+    }
+    const open = boards.current;
     return () => {
       w.terminate();
+      h?.terminate();
       worker.current = null;
+      helper.current = null;
+      for (const b of open.values()) b.helperSettled(1, true);
+      open.clear();
     };
   }, [kind]);
 
@@ -62,7 +104,17 @@ export function usePlanner(kind: PlannerKind, input: unknown): PlannerState {
     sent.current.clear();
     sent.current.set(id, key + JSON.stringify(units));
     const t = setTimeout(() => {
-      const msg: ToPlannerWorker = { type: "run", id, kind, input: JSON.parse(key), units };
+      const input: unknown = JSON.parse(key);
+      // A newer request: no worker takes another piece of an older one.
+      for (const b of boards.current.values()) b.withdraw();
+      let board: SharedBoard | null = null;
+      if (helper.current) {
+        board = SharedBoard.create();
+        boards.current.set(id, board);
+        const help: ToPlannerWorker = { type: "help", id, kind, input, board: board.buffer };
+        helper.current.postMessage(help);
+      }
+      const msg: ToPlannerWorker = { type: "run", id, kind, input, units, ...(board ? { board: board.buffer } : {}) };
       worker.current?.postMessage(msg);
     }, INPUT_DEBOUNCE_MS);
     return () => clearTimeout(t);

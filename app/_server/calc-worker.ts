@@ -6,7 +6,7 @@
  */
 import type { FieldErrors } from "../../lib/schemas/errors";
 import { runPlanner, runPlannerPieces } from "../../lib/planners/run";
-import { MAX_HELPERS, SharedBoard } from "./calc-pieces";
+import { MAX_HELPERS, SharedBoard } from "../../lib/planners/shared-board";
 import { isPlannerKind, plannerOf, type PlannerKind } from "../../lib/planners/registry";
 
 export type Calculation = PlannerKind;

@@ -31,7 +31,7 @@ export async function runPlanner(entry: PlannerEntry, input: unknown, stage: "qu
 
 /**
  * Where the threads running one calculation's pieces (PlannerEntry.pieces) meet: which piece is taken next
- * and each piece's number. The server's is shared memory (app/_server/calc-pieces.ts); a test's may be a
+ * and each piece's number. The server's and the page's is shared memory (shared-board.ts); a test's may be a
  * plain object.
  */
 export interface PieceBoard {
@@ -47,7 +47,8 @@ export interface PieceBoard {
   collect(count: number): ArrayLike<number>;
 }
 
-export type PieceRun = { ok: true; value: unknown } | { ok: false; fieldErrors: FieldErrors; message?: string };
+/** The lead's `value` is the whole result and `parsed` its checked input; a helper's are null. */
+export type PieceRun = { ok: true; value: unknown; parsed: unknown } | { ok: false; fieldErrors: FieldErrors; message?: string };
 
 /**
  * Runs a planner's pieces on untrusted input, as one of several threads sharing `board`. The lead runs
@@ -60,12 +61,12 @@ export function runPlannerPieces(entry: PlannerEntry, input: unknown, board: Pie
   const pc = entry.pieces;
   if (!pc) return { ok: false, fieldErrors: { "": ["This calculation does not come in pieces"] }, message: "This calculation does not come in pieces" };
   const parsed = entry.schema.safeParse(input);
-  if (!parsed.success) return role === "lead" ? { ok: false, fieldErrors: fieldErrorsOf(parsed.error) } : { ok: true, value: null };
+  if (!parsed.success) return role === "lead" ? { ok: false, fieldErrors: fieldErrorsOf(parsed.error) } : { ok: true, value: null, parsed: null };
   try {
     const run = pc.start(parsed.data);
     const shared = run.count <= board.capacity;
     if (role === "helper") {
-      if (!shared) return { ok: true, value: null };
+      if (!shared) return { ok: true, value: null, parsed: null };
       for (let at = board.take(); at < run.count; at = board.take()) {
         try {
           board.put(at, run.runPiece(at));
@@ -74,7 +75,7 @@ export function runPlannerPieces(entry: PlannerEntry, input: unknown, board: Pie
           throw e;
         }
       }
-      return { ok: true, value: null };
+      return { ok: true, value: null, parsed: null };
     }
     run.runLead();
     const values = new Float64Array(run.count);
@@ -87,9 +88,9 @@ export function runPlannerPieces(entry: PlannerEntry, input: unknown, board: Pie
       board.close();
       for (let at = 1; at < run.count; at++) values[at] = run.runPiece(at);
     }
-    return { ok: true, value: run.finish(values) };
+    return { ok: true, value: run.finish(values), parsed: parsed.data };
   } catch (e) {
-    if (e instanceof PhysicsInputError) return role === "lead" ? { ok: false, fieldErrors: { [e.field]: [e.message] }, message: e.message } : { ok: true, value: null };
+    if (e instanceof PhysicsInputError) return role === "lead" ? { ok: false, fieldErrors: { [e.field]: [e.message] }, message: e.message } : { ok: true, value: null, parsed: null };
     throw e;
   }
 }

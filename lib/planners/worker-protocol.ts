@@ -4,19 +4,33 @@
  * answer where the planner has one (the central run), then the full one (with the uncertainty band, the
  * comparison, the depth search). A newer request makes the worker drop what is left of an older one,
  * so stale results never arrive after fresh ones. Pure: the host wires `post` and the timer.
+ *
+ * Where the page can share memory (cross-origin isolated) it runs a second worker as a helper: with each
+ * request it gives both workers one board (shared-board.ts). The helper takes the planner's pieces (the
+ * hold planner's band corners) from it at once, while the first worker works out the quick answer and
+ * then, as the lead, the central run and the pieces left; the full answer is the same as one worker gives
+ * (runPlannerPieces). The helper says when it has finished, so that the page can tell the lead not to wait
+ * for it any more.
  */
 import type { UnitPrefs } from "../units";
 import type { FieldErrors } from "../schemas/errors";
 import { isPlannerKind, plannerOf, type PlannerKind } from "./registry";
-import { runPlanner } from "./run";
+import { runPlanner, runPlannerPieces } from "./run";
+import { SharedBoard } from "./shared-board";
 import type { CsvRow, PlanView } from "./types";
 
-export type ToPlannerWorker = { type: "run"; id: number; kind: PlannerKind; input: unknown; units: UnitPrefs };
+export type ToPlannerWorker =
+  /** `board`: the lead of the request's pieces, shared with a helper worker (absent: the worker runs it whole). */
+  | { type: "run"; id: number; kind: PlannerKind; input: unknown; units: UnitPrefs; board?: SharedArrayBuffer }
+  /** To the helper worker: take pieces of request `id` from `board` until none is left. */
+  | { type: "help"; id: number; kind: PlannerKind; input: unknown; board: SharedArrayBuffer };
 
 export type FromPlannerWorker =
   | { type: "result"; id: number; stage: "quick" | "full"; view: PlanView; csv: CsvRow[]; parsed: unknown; result: unknown; compute_ms: number }
   | { type: "invalid"; id: number; fieldErrors: FieldErrors }
-  | { type: "error"; id: number; message: string };
+  | { type: "error"; id: number; message: string }
+  /** From the helper worker: it has finished with request `id`'s board (done, nothing to do, or gave up). */
+  | { type: "helped"; id: number };
 
 /** Lets queued messages in before the next stage (a macrotask: the newer request is seen first). */
 const yieldToMessages = () => new Promise<void>((r) => setTimeout(r, 0));
@@ -24,7 +38,9 @@ const yieldToMessages = () => new Promise<void>((r) => setTimeout(r, 0));
 export function plannerWorkerHandler(post: (m: FromPlannerWorker) => void, now: () => number = () => Date.now()): (m: ToPlannerWorker) => Promise<void> {
   let latest = 0;
   return async (m) => {
-    if (!m || m.type !== "run" || !isPlannerKind(m.kind)) return;
+    if (!m || !isPlannerKind(m.kind)) return;
+    if (m.type === "help") return help(m, post);
+    if (m.type !== "run") return;
     latest = Math.max(latest, m.id);
     // Let any newer request that is already queued arrive first: only the last one is worth computing.
     await yieldToMessages();
@@ -33,7 +49,7 @@ export function plannerWorkerHandler(post: (m: FromPlannerWorker) => void, now: 
     try {
       for (const stage of ["quick", "full"] as const) {
         const t0 = now();
-        const r = await runPlanner(entry, m.input, stage);
+        const r = stage === "full" && entry.pieces && isShared(m.board) ? lead(entry, m.input, m.board) : await runPlanner(entry, m.input, stage);
         if (m.id !== latest) return;
         if (!r.ok) return post({ type: "invalid", id: m.id, fieldErrors: r.fieldErrors });
         const { parsed, result, pending } = r.result;
@@ -50,4 +66,34 @@ export function plannerWorkerHandler(post: (m: FromPlannerWorker) => void, now: 
       if (m.id === latest) post({ type: "error", id: m.id, message: (e as Error).message });
     }
   };
+}
+
+/** Whether x is shared memory (a page that is not cross-origin isolated has no SharedArrayBuffer at all). */
+function isShared(x: unknown): x is SharedArrayBuffer {
+  return typeof SharedArrayBuffer !== "undefined" && x instanceof SharedArrayBuffer;
+}
+
+/** The full stage as the lead of the pieces on `board`, in runPlanner's shape. */
+function lead(entry: ReturnType<typeof plannerOf>, input: unknown, board: SharedArrayBuffer): Awaited<ReturnType<typeof runPlanner>> {
+  const r = runPlannerPieces(entry, input, new SharedBoard(board, 0), "lead");
+  return r.ok ? { ok: true, result: { parsed: r.parsed, result: r.value, pending: null } } : r;
+}
+
+/**
+ * The helper worker's part: take pieces from the board until none is left (nothing if the lead has taken
+ * the last, or the page has withdrawn the board for a newer request), then say so. Input the lead will
+ * reject, or a piece that throws, leaves the rest to the lead (which reports the error).
+ */
+function help(m: Extract<ToPlannerWorker, { type: "help" }>, post: (m: FromPlannerWorker) => void): void {
+  try {
+    const entry = plannerOf(m.kind);
+    if (entry.pieces && isShared(m.board)) {
+      const board = new SharedBoard(m.board, 1);
+      if (!board.isClosed()) runPlannerPieces(entry, m.input, board, "helper");
+    }
+  } catch {
+    // The piece was given up (its number NaN): the lead runs it again.
+  } finally {
+    post({ type: "helped", id: m.id });
+  }
 }

@@ -11,6 +11,8 @@ export interface Timing {
   stage: string;
   ms: number;
   compute_ms: number;
+  /** With stage "helped": how many of the request's pieces the page's helper worker put in. */
+  pieces?: number;
   /** When the page received the answer (performance.now()), stamped by the observer below. */
   at: number;
 }

@@ -218,7 +218,7 @@ describe("a box saved from a calibration, planned with", () => {
     for (const helperTook of [1, 4]) {
       const board = new TestBoard().helper(helperTook);
       runPlannerPieces(plannerOf("hold"), plan, board, "helper");
-      expect(runPlannerPieces(plannerOf("hold"), plan, board.lead(), "lead")).toEqual({ ok: true, value: withBox });
+      expect(runPlannerPieces(plannerOf("hold"), plan, board.lead(), "lead")).toEqual({ ok: true, value: withBox, parsed: expect.anything() });
     }
     // The registry's quick first answer (no band) stays a single run, also for a calibrated box.
     const quick = await runPlanner(plannerOf("hold"), plan, "quick");

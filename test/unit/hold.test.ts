@@ -235,10 +235,10 @@ describe("hold planner: the band run in pieces on several threads (as the server
     expect(holdPieces(inp).count).toBe(9); // the central run and 8 corners
     for (const helperTook of [0, 1, 3, 8]) {
       const board = new TestBoard().helper(helperTook);
-      expect(runPlannerPieces(entry, inp, board, "helper")).toEqual({ ok: true, value: null });
+      expect(runPlannerPieces(entry, inp, board, "helper")).toEqual({ ok: true, value: null, parsed: null });
       expect(board.values.size).toBe(helperTook);
       // The lead takes what is left and collects the helper's; the answer is the same to the last digit.
-      expect(runPlannerPieces(entry, inp, board.lead(), "lead")).toEqual({ ok: true, value: whole });
+      expect(runPlannerPieces(entry, inp, board.lead(), "lead")).toEqual({ ok: true, value: whole, parsed: expect.anything() });
       expect(board.values.size).toBe(8);
     }
   });
@@ -249,16 +249,16 @@ describe("hold planner: the band run in pieces on several threads (as the server
     const board = new TestBoard(1024, [2, 3]).helper(4);
     runPlannerPieces(entry, inp, board, "helper");
     expect(Number.isNaN(board.values.get(2))).toBe(true);
-    expect(runPlannerPieces(entry, inp, board.lead(), "lead")).toEqual({ ok: true, value: whole });
+    expect(runPlannerPieces(entry, inp, board.lead(), "lead")).toEqual({ ok: true, value: whole, parsed: expect.anything() });
     const small = new TestBoard(4);
-    expect(runPlannerPieces(entry, inp, small, "helper")).toEqual({ ok: true, value: null });
-    expect(runPlannerPieces(entry, inp, small, "lead")).toEqual({ ok: true, value: whole });
+    expect(runPlannerPieces(entry, inp, small, "helper")).toEqual({ ok: true, value: null, parsed: null });
+    expect(runPlannerPieces(entry, inp, small, "lead")).toEqual({ ok: true, value: whole, parsed: expect.anything() });
     expect(small.taken).toBe(0);
   });
   it("bad input: the lead answers with field errors, a helper takes nothing; a missing hold is an error, not a partial band", () => {
     const inp = holdInput(true);
     const board = new TestBoard();
-    expect(runPlannerPieces(plannerOf("hold"), { ...inp, route: null }, board, "helper")).toEqual({ ok: true, value: null });
+    expect(runPlannerPieces(plannerOf("hold"), { ...inp, route: null }, board, "helper")).toEqual({ ok: true, value: null, parsed: null });
     expect(board.taken).toBe(0);
     const bad = runPlannerPieces(plannerOf("hold"), { ...inp, route: null }, board, "lead");
     expect(bad.ok).toBe(false);

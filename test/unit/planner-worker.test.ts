@@ -7,6 +7,7 @@ import { plannerWorkerHandler, type FromPlannerWorker } from "../../lib/planners
 import { PLANNERS } from "../../lib/planners/registry";
 import { DEMO_SCENARIO as D } from "../../lib/db/demo-scenario";
 import { DEFAULT_UNIT_PREFS } from "../../lib/units";
+import { SharedBoard } from "../../lib/planners/shared-board";
 
 const warmupInput = { product: D.products.find((p) => p.name.startsWith("Steamed rice"))!, start_C: 80, surroundings: { medium: "air", T_C: 22, speed_m_s: 0.3 }, ruleSet: D.rulesets[0], limit: "hotHoldMin", horizon_s: 14400 };
 const thin = D.shippers.find((s) => s.name.startsWith("Quillfield thin"))!;
@@ -37,6 +38,65 @@ describe("planner worker protocol", () => {
     expect(f.view.pending).toBeUndefined();
     expect(f.view.facts.find((x) => x.testId === "hold-band")!.value).not.toMatch(/being worked out/);
     expect(f.csv.length).toBeGreaterThan(10);
+  });
+
+  // The page's two workers (app/_components/usePlanner.ts) on one board, here on one thread: the helper's
+  // handler first (it takes every piece), then the lead's, which finds them all in.
+  const banded = { ...holdInput, uncertainty: { outerH_frac: 0.3, insulationK_frac: 0.1, conditioning_K: 2 } };
+  const fullOf = (out: FromPlannerWorker[]) => out.find((m): m is Extract<FromPlannerWorker, { type: "result" }> => m.type === "result" && m.stage === "full")!;
+  it("hold with a helper worker on a shared board: the helper takes the band's corners, the full answer is the one worker's to the last digit", async () => {
+    const alone = collect();
+    await alone.handle({ type: "run", id: 1, kind: "hold", input: banded, units: DEFAULT_UNIT_PREFS });
+    const board = SharedBoard.create();
+    const helper = collect();
+    await helper.handle({ type: "help", id: 1, kind: "hold", input: banded, board: board.buffer });
+    expect(helper.out).toEqual([{ type: "helped", id: 1 }]);
+    const corners = Array.from({ length: 8 }, (_, i) => i + 1);
+    expect(corners.map((at) => [board.ownerOf(at), board.isIn(at)])).toEqual(corners.map(() => [1, true]));
+    const lead = collect();
+    await lead.handle({ type: "run", id: 1, kind: "hold", input: banded, units: DEFAULT_UNIT_PREFS, board: board.buffer });
+    expect(lead.out.map((m) => (m.type === "result" ? m.stage : m.type))).toEqual(["quick", "full"]);
+    expect(fullOf(lead.out).result).toEqual(fullOf(alone.out).result);
+    expect(fullOf(lead.out).view).toEqual(fullOf(alone.out).view);
+  });
+
+  it("a board withdrawn for a newer request: the helper takes nothing and says so, the lead runs every piece itself", async () => {
+    const alone = collect();
+    await alone.handle({ type: "run", id: 1, kind: "hold", input: banded, units: DEFAULT_UNIT_PREFS });
+    const board = SharedBoard.create();
+    board.withdraw();
+    const helper = collect();
+    await helper.handle({ type: "help", id: 1, kind: "hold", input: banded, board: board.buffer });
+    expect(helper.out).toEqual([{ type: "helped", id: 1 }]);
+    expect(board.isIn(1)).toBe(false);
+    const lead = collect();
+    await lead.handle({ type: "run", id: 1, kind: "hold", input: banded, units: DEFAULT_UNIT_PREFS, board: board.buffer });
+    expect(fullOf(lead.out).result).toEqual(fullOf(alone.out).result);
+  });
+
+  it("a helper with input the lead will reject, or a planner without pieces, takes nothing and says so", async () => {
+    const board = SharedBoard.create();
+    const helper = collect();
+    await helper.handle({ type: "help", id: 3, kind: "hold", input: { ...banded, products: "none" }, board: board.buffer });
+    await helper.handle({ type: "help", id: 4, kind: "warmup", input: warmupInput, board: board.buffer });
+    await helper.handle({ type: "help", id: 5, kind: "hold", input: banded, board: "not shared" as never });
+    expect(helper.out).toEqual([{ type: "helped", id: 3 }, { type: "helped", id: 4 }, { type: "helped", id: 5 }]);
+    expect(board.isIn(1)).toBe(false);
+  });
+
+  it("without shared memory (a page that is not cross-origin isolated has no SharedArrayBuffer) the worker runs the plan whole", async () => {
+    const alone = collect();
+    await alone.handle({ type: "run", id: 1, kind: "hold", input: banded, units: DEFAULT_UNIT_PREFS });
+    vi.stubGlobal("SharedArrayBuffer", undefined);
+    try {
+      const w = collect();
+      await w.handle({ type: "run", id: 1, kind: "hold", input: banded, units: DEFAULT_UNIT_PREFS, board: {} as SharedArrayBuffer });
+      await w.handle({ type: "help", id: 2, kind: "hold", input: banded, board: {} as SharedArrayBuffer });
+      expect(w.out.map((m) => (m.type === "result" ? m.stage : m.type))).toEqual(["quick", "full", "helped"]);
+      expect(fullOf(w.out).result).toEqual(fullOf(alone.out).result);
+    } finally {
+      vi.unstubAllGlobals();
+    }
   });
 
   it("drops an older request when a newer one is already waiting", async () => {
