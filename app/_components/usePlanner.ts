@@ -9,6 +9,12 @@ import { useUnits } from "./units-context";
 
 /** How long the page waits after the last change before asking the worker (ms): typing a number is one request. */
 export const INPUT_DEBOUNCE_MS = 40;
+/**
+ * How long the page waits for the helper worker to say it has finished with a request's board before it
+ * stops it and lets the first worker go on alone (ms): a helper that died without an error event would
+ * otherwise keep the lead waiting for the piece it took. The hold planner's own limit on the server is 30 s.
+ */
+export const HELPER_TIMEOUT_MS = 30_000;
 
 export type PlannerState =
   | { status: "working" }
@@ -45,6 +51,8 @@ export function usePlanner(kind: PlannerKind, input: unknown): PlannerState {
   const helper = useRef<Worker | null>(null);
   /** Each request's board while the helper may still be on it. */
   const boards = useRef(new Map<number, SharedBoard>());
+  /** Starts the wait for the helper's word on a request's board (HELPER_TIMEOUT_MS). */
+  const helperTimeout = useRef<(id: number) => void>(() => {});
   const seq = useRef(0);
   const changedAt = useRef(0);
   const key = JSON.stringify(input ?? null);
@@ -65,9 +73,12 @@ export function usePlanner(kind: PlannerKind, input: unknown): PlannerState {
       else if (m.type === "error") setAnswer({ status: "error", message: m.message, forKey });
     };
     // The helper: once it has finished with a board, the lead no longer waits for pieces it took.
+    const timers = new Map<number, ReturnType<typeof setTimeout>>();
     const settle = (id: number) => {
       const b = boards.current.get(id);
       if (!b) return;
+      clearTimeout(timers.get(id));
+      timers.delete(id);
       b.helperSettled(1, true);
       boards.current.delete(id);
       // How many pieces the helper put in, for the browser suite.
@@ -77,18 +88,24 @@ export function usePlanner(kind: PlannerKind, input: unknown): PlannerState {
     };
     const h = canShareWork() ? new Worker(new URL("./planner.worker.ts", import.meta.url), { type: "module" }) : null;
     helper.current = h;
+    // A helper that fails, or stays silent past HELPER_TIMEOUT_MS, is stopped: the first worker goes on alone.
+    const drop = () => {
+      h?.terminate();
+      if (helper.current === h) helper.current = null;
+      for (const id of [...boards.current.keys()]) settle(id);
+    };
     if (h) {
       h.onmessage = (e: MessageEvent<FromPlannerWorker>) => {
         if (e.data.type === "helped") settle(e.data.id);
       };
-      h.onerror = () => {
-        for (const id of [...boards.current.keys()]) settle(id);
-        h.terminate();
-        helper.current = null;
-      };
+      h.onerror = drop;
     }
+    helperTimeout.current = (id: number) => timers.set(id, setTimeout(drop, HELPER_TIMEOUT_MS));
     const open = boards.current;
     return () => {
+      for (const t of timers.values()) clearTimeout(t);
+      timers.clear();
+      helperTimeout.current = () => {};
       w.terminate();
       h?.terminate();
       worker.current = null;
@@ -113,6 +130,7 @@ export function usePlanner(kind: PlannerKind, input: unknown): PlannerState {
         boards.current.set(id, board);
         const help: ToPlannerWorker = { type: "help", id, kind, input, board: board.buffer };
         helper.current.postMessage(help);
+        helperTimeout.current(id);
       }
       const msg: ToPlannerWorker = { type: "run", id, kind, input, units, ...(board ? { board: board.buffer } : {}) };
       worker.current?.postMessage(msg);

@@ -38,8 +38,10 @@ const yieldToMessages = () => new Promise<void>((r) => setTimeout(r, 0));
 export function plannerWorkerHandler(post: (m: FromPlannerWorker) => void, now: () => number = () => Date.now()): (m: ToPlannerWorker) => Promise<void> {
   let latest = 0;
   return async (m) => {
-    if (!m || !isPlannerKind(m.kind)) return;
+    if (!m) return;
+    // Every help message is answered (an unknown planner has nothing to take), so the page never waits on it.
     if (m.type === "help") return help(m, post);
+    if (!isPlannerKind(m.kind)) return;
     if (m.type !== "run") return;
     latest = Math.max(latest, m.id);
     // Let any newer request that is already queued arrive first: only the last one is worth computing.
@@ -86,8 +88,8 @@ function lead(entry: ReturnType<typeof plannerOf>, input: unknown, board: Shared
  */
 function help(m: Extract<ToPlannerWorker, { type: "help" }>, post: (m: FromPlannerWorker) => void): void {
   try {
-    const entry = plannerOf(m.kind);
-    if (entry.pieces && isShared(m.board)) {
+    const entry = isPlannerKind(m.kind) ? plannerOf(m.kind) : null;
+    if (entry?.pieces && isShared(m.board)) {
       const board = new SharedBoard(m.board, 1);
       if (!board.isClosed()) runPlannerPieces(entry, m.input, board, "helper");
     }

@@ -74,13 +74,14 @@ describe("planner worker protocol", () => {
     expect(fullOf(lead.out).result).toEqual(fullOf(alone.out).result);
   });
 
-  it("a helper with input the lead will reject, or a planner without pieces, takes nothing and says so", async () => {
+  it("a helper with input the lead will reject, a planner without pieces or an unknown one takes nothing and says so", async () => {
     const board = SharedBoard.create();
     const helper = collect();
     await helper.handle({ type: "help", id: 3, kind: "hold", input: { ...banded, products: "none" }, board: board.buffer });
     await helper.handle({ type: "help", id: 4, kind: "warmup", input: warmupInput, board: board.buffer });
     await helper.handle({ type: "help", id: 5, kind: "hold", input: banded, board: "not shared" as never });
-    expect(helper.out).toEqual([{ type: "helped", id: 3 }, { type: "helped", id: 4 }, { type: "helped", id: 5 }]);
+    await helper.handle({ type: "help", id: 6, kind: "nonsense" as never, input: banded, board: board.buffer });
+    expect(helper.out).toEqual([3, 4, 5, 6].map((id) => ({ type: "helped", id })));
     expect(board.isIn(1)).toBe(false);
   });
 
