@@ -165,14 +165,14 @@ console.log(`  with the uncertainty band (central + 8 runs): median ${median(h9)
       }
       lead.postMessage({ type: "run", id: my, kind: "hold", input, units: DEFAULT_UNIT_PREFS, ...(board ? { board: board.buffer } : {}) });
     });
-  const times = async (withHelper: boolean, n: number) => {
-    const out: number[] = [];
-    for (let i = 0; i < n; i++) out.push(await once(withHelper));
-    return out;
-  };
-  for (let i = 0; i < 60; i++) await times(i % 2 === 0, 1);
-  const paired = await times(true, 40);
-  const alone = await times(false, 40);
+  // Each worker compiles the model on its own: warm both, then alternate the two ways (the machine's load drifts).
+  for (let i = 0; i < 120; i++) await once(i % 2 === 0);
+  const paired: number[] = [];
+  const alone: number[] = [];
+  for (let i = 0; i < 40; i++) {
+    paired.push(await once(true));
+    alone.push(await once(false));
+  }
   await lead.terminate();
   await helper.terminate();
   console.log(`  with the band, as the page runs it (planner worker protocol, quick then full answer with view and CSV): with a helper worker median ${median(paired).toFixed(2)} ms wall; one worker ${median(alone).toFixed(2)} ms`);
