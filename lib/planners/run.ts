@@ -45,10 +45,18 @@ export interface PieceBoard {
   close(): void;
   /** Waits until every piece from 1 to count − 1 has its number (NaN where its thread gave up, or is gone) and returns them. */
   collect(count: number): ArrayLike<number>;
+  /** Whether the host has withdrawn the board for a newer request: the lead's answer is no longer wanted. */
+  withdrawn(): boolean;
 }
 
 /** The lead's `value` is the whole result and `parsed` its checked input; a helper's are null. */
-export type PieceRun = { ok: true; value: unknown; parsed: unknown } | { ok: false; fieldErrors: FieldErrors; message?: string };
+export type PieceRun =
+  | { ok: true; value: unknown; parsed: unknown }
+  | { ok: false; fieldErrors: FieldErrors; message?: string }
+  /** The lead stopped: the host withdrew the board for a newer request (the page's workers). */
+  | { ok: false; superseded: true; fieldErrors: FieldErrors; message: string };
+
+const SUPERSEDED: PieceRun = { ok: false, superseded: true, fieldErrors: {}, message: "A newer request replaced this one" };
 
 /**
  * Runs a planner's pieces on untrusted input, as one of several threads sharing `board`. The lead runs
@@ -81,6 +89,8 @@ export function runPlannerPieces(entry: PlannerEntry, input: unknown, board: Pie
     const values = new Float64Array(run.count);
     if (shared) {
       for (let at = board.take(); at < run.count; at = board.take()) board.put(at, (values[at] = run.runPiece(at)));
+      // Withdrawn (take gives out nothing more): the pieces left are not run for an answer nobody wants.
+      if (board.withdrawn()) return SUPERSEDED;
       board.close();
       const got = board.collect(run.count);
       for (let at = 1; at < run.count; at++) values[at] = Number.isNaN(got[at]) ? run.runPiece(at) : got[at];

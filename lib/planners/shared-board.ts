@@ -98,6 +98,9 @@ export class SharedBoard implements PieceBoard {
     Atomics.store(this.head, WITHDRAWN, 1);
     Atomics.store(this.head, CLOSED, 1);
   }
+  withdrawn(): boolean {
+    return Atomics.load(this.head, WITHDRAWN) !== 0;
+  }
   /** On the host's own thread (the request thread, the page), once helper `id`'s job has settled (done, failed or stopped); `all` once every helper's has. */
   helperSettled(id: number, all: boolean): void {
     if (id >= 1 && id <= MAX_HELPERS) Atomics.store(this.head, 3 + id, 1);

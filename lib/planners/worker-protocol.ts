@@ -10,7 +10,8 @@
  * hold planner's band corners) from it at once, while the first worker works out the quick answer and
  * then, as the lead, the central run and the pieces left; the full answer is the same as one worker gives
  * (runPlannerPieces). The helper says when it has finished, so that the page can tell the lead not to wait
- * for it any more.
+ * for it any more. When a newer request goes out the page withdraws the older board: neither worker takes
+ * another piece of it, and its lead stops without a full answer.
  */
 import type { UnitPrefs } from "../units";
 import type { FieldErrors } from "../schemas/errors";
@@ -52,7 +53,8 @@ export function plannerWorkerHandler(post: (m: FromPlannerWorker) => void, now: 
       for (const stage of ["quick", "full"] as const) {
         const t0 = now();
         const r = stage === "full" && entry.pieces && isShared(m.board) ? lead(entry, m.input, m.board) : await runPlanner(entry, m.input, stage);
-        if (m.id !== latest) return;
+        // null: the page withdrew the board for a newer request, which is waiting.
+        if (r === null || m.id !== latest) return;
         if (!r.ok) return post({ type: "invalid", id: m.id, fieldErrors: r.fieldErrors });
         const { parsed, result, pending } = r.result;
         if (stage === "quick" && pending === null) continue; // no cheaper answer: go straight to the full one
@@ -75,10 +77,11 @@ function isShared(x: unknown): x is SharedArrayBuffer {
   return typeof SharedArrayBuffer !== "undefined" && x instanceof SharedArrayBuffer;
 }
 
-/** The full stage as the lead of the pieces on `board`, in runPlanner's shape. */
-function lead(entry: ReturnType<typeof plannerOf>, input: unknown, board: SharedArrayBuffer): Awaited<ReturnType<typeof runPlanner>> {
+/** The full stage as the lead of the pieces on `board`, in runPlanner's shape; null once the page has withdrawn the board. */
+function lead(entry: ReturnType<typeof plannerOf>, input: unknown, board: SharedArrayBuffer): Awaited<ReturnType<typeof runPlanner>> | null {
   const r = runPlannerPieces(entry, input, new SharedBoard(board, 0), "lead");
-  return r.ok ? { ok: true, result: { parsed: r.parsed, result: r.value, pending: null } } : r;
+  if (r.ok) return { ok: true, result: { parsed: r.parsed, result: r.value, pending: null } };
+  return "superseded" in r ? null : r;
 }
 
 /**

@@ -34,6 +34,9 @@ export class TestBoard implements PieceBoard {
   close(): void {
     this.closed = true;
   }
+  withdrawn(): boolean {
+    return false;
+  }
   collect(count: number): Float64Array {
     const out = new Float64Array(count);
     for (let at = 1; at < count; at++) out[at] = this.values.get(at) ?? NaN;

@@ -2,8 +2,9 @@
  * The page's two planner workers (app/_components/usePlanner.ts) on real threads: the planner worker's
  * protocol (lib/planners/worker-protocol.ts) in two worker_threads (scripts/page-worker-host.ts, bundled
  * fresh), a lead and a helper on one board, as the page drives them. The full answer for the 48 h bench plan
- * with its band is the one worker's to the last digit, the helper really takes corners, and neither a board
- * withdrawn mid-run nor a helper stopped mid-run changes the answer or keeps the lead waiting.
+ * with its band is the one worker's to the last digit, the helper really takes corners, a board withdrawn
+ * mid-run for a newer request stops the older one without changing the newer answer, and a helper stopped
+ * mid-run does not keep the lead waiting.
  */
 import { describe, it, expect, beforeAll, afterAll } from "vitest";
 import { mkdtempSync, rmSync } from "node:fs";
@@ -77,13 +78,34 @@ describe("the page's lead and helper workers on real threads", () => {
     }
   }, 120_000);
 
-  it("a board withdrawn mid-run (a newer request), or a helper stopped mid-run and then settled, leaves the answer as it was", async () => {
+  it("a board withdrawn mid-run for a newer request: the newer one gets the right answer, the older one none or the right one", async () => {
     const lead = new Worker(host);
     const helper = new Worker(host);
     try {
-      const b1 = SharedBoard.create();
-      settleOnHelped(helper, b1, 1);
-      expect((await request(lead, helper, 1, b1, () => setTimeout(() => b1.withdraw(), 3))).result).toEqual(alone.result);
+      for (const delay_ms of [0, 3, 8]) {
+        const b1 = SharedBoard.create();
+        const b2 = SharedBoard.create();
+        settleOnHelped(helper, b1, 10 + delay_ms);
+        settleOnHelped(helper, b2, 20 + delay_ms);
+        let older: Full | null = null;
+        void request(lead, helper, 10 + delay_ms, b1).then((r) => (older = r));
+        await new Promise((r) => setTimeout(r, delay_ms));
+        // As the page does: the older board is withdrawn as the newer request goes out.
+        b1.withdraw();
+        expect((await request(lead, helper, 20 + delay_ms, b2)).result).toEqual(alone.result);
+        // The lead takes requests in turn: by now the older one has given its full answer or stopped.
+        if (older !== null) expect((older as Full).result).toEqual(alone.result);
+      }
+    } finally {
+      await lead.terminate();
+      await helper.terminate();
+    }
+  }, 120_000);
+
+  it("a helper stopped mid-run and then settled leaves the answer as it was", async () => {
+    const lead = new Worker(host);
+    const helper = new Worker(host);
+    try {
       const b2 = SharedBoard.create();
       const stopped = request(lead, helper, 2, b2, () =>
         setTimeout(() => {
