@@ -825,6 +825,14 @@ export function holdPieces(inp: HoldParsed, opts: HoldOpts = {}) {
       const r = runOnce(s.inp ? prepare(s.inp) : P, { ...s.corner, resolution: opts.resolution, errorScale: opts.errorScale, keepSeries: false });
       return r.holdTime_s ?? Infinity;
     },
+    // The plan without its band (the planner's quick input: the same plan, every spread zero) from the
+    // central run alone: neither prepare nor the central run reads the spreads, and without them there
+    // are no corners, so this is runHoldParsed(quickInput) without running the central run again.
+    quick(quickInput: HoldParsed): HoldResult {
+      if (!central) throw new Error("hold plan: the central run has not been run");
+      if (bandSample(quickInput).length > 0) throw new Error("hold plan: the quick input still has a band");
+      return holdResult(P, quickInput, central, [central.holdTime_s]);
+    },
     finish(holds: ArrayLike<number>): HoldResult {
       if (!central) throw new Error("hold plan: the central run has not been run");
       const all: (number | null)[] = [central.holdTime_s];

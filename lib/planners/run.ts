@@ -6,7 +6,7 @@
 import { fieldErrorsOf } from "../schemas/errors";
 import type { FieldErrors } from "../schemas/errors";
 import { PhysicsInputError } from "../physics/validation";
-import type { PlannerEntry } from "./types";
+import type { PlannerEntry, PlannerPieces } from "./types";
 
 export type PlannerRun =
   | { ok: true; result: { parsed: unknown; result: unknown; pending: string | null } }
@@ -65,7 +65,7 @@ const SUPERSEDED: PieceRun = { ok: false, superseded: true, fieldErrors: {}, mes
  * is left and returns nothing; on input the lead will reject it does nothing, and if a piece throws it
  * gives that piece up (the lead runs it again and reports the error).
  */
-export function runPlannerPieces(entry: PlannerEntry, input: unknown, board: PieceBoard, role: "lead" | "helper"): PieceRun {
+export function runPlannerPieces(entry: PlannerEntry, input: unknown, board: PieceBoard, role: "lead" | "helper", afterLead?: (parsed: unknown, run: PlannerPieces<unknown>) => void): PieceRun {
   const pc = entry.pieces;
   if (!pc) return { ok: false, fieldErrors: { "": ["This calculation does not come in pieces"] }, message: "This calculation does not come in pieces" };
   const parsed = entry.schema.safeParse(input);
@@ -86,6 +86,8 @@ export function runPlannerPieces(entry: PlannerEntry, input: unknown, board: Pie
       return { ok: true, value: null, parsed: null };
     }
     run.runLead();
+    // The lead's host may show an answer from piece 0 before the others are in (the page's quick answer).
+    afterLead?.(parsed.data, run);
     const values = new Float64Array(run.count);
     if (shared) {
       for (let at = board.take(); at < run.count; at = board.take()) board.put(at, (values[at] = run.runPiece(at)));

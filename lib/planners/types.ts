@@ -79,11 +79,17 @@ export interface PlanView {
  * number, on whichever thread takes them. `finish` with every piece's number (index 0 unread) gives exactly
  * what the entry's `run` gives.
  */
-export interface PlannerPieces<R> {
+export interface PlannerPieces<R, P = unknown> {
   count: number;
   runLead(): void;
   runPiece(at: number): number;
   finish(values: ArrayLike<number>): R;
+  /**
+   * Once runLead has run: the answer to the entry's quick input (PlannerEntry.quick) from piece 0 alone,
+   * exactly what `run` gives for it (that input leaves out only what pieces 1 … count − 1 add: the hold
+   * planner's band). The page's lead shows it before taking pieces, instead of running it apart.
+   */
+  quick?(quickInput: P): R;
 }
 
 export type CsvRow = Record<string, string | number | null>;
@@ -112,7 +118,7 @@ export interface PlannerEntry<S extends z.ZodType = z.ZodType, R = unknown> {
   pieces?: {
     /** At most this many threads are worth it (the lead and its helpers). */
     threads: number;
-    start: (parsed: z.output<S>) => PlannerPieces<R>;
+    start: (parsed: z.output<S>) => PlannerPieces<R, z.output<S>>;
   };
   /**
    * A cheaper first answer shown while the full one is worked out (the central run without the

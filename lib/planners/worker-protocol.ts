@@ -50,11 +50,11 @@ export function plannerWorkerHandler(post: (m: FromPlannerWorker) => void, now: 
     if (m.id !== latest) return;
     const entry = plannerOf(m.kind);
     try {
+      if (entry.pieces && isShared(m.board)) return lead(entry, m, m.board, post, now);
       for (const stage of ["quick", "full"] as const) {
         const t0 = now();
-        const r = stage === "full" && entry.pieces && isShared(m.board) ? lead(entry, m.input, m.board) : await runPlanner(entry, m.input, stage);
-        // null: the page withdrew the board for a newer request, which is waiting.
-        if (r === null || m.id !== latest) return;
+        const r = await runPlanner(entry, m.input, stage);
+        if (m.id !== latest) return;
         if (!r.ok) return post({ type: "invalid", id: m.id, fieldErrors: r.fieldErrors });
         const { parsed, result, pending } = r.result;
         if (stage === "quick" && pending === null) continue; // no cheaper answer: go straight to the full one
@@ -77,11 +77,30 @@ function isShared(x: unknown): x is SharedArrayBuffer {
   return typeof SharedArrayBuffer !== "undefined" && x instanceof SharedArrayBuffer;
 }
 
-/** The full stage as the lead of the pieces on `board`, in runPlanner's shape; null once the page has withdrawn the board. */
-function lead(entry: ReturnType<typeof plannerOf>, input: unknown, board: SharedArrayBuffer): Awaited<ReturnType<typeof runPlanner>> | null {
-  const r = runPlannerPieces(entry, input, new SharedBoard(board, 0), "lead");
-  if (r.ok) return { ok: true, result: { parsed: r.parsed, result: r.value, pending: null } };
-  return "superseded" in r ? null : r;
+/**
+ * Both stages as the lead of the pieces on `board`: the quick answer from piece 0 (the central run) as soon
+ * as it is in (PlannerPieces.quick: the same answer as the quick stage run apart), then the full one once
+ * every piece is. Nothing more once the page has withdrawn the board for a newer request (it stops the lead;
+ * the newer request is waiting). A planner with pieces but no quick answer from them shows the full one only.
+ */
+function lead(entry: ReturnType<typeof plannerOf>, m: Extract<ToPlannerWorker, { type: "run" }>, board: SharedArrayBuffer, post: (m: FromPlannerWorker) => void, now: () => number): void {
+  const t0 = now();
+  let tFull = t0;
+  const r = runPlannerPieces(entry, m.input, new SharedBoard(board, 0), "lead", (parsed, run) => {
+    const q = entry.quick(parsed);
+    if (!q || !run.quick) return;
+    const result = run.quick(q.input);
+    const view = entry.view(parsed, result, m.units, { quick: true });
+    view.pending = q.pending;
+    post({ type: "result", id: m.id, stage: "quick", view, csv: [], parsed, result, compute_ms: now() - t0 });
+    tFull = now();
+  });
+  if (!r.ok) {
+    if (!("superseded" in r)) post({ type: "invalid", id: m.id, fieldErrors: r.fieldErrors });
+    return;
+  }
+  const view = entry.view(r.parsed, r.value, m.units, { quick: false });
+  post({ type: "result", id: m.id, stage: "full", view, csv: entry.csv(r.parsed, r.value, m.units), parsed: r.parsed, result: r.value, compute_ms: now() - tFull });
 }
 
 /**

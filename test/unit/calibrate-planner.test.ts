@@ -223,6 +223,13 @@ describe("a box saved from a calibration, planned with", () => {
     // The registry's quick first answer (no band) stays a single run, also for a calibrated box.
     const quick = await runPlanner(plannerOf("hold"), plan, "quick");
     expect(quick.ok && quick.result.pending).toMatch(/uncertainty/);
+    // The page's lead gives it from its own central run (PlannerPieces.quick): the same answer.
+    const parsedPlan = holdInputSchema.parse(plan);
+    const pieces = plannerOf("hold").pieces!.start(parsedPlan);
+    pieces.runLead();
+    const quickInput = plannerOf("hold").quick(parsedPlan)!.input;
+    expect(pieces.quick!(quickInput)).toEqual(quick.ok && quick.result.result);
+    expect(() => pieces.quick!(parsedPlan)).toThrow(/still has a band/);
   });
 
   it("a log that identifies nothing saves no box", () => {

@@ -56,8 +56,23 @@ describe("planner worker protocol", () => {
     const lead = collect();
     await lead.handle({ type: "run", id: 1, kind: "hold", input: banded, units: DEFAULT_UNIT_PREFS, board: board.buffer });
     expect(lead.out.map((m) => (m.type === "result" ? m.stage : m.type))).toEqual(["quick", "full"]);
+    // The lead's quick answer comes from its own central run (PlannerPieces.quick), not from a run apart:
+    // the same answer and view as the quick stage one worker runs on its own.
+    const quickOf = (out: FromPlannerWorker[]) => out.find((m): m is Extract<FromPlannerWorker, { type: "result" }> => m.type === "result" && m.stage === "quick")!;
+    expect(quickOf(lead.out).result).toEqual(quickOf(alone.out).result);
+    expect(quickOf(lead.out).view).toEqual(quickOf(alone.out).view);
+    expect(quickOf(lead.out).parsed).toEqual(quickOf(alone.out).parsed);
     expect(fullOf(lead.out).result).toEqual(fullOf(alone.out).result);
     expect(fullOf(lead.out).view).toEqual(fullOf(alone.out).view);
+    expect(fullOf(lead.out).csv).toEqual(fullOf(alone.out).csv);
+    // Without a band there is no quick answer either way: the full one only.
+    const noBand = { ...holdInput, uncertainty: { outerH_frac: 0, insulationK_frac: 0, conditioning_K: 0 } };
+    const plain = collect();
+    await plain.handle({ type: "run", id: 2, kind: "hold", input: noBand, units: DEFAULT_UNIT_PREFS, board: SharedBoard.create().buffer });
+    const plainAlone = collect();
+    await plainAlone.handle({ type: "run", id: 2, kind: "hold", input: noBand, units: DEFAULT_UNIT_PREFS });
+    expect(plain.out.map((m) => (m.type === "result" ? m.stage : m.type))).toEqual(["full"]);
+    expect(fullOf(plain.out).result).toEqual(fullOf(plainAlone.out).result);
   });
 
   it("a board withdrawn for a newer request: the helper takes nothing and says so, the lead gives its quick answer and no full one", async () => {
