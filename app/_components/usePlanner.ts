@@ -49,8 +49,9 @@ export function usePlanner(kind: PlannerKind, input: unknown): PlannerState {
   const units = useUnits();
   const worker = useRef<Worker | null>(null);
   const helper = useRef<Worker | null>(null);
-  /** Each request's board while the helper may still be on it. */
+  /** Each request's board while the helper may still be on it; and the last request's, until the next. */
   const boards = useRef(new Map<number, SharedBoard>());
+  const lastBoard = useRef<SharedBoard | null>(null);
   /** Starts the wait for the helper's word on a request's board (HELPER_TIMEOUT_MS). */
   const helperTimeout = useRef<(id: number) => void>(() => {});
   const seq = useRef(0);
@@ -122,12 +123,14 @@ export function usePlanner(kind: PlannerKind, input: unknown): PlannerState {
     sent.current.set(id, key + JSON.stringify(units));
     const t = setTimeout(() => {
       const input: unknown = JSON.parse(key);
-      // A newer request: no worker takes another piece of an older one.
+      // A newer request: no worker takes another piece of an older one (its lead stops too).
       for (const b of boards.current.values()) b.withdraw();
+      lastBoard.current?.withdraw();
       let board: SharedBoard | null = null;
       if (helper.current) {
         board = SharedBoard.create();
         boards.current.set(id, board);
+        lastBoard.current = board;
         const help: ToPlannerWorker = { type: "help", id, kind, input, board: board.buffer };
         helper.current.postMessage(help);
         helperTimeout.current(id);

@@ -40,6 +40,8 @@ function pieces(kind: Calculation, input: unknown, p: NonNullable<CalcJob["piece
     return { ok: true, helped: true };
   }
   const r = runPlannerPieces(plannerOf(kind), input, board, "lead");
+  // The pool never withdraws a board: a lead that says it was replaced is a defect.
+  if (!r.ok && "superseded" in r) return defect(new Error(r.message));
   if (!r.ok) return { ok: false, status: 422, message: r.message ?? "Some fields are not valid", fieldErrors: r.fieldErrors };
   return finished(r.value);
 }

@@ -63,7 +63,9 @@ const SUPERSEDED: PieceRun = { ok: false, superseded: true, fieldErrors: {}, mes
  * piece 0, then takes pieces until none is left, waits for the others', runs itself any that another
  * thread gave up, and returns the whole result (the same as runPlanner's). A helper takes pieces until none
  * is left and returns nothing; on input the lead will reject it does nothing, and if a piece throws it
- * gives that piece up (the lead runs it again and reports the error).
+ * gives that piece up (the lead runs it again and reports the error). A lead whose board the host has
+ * withdrawn stops after the piece in hand and returns `superseded`. `afterLead` sees piece 0's run once it
+ * is in, before any other piece (the page's quick answer).
  */
 export function runPlannerPieces(entry: PlannerEntry, input: unknown, board: PieceBoard, role: "lead" | "helper", afterLead?: (parsed: unknown, run: PlannerPieces<unknown>) => void): PieceRun {
   const pc = entry.pieces;

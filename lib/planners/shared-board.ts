@@ -92,7 +92,7 @@ export class SharedBoard implements PieceBoard {
   }
   /**
    * A newer request has replaced this one (the page's workers): no thread takes another piece from it. A
-   * lead still running it runs itself whatever was not taken; a helper stops after its current piece.
+   * lead or helper still on it stops after its current piece, the lead without an answer (runPlannerPieces).
    */
   withdraw(): void {
     Atomics.store(this.head, WITHDRAWN, 1);

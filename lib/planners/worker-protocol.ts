@@ -83,24 +83,25 @@ function isShared(x: unknown): x is SharedArrayBuffer {
  * every piece is. Nothing more once the page has withdrawn the board for a newer request (it stops the lead;
  * the newer request is waiting). A planner with pieces but no quick answer from them shows the full one only.
  */
-function lead(entry: ReturnType<typeof plannerOf>, m: Extract<ToPlannerWorker, { type: "run" }>, board: SharedArrayBuffer, post: (m: FromPlannerWorker) => void, now: () => number): void {
+function lead(entry: ReturnType<typeof plannerOf>, m: Extract<ToPlannerWorker, { type: "run" }>, buffer: SharedArrayBuffer, post: (m: FromPlannerWorker) => void, now: () => number): void {
+  // compute_ms: the quick answer's from the start, the full answer's from the start too (its own stage
+  // began with the central run the quick answer shares).
   const t0 = now();
-  let tFull = t0;
-  const r = runPlannerPieces(entry, m.input, new SharedBoard(board, 0), "lead", (parsed, run) => {
+  const board = new SharedBoard(buffer, 0);
+  const r = runPlannerPieces(entry, m.input, board, "lead", (parsed, run) => {
     const q = entry.quick(parsed);
-    if (!q || !run.quick) return;
+    if (!q || !run.quick || board.withdrawn()) return;
     const result = run.quick(q.input);
     const view = entry.view(parsed, result, m.units, { quick: true });
     view.pending = q.pending;
     post({ type: "result", id: m.id, stage: "quick", view, csv: [], parsed, result, compute_ms: now() - t0 });
-    tFull = now();
   });
   if (!r.ok) {
     if (!("superseded" in r)) post({ type: "invalid", id: m.id, fieldErrors: r.fieldErrors });
     return;
   }
   const view = entry.view(r.parsed, r.value, m.units, { quick: false });
-  post({ type: "result", id: m.id, stage: "full", view, csv: entry.csv(r.parsed, r.value, m.units), parsed: r.parsed, result: r.value, compute_ms: now() - tFull });
+  post({ type: "result", id: m.id, stage: "full", view, csv: entry.csv(r.parsed, r.value, m.units), parsed: r.parsed, result: r.value, compute_ms: now() - t0 });
 }
 
 /**

@@ -1,6 +1,7 @@
 import { describe, it, expect } from "vitest";
 import { runHoldParsed, holdPieces } from "../../lib/physics/hold";
 import { plannerOf } from "../../lib/planners/registry";
+import { holdPlanner } from "../../lib/planners/hold";
 import { runPlannerPieces } from "../../lib/planners/run";
 import { TestBoard } from "../helpers/piece-board";
 import { holdInputSchema, type HoldInput } from "../../lib/schemas/hold";
@@ -228,6 +229,32 @@ describe("hold planner: the face next to a pack, on the page's default plan", ()
 });
 
 describe("hold planner: the band run in pieces on several threads (as the server's pool does)", () => {
+  // The page's lead shows the quick answer from its own central run (PlannerPieces.quick): it must be what
+  // the quick stage gives when run apart, for every kind of input the quick input differs in (only the
+  // spreads are zeroed; calibrated boxes draw their band from fitted intervals).
+  it("the quick answer from the lead's central run equals the quick input run apart, plain, extended, overridden, calibrated", () => {
+    const intervals = { wallConductance: { low: 0.9, high: 1.1 }, innerH: { low: 0.8, high: 1.2 }, contact: { low: 0.7, high: 1.3 } };
+    const calibration = { wallConductance: 1.2, innerH: 0.9, contact: 0.8, source: "test" };
+    const base = holdInput(true);
+    const variants: Partial<HoldInput>[] = [
+      {},
+      { extendFraction: 3 },
+      { overrides: { ...base.overrides, outerH_W_m2K: 7, innerH_W_m2K: 4, wallUA_W_K: 0.8, sunShareSides: 0.6 } },
+      { uncertainty: { outerH_frac: 0, insulationK_frac: 0, conditioning_K: 3 } },
+      { uncertainty: { outerH_frac: 0.2, insulationK_frac: 0, conditioning_K: 0 } },
+      { calibration: { ...calibration, intervals } },
+      { calibration: { ...calibration, intervals }, uncertainty: { outerH_frac: 0, insulationK_frac: 0, conditioning_K: 2 } },
+      { calibration },
+    ];
+    for (const v of variants) {
+      const p = holdInputSchema.parse({ ...base, ...v });
+      const q = holdPlanner.quick(p)!;
+      const pieces = holdPieces(p);
+      pieces.runLead();
+      expect(pieces.quick(q.input)).toEqual(runHoldParsed(q.input));
+    }
+  });
+
   it("gives exactly the one-piece answer however the pieces are shared, through the registry's entry", () => {
     const inp = holdInput(true);
     const whole = runHoldParsed(inp);

@@ -75,17 +75,29 @@ describe("planner worker protocol", () => {
     expect(fullOf(plain.out).result).toEqual(fullOf(plainAlone.out).result);
   });
 
-  it("a board withdrawn for a newer request: the helper takes nothing and says so, the lead gives its quick answer and no full one", async () => {
+  it("a board withdrawn before its request is worked on: the helper takes nothing and says so, the lead posts nothing", async () => {
     const board = SharedBoard.create();
     board.withdraw();
     const helper = collect();
     await helper.handle({ type: "help", id: 1, kind: "hold", input: banded, board: board.buffer });
     expect(helper.out).toEqual([{ type: "helped", id: 1 }]);
-    expect(board.isIn(1)).toBe(false);
     const lead = collect();
     await lead.handle({ type: "run", id: 1, kind: "hold", input: banded, units: DEFAULT_UNIT_PREFS, board: board.buffer });
-    expect(lead.out.map((m) => (m.type === "result" ? m.stage : m.type))).toEqual(["quick"]);
-    expect(board.take()).toBeGreaterThanOrEqual(board.capacity); // nothing more is given out
+    expect(lead.out).toEqual([]);
+    for (let at = 1; at < 9; at++) expect([board.isIn(at), board.ownerOf(at)]).toEqual([false, 0]);
+  });
+
+  it("a board withdrawn once the quick answer is out (the page sent a newer request): the lead stops without running the corners", async () => {
+    const board = SharedBoard.create();
+    const out: FromPlannerWorker[] = [];
+    const handle = plannerWorkerHandler((m) => {
+      out.push(m);
+      if (m.type === "result" && m.stage === "quick") board.withdraw();
+    });
+    await handle({ type: "run", id: 1, kind: "hold", input: banded, units: DEFAULT_UNIT_PREFS, board: board.buffer });
+    expect(out.map((m) => (m.type === "result" ? m.stage : m.type))).toEqual(["quick"]);
+    // No corner was taken, let alone put in.
+    for (let at = 1; at < 9; at++) expect(board.isIn(at)).toBe(false);
   });
 
   it("a helper with input the lead will reject, a planner without pieces or an unknown one takes nothing and says so", async () => {
