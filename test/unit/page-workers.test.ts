@@ -56,10 +56,20 @@ describe("the page's lead and helper workers on real threads", () => {
       if (m.type === "helped" && m.id === id) board.helperSettled(1, true);
     });
 
-  it("gives the one worker's full answer to the last digit, and the helper takes corners", async () => {
+  /** A fresh lead and helper worker for `fn`, stopped after it. */
+  async function withWorkers(fn: (lead: Worker, helper: Worker) => Promise<void>): Promise<void> {
     const lead = new Worker(host);
     const helper = new Worker(host);
     try {
+      await fn(lead, helper);
+    } finally {
+      await lead.terminate();
+      await helper.terminate();
+    }
+  }
+
+  it("gives the one worker's full answer to the last digit, and the helper takes corners", () =>
+    withWorkers(async (lead, helper) => {
       let byHelper = 0;
       for (let id = 1; id <= 6; id++) {
         const board = SharedBoard.create();
@@ -72,16 +82,10 @@ describe("the page's lead and helper workers on real threads", () => {
       // The helper starts on the corners while the lead works out the quick answer (not asserted per run: a
       // busy machine may start the helper's thread late, and the lead then takes the rest itself).
       expect(byHelper).toBeGreaterThan(0);
-    } finally {
-      await lead.terminate();
-      await helper.terminate();
-    }
-  }, 120_000);
+    }), 120_000);
 
-  it("a board withdrawn mid-run for a newer request: the newer one gets the right answer, the older one none or the right one", async () => {
-    const lead = new Worker(host);
-    const helper = new Worker(host);
-    try {
+  it("a board withdrawn mid-run for a newer request: the newer one gets the right answer, the older one none or the right one", () =>
+    withWorkers(async (lead, helper) => {
       for (const delay_ms of [0, 3, 8]) {
         const b1 = SharedBoard.create();
         const b2 = SharedBoard.create();
@@ -96,16 +100,10 @@ describe("the page's lead and helper workers on real threads", () => {
         // The lead takes requests in turn: by now the older one has given its full answer or stopped.
         if (older !== null) expect((older as Full).result).toEqual(alone.result);
       }
-    } finally {
-      await lead.terminate();
-      await helper.terminate();
-    }
-  }, 120_000);
+    }), 120_000);
 
-  it("a helper stopped mid-run and then settled leaves the answer as it was", async () => {
-    const lead = new Worker(host);
-    const helper = new Worker(host);
-    try {
+  it("a helper stopped mid-run and then settled leaves the answer as it was", () =>
+    withWorkers(async (lead, helper) => {
       const b2 = SharedBoard.create();
       const stopped = request(lead, helper, 2, b2, () =>
         setTimeout(() => {
@@ -113,9 +111,5 @@ describe("the page's lead and helper workers on real threads", () => {
         }, 3),
       );
       expect((await stopped).result).toEqual(alone.result);
-    } finally {
-      await lead.terminate();
-      await helper.terminate();
-    }
-  }, 120_000);
+    }), 120_000);
 });
