@@ -123,8 +123,8 @@ export function usePlanner(kind: PlannerKind, input: unknown): PlannerState {
     sent.current.set(id, key + JSON.stringify(units));
     const t = setTimeout(() => {
       const input: unknown = JSON.parse(key);
-      // A newer request: no worker takes another piece of an older one (its lead stops too).
-      for (const b of boards.current.values()) b.withdraw();
+      // A newer request: no worker takes another piece of the older one (its lead stops too). Every board
+      // before it was withdrawn when its own successor went out.
       lastBoard.current?.withdraw();
       let board: SharedBoard | null = null;
       if (helper.current) {

@@ -30,13 +30,7 @@ export type CalcAnswer =
 function pieces(kind: Calculation, input: unknown, p: NonNullable<CalcJob["pieces"]>): CalcAnswer | HelperAnswer {
   const board = new SharedBoard(p.board, p.helper);
   if (p.helper > 0) {
-    // Nothing left to take: the lead has all the pieces it needs (a helper that started late).
-    if (board.isClosed()) return { ok: true, helped: true };
-    try {
-      runPlannerPieces(plannerOf(kind), input, board, "helper");
-    } catch {
-      // The piece was given up (its number NaN): the lead runs it again and reports what went wrong.
-    }
+    runPlannerPieces(plannerOf(kind), input, board, "helper");
     return { ok: true, helped: true };
   }
   const r = runPlannerPieces(plannerOf(kind), input, board, "lead");

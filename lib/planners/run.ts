@@ -43,6 +43,7 @@ export interface PieceBoard {
   put(at: number, value: number): void;
   /** Said by the lead once it has taken the last piece (or will run them all itself): a helper starting later has nothing to do. */
   close(): void;
+  isClosed(): boolean;
   /** Waits until every piece from 1 to count − 1 has its number (NaN where its thread gave up, or is gone) and returns them. */
   collect(count: number): ArrayLike<number>;
   /** Whether the host has withdrawn the board for a newer request: the lead's answer is no longer wanted. */
@@ -62,14 +63,16 @@ const SUPERSEDED: PieceRun = { ok: false, superseded: true, fieldErrors: {}, mes
  * Runs a planner's pieces on untrusted input, as one of several threads sharing `board`. The lead runs
  * piece 0, then takes pieces until none is left, waits for the others', runs itself any that another
  * thread gave up, and returns the whole result (the same as runPlanner's). A helper takes pieces until none
- * is left and returns nothing; on input the lead will reject it does nothing, and if a piece throws it
- * gives that piece up (the lead runs it again and reports the error). A lead whose board the host has
+ * is left and returns nothing, never throwing: on a closed board (it started late) or input the lead will
+ * reject it does nothing, and if a piece throws it gives that piece up and stops (the lead runs it again
+ * and reports the error). A lead whose board the host has
  * withdrawn stops after the piece in hand and returns `superseded`. `afterLead` sees piece 0's run once it
  * is in, before any other piece (the page's quick answer).
  */
 export function runPlannerPieces(entry: PlannerEntry, input: unknown, board: PieceBoard, role: "lead" | "helper", afterLead?: (parsed: unknown, run: PlannerPieces<unknown>) => void): PieceRun {
   const pc = entry.pieces;
   if (!pc) return { ok: false, fieldErrors: { "": ["This calculation does not come in pieces"] }, message: "This calculation does not come in pieces" };
+  if (role === "helper" && board.isClosed()) return { ok: true, value: null, parsed: null };
   const parsed = entry.schema.safeParse(input);
   if (!parsed.success) return role === "lead" ? { ok: false, fieldErrors: fieldErrorsOf(parsed.error) } : { ok: true, value: null, parsed: null };
   try {
@@ -80,9 +83,10 @@ export function runPlannerPieces(entry: PlannerEntry, input: unknown, board: Pie
       for (let at = board.take(); at < run.count; at = board.take()) {
         try {
           board.put(at, run.runPiece(at));
-        } catch (e) {
+        } catch {
+          // Given up (its number NaN): the lead runs it again and reports what went wrong.
           board.put(at, NaN);
-          throw e;
+          break;
         }
       }
       return { ok: true, value: null, parsed: null };
@@ -104,7 +108,9 @@ export function runPlannerPieces(entry: PlannerEntry, input: unknown, board: Pie
     }
     return { ok: true, value: run.finish(values), parsed: parsed.data };
   } catch (e) {
-    if (e instanceof PhysicsInputError) return role === "lead" ? { ok: false, fieldErrors: { [e.field]: [e.message] }, message: e.message } : { ok: true, value: null, parsed: null };
+    // A helper leaves every failure to the lead, which meets it again and reports it.
+    if (role === "helper") return { ok: true, value: null, parsed: null };
+    if (e instanceof PhysicsInputError) return { ok: false, fieldErrors: { [e.field]: [e.message] }, message: e.message };
     throw e;
   }
 }

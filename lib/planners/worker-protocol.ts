@@ -111,13 +111,7 @@ function lead(entry: ReturnType<typeof plannerOf>, m: Extract<ToPlannerWorker, {
  */
 function help(m: Extract<ToPlannerWorker, { type: "help" }>, post: (m: FromPlannerWorker) => void): void {
   try {
-    const entry = isPlannerKind(m.kind) ? plannerOf(m.kind) : null;
-    if (entry?.pieces && isShared(m.board)) {
-      const board = new SharedBoard(m.board, 1);
-      if (!board.isClosed()) runPlannerPieces(entry, m.input, board, "helper");
-    }
-  } catch {
-    // The piece was given up (its number NaN): the lead runs it again.
+    if (isPlannerKind(m.kind) && isShared(m.board)) runPlannerPieces(plannerOf(m.kind), m.input, new SharedBoard(m.board, 1), "helper");
   } finally {
     post({ type: "helped", id: m.id });
   }

@@ -34,6 +34,9 @@ export class TestBoard implements PieceBoard {
   close(): void {
     this.closed = true;
   }
+  isClosed(): boolean {
+    return this.closed;
+  }
   withdrawn(): boolean {
     return false;
   }
